@@ -1,0 +1,31 @@
+//! # sunlot
+//!
+//! Sun-exposure analysis for building lots, as a pure Rust core that runs natively and in WebAssembly.
+//!
+//! ## Conventions (held everywhere in the crate)
+//! - **Angles** are in degrees. Azimuth is measured clockwise from true north, 0–360° (90° east,
+//!   180° south). Altitude (elevation angle) is above the horizon; zenith = 90° − altitude.
+//! - **Latitude** north positive, **longitude** east positive, on WGS84; **heights** in metres.
+//! - **Instants** are `chrono::DateTime<Utc>`; a [`time::Zone`] (IANA or fixed offset) goes with them
+//!   for reading and writing local clock times. Local times that a daylight-saving change skips or
+//!   repeats are never guessed: see [`time::Zone::resolve`].
+//! - **Units** are in names (`height_m`, `irradiance_w_m2`, `step_min`) or in types.
+//! - "The sun is down" is a value, never an error; bad input is a typed error naming the field.
+//!
+//! ## Modules
+//! - [`time`]: zones, RFC 3339 and local times, Julian days, ΔT.
+//! - [`solar`]: the sun's position (NREL SPA), day events, equinoxes and solstices.
+//! - [`sky`]: clear-sky irradiance (Bird), air mass (Kasten–Young), tilted surfaces.
+//! - [`demo`]: the invented demo scenario.
+//! - `web` (wasm32 only): the JavaScript facade.
+
+pub mod demo;
+pub mod sky;
+pub mod solar;
+pub mod time;
+
+#[cfg(target_arch = "wasm32")]
+pub mod web;
+
+pub use solar::{day_events, season_instants, solar_position, Atmosphere, DayEvents, Seasons, Site, SolarPosition};
+pub use time::{DeltaT, Zone};
