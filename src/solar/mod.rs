@@ -10,4 +10,4 @@ mod terms;
 pub use events::{day_events, rise_transit_set_ut, Crossing, DayEvents, UtDayEvents, CIVIL_TWILIGHT_DEG, SUNRISE_DEG};
 pub use input::{Atmosphere, InputError, Site};
 pub use position::{solar_position, SolarPosition, SunAtInstant};
-pub use seasons::{season_instants, Seasons};
+pub use seasons::{season_instants, season_jde, Seasons};
