@@ -1,1 +1,63 @@
-fn main() {}
+//! The `sunlot` command line: parse, call the core, print.
+
+mod args;
+mod batch;
+mod day;
+mod demo;
+mod irradiance;
+mod output;
+mod position;
+mod seasons;
+
+use std::io::Write;
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand};
+
+/// Sun-exposure analysis for building lots. Angles in degrees, azimuth clockwise from true north;
+/// times as RFC 3339 or local time with an IANA zone. Results are indicative.
+#[derive(Debug, Parser)]
+#[command(name = "sunlot", version, about, max_term_width = 100)]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Debug, Subcommand)]
+enum Command {
+    /// Where the sun is (altitude, azimuth, zenith, declination, equation of time) at a moment, through
+    /// a day, or for every row of a CSV on standard input.
+    Position(position::PositionArgs),
+    /// Sunrise, solar noon, sunset, day length and civil twilight for local dates.
+    Day(day::DayArgs),
+    /// Equinox and solstice instants of a year.
+    Seasons(seasons::SeasonsArgs),
+    /// Clear-sky irradiance (Bird model) on the horizontal and on a tilted surface.
+    Irradiance(irradiance::IrradianceArgs),
+    /// The sun at the built-in, invented demo site through the year's key dates.
+    Demo(demo::DemoArgs),
+}
+
+fn main() -> ExitCode {
+    let cli = Cli::parse();
+    let result = match &cli.command {
+        Command::Position(a) => position::run(a),
+        Command::Day(a) => day::run(a),
+        Command::Seasons(a) => seasons::run(a),
+        Command::Irradiance(a) => irradiance::run(a),
+        Command::Demo(a) => demo::run(a),
+    };
+    match result {
+        Ok(text) => {
+            let mut out = std::io::stdout().lock();
+            if out.write_all(text.as_bytes()).and_then(|_| out.flush()).is_err() {
+                return ExitCode::from(1);
+            }
+            ExitCode::SUCCESS
+        }
+        Err(message) => {
+            eprintln!("sunlot: error: {message}");
+            ExitCode::from(2)
+        }
+    }
+}

@@ -1,0 +1,157 @@
+//! Options shared by several commands: the site, the air, ΔT, the zone and the moment.
+
+use chrono::{DateTime, NaiveDate, Utc};
+use clap::{Args, ValueEnum};
+use sunlot::solar::{Atmosphere, InputError, Site};
+use sunlot::time::{parse_instant, DeltaT, Fold, Zone};
+
+/// The flag a core field name comes from, so messages name what the user typed.
+pub fn flag_for(field: &str) -> &str {
+    match field {
+        "latitude_deg" => "--lat",
+        "longitude_deg" => "--lon",
+        "elevation_m" => "--elevation-m",
+        "pressure_hpa" => "--pressure-hpa",
+        "temperature_c" => "--temperature-c",
+        "delta_t_s" => "--delta-t-s",
+        other => other,
+    }
+}
+
+/// An input error worded for the command line.
+pub fn input_message(e: &InputError) -> String {
+    match e {
+        InputError::NotFinite { field, value } => format!("{} must be a finite number, got {value}", flag_for(field)),
+        InputError::OutOfRange { field, value, min, max } => format!("{} must be between {min} and {max}, got {value}", flag_for(field)),
+        other => other.to_string(),
+    }
+}
+
+#[derive(Debug, Clone, Args)]
+pub struct SiteArgs {
+    /// Latitude of the site, degrees, north positive (−90 to 90).
+    #[arg(long, allow_hyphen_values = true, required_unless_present = "demo")]
+    pub lat: Option<f64>,
+    /// Longitude of the site, degrees, east positive (−180 to 180).
+    #[arg(long, allow_hyphen_values = true, required_unless_present = "demo")]
+    pub lon: Option<f64>,
+    /// Height of the site above sea level, metres.
+    #[arg(long, allow_hyphen_values = true, default_value_t = 0.0)]
+    pub elevation_m: f64,
+    /// Use the built-in demo site (an invented lot at 52.62° N, 1.87° W, 118 m, Europe/London).
+    #[arg(long, conflicts_with_all = ["lat", "lon"])]
+    pub demo: bool,
+}
+
+impl SiteArgs {
+    pub fn site(&self) -> Result<Site, String> {
+        if self.demo {
+            return Ok(sunlot::demo::demo_site());
+        }
+        let (lat, lon) = (self.lat.unwrap_or(f64::NAN), self.lon.unwrap_or(f64::NAN));
+        Site::new(lat, lon, self.elevation_m).map_err(|e| input_message(&e))
+    }
+}
+
+#[derive(Debug, Clone, Args)]
+pub struct AirArgs {
+    /// Mean local air pressure for refraction, hectopascals (= millibars).
+    #[arg(long, default_value_t = 1013.25)]
+    pub pressure_hpa: f64,
+    /// Mean local air temperature for refraction, degrees Celsius.
+    #[arg(long, allow_hyphen_values = true, default_value_t = 10.0)]
+    pub temperature_c: f64,
+    /// Give the true geometric position, without atmospheric refraction.
+    #[arg(long)]
+    pub no_refraction: bool,
+}
+
+impl AirArgs {
+    pub fn atmosphere(&self) -> Result<Atmosphere, String> {
+        Atmosphere::new(self.pressure_hpa, self.temperature_c, !self.no_refraction).map_err(|e| input_message(&e))
+    }
+}
+
+#[derive(Debug, Clone, Args)]
+pub struct DeltaTArgs {
+    /// ΔT = TT − UT, seconds. Default: the Espenak–Meeus (2006) polynomials (≈ 69 s in 2020–2026
+    /// measured; the polynomial gives a few seconds more).
+    #[arg(long, allow_hyphen_values = true)]
+    pub delta_t_s: Option<f64>,
+}
+
+impl DeltaTArgs {
+    pub fn delta_t(&self) -> Result<DeltaT, String> {
+        match self.delta_t_s {
+            Some(s) if !s.is_finite() => Err(format!("--delta-t-s must be a finite number, got {s}")),
+            Some(s) => Ok(DeltaT::Seconds(s)),
+            None => Ok(DeltaT::EspenakMeeus),
+        }
+    }
+}
+
+/// Which instant a repeated local time (clocks going back) means.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum FoldArg {
+    /// The first occurrence, before the clocks go back.
+    Earlier,
+    /// The second occurrence, after the clocks go back.
+    Later,
+}
+
+#[derive(Debug, Clone, Args)]
+pub struct ZoneArgs {
+    /// Time zone for local times: an IANA name (Europe/London, America/Denver) or an offset (+01:00).
+    /// Default: the demo site's zone with --demo, else the offset written in --time, else UTC.
+    #[arg(long)]
+    pub zone: Option<String>,
+    /// For a local time that occurs twice (clocks going back): which one is meant. Without it such a
+    /// time is refused.
+    #[arg(long, value_enum)]
+    pub fold: Option<FoldArg>,
+}
+
+impl ZoneArgs {
+    pub fn zone(&self, demo: bool) -> Result<Option<Zone>, String> {
+        match (&self.zone, demo) {
+            (Some(z), _) => z.parse().map(Some).map_err(|e: sunlot::time::TimeError| format!("--zone: {e}")),
+            (None, true) => Ok(Some(sunlot::demo::DEMO_ZONE.parse().map_err(|e: sunlot::time::TimeError| e.to_string())?)),
+            (None, false) => Ok(None),
+        }
+    }
+
+    pub fn fold(&self) -> Fold {
+        match self.fold {
+            None => Fold::Reject,
+            Some(FoldArg::Earlier) => Fold::Earlier,
+            Some(FoldArg::Later) => Fold::Later,
+        }
+    }
+}
+
+/// One instant from `--time` (RFC 3339) or `--local` (wall time in `--zone`), with the display zone.
+pub fn instant(time: Option<&str>, local: Option<&str>, zones: &ZoneArgs, demo: bool) -> Result<Option<(DateTime<Utc>, Zone)>, String> {
+    let zone = zones.zone(demo)?;
+    match (time, local) {
+        (Some(t), _) => {
+            let (i, written) = parse_instant(t).map_err(|e| format!("--time: {e}"))?;
+            Ok(Some((i, zone.unwrap_or(written))))
+        }
+        (None, Some(l)) => {
+            let zone = zone.ok_or("--local needs --zone (an IANA name such as Europe/London, or an offset)")?;
+            let i = zone.parse_local(l, zones.fold()).map_err(|e| format!("--local: {e}"))?;
+            Ok(Some((i, zone)))
+        }
+        (None, None) => Ok(None),
+    }
+}
+
+/// A date from `--date`.
+pub fn date(text: &str, flag: &str) -> Result<NaiveDate, String> {
+    Zone::parse_date(text).map_err(|e| format!("{flag}: {e}"))
+}
+
+/// An instant in a zone, as RFC 3339 to the second.
+pub fn rfc3339(t: DateTime<Utc>, zone: &Zone) -> String {
+    zone.local(t).to_rfc3339_opts(chrono::SecondsFormat::Secs, true)
+}

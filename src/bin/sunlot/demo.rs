@@ -1,0 +1,80 @@
+//! `sunlot demo`: the sun at the invented demo site through the year's key dates.
+
+use chrono::Datelike;
+use clap::Args;
+use sunlot::demo::{demo_site, DEMO_SITE_NAME, DEMO_ZONE};
+use sunlot::solar::{day_events, season_instants, Atmosphere, SunAtInstant};
+use sunlot::time::{DeltaT, Zone};
+
+use crate::args::input_message;
+use crate::day::{day_row, day_table};
+use crate::output::{Cell, Format, Table};
+
+#[derive(Debug, Args)]
+pub struct DemoArgs {
+    /// Year to show (default: this year).
+    #[arg(long)]
+    pub year: Option<i32>,
+}
+
+pub fn run(a: &DemoArgs) -> Result<String, String> {
+    let year = a.year.unwrap_or_else(|| chrono::Utc::now().year());
+    let site = demo_site();
+    let zone: Zone = DEMO_ZONE.parse().map_err(|e: sunlot::time::TimeError| e.to_string())?;
+    let dt = DeltaT::EspenakMeeus;
+    let seasons = season_instants(year, dt).map_err(|e| input_message(&e))?;
+    let mut out = format!(
+        "sunlot demo — {DEMO_SITE_NAME}\n  {:.2}° N, {:.2}° W, {} m above sea level, zone {zone}\n\n",
+        site.latitude_deg,
+        -site.longitude_deg,
+        site.elevation_m
+    );
+
+    let key = [
+        ("March equinox", seasons.march_equinox),
+        ("June solstice", seasons.june_solstice),
+        ("September equinox", seasons.september_equinox),
+        ("December solstice", seasons.december_solstice),
+    ];
+    let mut days = day_table(&zone);
+    days.title = format!("The sun's day on the equinoxes and solstices of {year}");
+    days.columns.insert(0, "occasion");
+    days.columns.insert(1, "instant");
+    for (name, t) in key {
+        let ev = day_events(&site, zone.local_date(t), &zone, dt).map_err(|e| input_message(&e))?;
+        let mut r = vec![Cell::text(name), Cell::text(zone.local(t).format("%Y-%m-%d %H:%M %Z").to_string())];
+        r.extend(day_row(&ev, &zone, true));
+        days.rows.push(r);
+    }
+    days.drop_columns(&["day_length_h", "zone", "sun", "date"]);
+    out += &days.render(Format::Table);
+    out.push('\n');
+
+    for (name, t) in [key[0], key[1], key[3]] {
+        let date = zone.local_date(t);
+        let mut table = Table::new(
+            format!("Sun every hour on {date} ({name}), local time {zone}"),
+            vec!["local_time", "altitude_deg", "azimuth_deg", "shadow_per_m_height_m", "direction_of_shadow_deg"],
+        );
+        let (start, end) = crate::position::day_bounds(&zone, date);
+        let mut at = start;
+        while at < end {
+            let p = SunAtInstant::new(at, dt).map_err(|e| input_message(&e))?.observe(&site, &Atmosphere::default());
+            if p.is_up() {
+                table.rows.push(vec![
+                    Cell::text(zone.local(at).format("%H:%M").to_string()),
+                    Cell::num(p.altitude_deg, 2),
+                    Cell::num(p.azimuth_deg, 2),
+                    Cell::num(1.0 / p.altitude_deg.to_radians().tan(), 2),
+                    Cell::num((p.azimuth_deg + 180.0) % 360.0, 1),
+                ]);
+            }
+            at += chrono::Duration::hours(1);
+        }
+        table.notes.push("Shadow length per metre of height = 1 / tan(altitude), on flat ground (common practice).".into());
+        out += &table.render(Format::Table);
+        out.push('\n');
+    }
+    out += "Indicative results from the NREL SPA; the site is invented. Local planning codes and a licensed\nprofessional's assessment govern any planning decision.\n";
+    Ok(out)
+}
