@@ -1,0 +1,92 @@
+//! The JavaScript facade in headless Chromium (wasm-bindgen-test): the SPA paper's worked example
+//! through the browser path, and thrown errors for bad input.
+//!
+//! Inputs are built as JavaScript objects (JSON.parse), the way a page would pass them.
+#![cfg(target_arch = "wasm32")]
+
+use js_sys::{Reflect, JSON};
+use wasm_bindgen::JsValue;
+use wasm_bindgen_test::*;
+
+wasm_bindgen_test_configure!(run_in_browser);
+
+fn js(text: &str) -> JsValue {
+    JSON::parse(text).expect("test input is JSON")
+}
+
+fn get(v: &JsValue, key: &str) -> JsValue {
+    Reflect::get(v, &JsValue::from_str(key)).expect("field present")
+}
+
+fn num(v: &JsValue, key: &str) -> f64 {
+    get(v, key).as_f64().unwrap_or_else(|| panic!("{key} is a number"))
+}
+
+fn error_message(r: Result<JsValue, wasm_bindgen::JsError>) -> String {
+    let e: JsValue = r.err().expect("an error").into();
+    get(&e, "message").as_string().expect("message string")
+}
+
+/// Reda & Andreas (2004), Table A5.2: zenith 50.11162°, azimuth 194.34024°; the same as the native core.
+#[wasm_bindgen_test]
+fn spa_worked_example_in_the_browser() {
+    let input = r#"{"latitudeDeg": 39.742476, "longitudeDeg": -105.1786, "elevationM": 1830.14,
+        "time": "2003-10-17T12:30:30-07:00", "pressureHpa": 820, "temperatureC": 11, "deltaTS": 67}"#;
+    let out = sunlot::web::solar_position(js(input)).expect("position");
+    assert!((num(&out, "zenithDeg") - 50.11162).abs() < 5e-6);
+    assert!((num(&out, "azimuthDeg") - 194.34024).abs() < 5e-6);
+    assert!((num(&out, "equationOfTimeMin") - 14.641511).abs() < 5e-6);
+    assert_eq!(get(&out, "time").as_string().unwrap(), "2003-10-17T12:30:30-07:00");
+
+    let native = sunlot::solar_position(
+        &sunlot::Site::new(39.742476, -105.1786, 1830.14).unwrap(),
+        sunlot::time::parse_instant("2003-10-17T12:30:30-07:00").unwrap().0,
+        &sunlot::Atmosphere::new(820.0, 11.0, true).unwrap(),
+        sunlot::DeltaT::Seconds(67.0),
+    )
+    .unwrap();
+    assert_eq!(num(&out, "zenithDeg"), native.zenith_deg);
+    assert_eq!(num(&out, "azimuthDeg"), native.azimuth_deg);
+}
+
+#[wasm_bindgen_test]
+fn paper_sunrise_and_polar_night_in_the_browser() {
+    let out = sunlot::web::day_events(js(r#"{"latitudeDeg": 39.742476, "longitudeDeg": -105.1786,
+        "date": "2003-10-17", "zone": "-07:00", "deltaTS": 67}"#))
+    .unwrap();
+    assert_eq!(get(&out, "sunrise").as_string().unwrap(), "2003-10-17T06:12:43-07:00");
+    assert_eq!(get(&out, "solarNoon").as_string().unwrap(), "2003-10-17T11:46:04-07:00"); // 11:46:04.96, seconds truncated as in the paper
+    let polar = sunlot::web::day_events(js(r#"{"latitudeDeg": 78.2, "longitudeDeg": 15.6, "date": "2026-12-21", "zone": "Arctic/Longyearbyen"}"#)).unwrap();
+    assert_eq!(get(&polar, "sun").as_string().unwrap(), "alwaysDown");
+    assert!(get(&polar, "sunrise").is_null());
+}
+
+#[wasm_bindgen_test]
+fn bad_input_throws_errors_that_name_the_field() {
+    let m = error_message(sunlot::web::solar_position(js(r#"{"latitudeDeg": 91, "longitudeDeg": 0, "time": "2020-01-01T00:00:00Z"}"#)));
+    assert!(m.contains("latitude_deg must be between -90 and 90"), "{m}");
+    let m = error_message(sunlot::web::solar_position(js(r#"{"latitudeDeg": 10, "longitudeDeg": 0, "time": "noon"}"#)));
+    assert!(m.contains("\"noon\" is not an RFC 3339"), "{m}");
+    let m = error_message(sunlot::web::solar_position(js(r#"{"longitudeDeg": 0, "time": "2020-01-01T00:00:00Z"}"#)));
+    assert!(m.contains("latitudeDeg"), "{m}");
+    let m = error_message(sunlot::web::solar_position(js(r#"{"latitudeDeg": 51, "longitudeDeg": 0, "localTime": "2024-03-31T01:30", "zone": "Europe/London"}"#)));
+    assert!(m.contains("does not exist in Europe/London"), "{m}");
+    let m = error_message(sunlot::web::day_events(js(r#"{"latitudeDeg": 51, "longitudeDeg": 0, "date": "2024-03-31", "zone": "Mars/Base"}"#)));
+    assert!(m.contains("zone"), "{m}");
+    let m = error_message(sunlot::web::season_instants(7000, None));
+    assert!(m.contains("year 7000"), "{m}");
+    let m = error_message(sunlot::web::clear_sky(js(r#"{"zenithDeg": 30, "dayOfYear": 400}"#)));
+    assert!(m.contains("dayOfYear"), "{m}");
+    // Not an object at all.
+    let m = error_message(sunlot::web::solar_position(JsValue::from_f64(3.0)));
+    assert!(m.starts_with("solarPosition:"), "{m}");
+}
+
+#[wasm_bindgen_test]
+fn clear_sky_in_the_browser_matches_the_core() {
+    let out = sunlot::web::clear_sky(js(r#"{"zenithDeg": 30, "dayOfYear": 172}"#)).unwrap();
+    let e0 = sunlot::sky::extraterrestrial_normal_w_m2(172);
+    let s = sunlot::sky::bird_clear_sky(30.0, e0, &Default::default());
+    assert_eq!(num(&out, "ghiWM2"), s.ghi_w_m2);
+    assert!(num(&out, "ghiWM2") > 700.0 && num(&out, "ghiWM2") < 1100.0);
+}
