@@ -44,7 +44,11 @@ fn positions_agree_with_pvlib_spa_within_half_a_ten_thousandth_degree() {
 fn espenak_meeus_delta_t_matches_pvlib() {
     for r in fixture_rows("delta_t.csv") {
         let y = num(&r, "year") + (num(&r, "month") - 0.5) / 12.0;
-        assert_abs_diff_eq!(delta_t_espenak_meeus_s(y), num(&r, "delta_t_s"), epsilon = 1e-6 * num(&r, "delta_t_s").abs().max(1.0));
+        assert_abs_diff_eq!(
+            delta_t_espenak_meeus_s(y),
+            num(&r, "delta_t_s"),
+            epsilon = 1e-6 * num(&r, "delta_t_s").abs().max(1.0)
+        );
     }
 }
 

@@ -39,14 +39,25 @@ fn season_jde(year: i32, target: f64) -> f64 {
 #[test]
 fn season_instants_come_in_order_with_the_right_longitudes() {
     let s = season_instants(2031, DeltaT::EspenakMeeus).unwrap();
-    assert!(s.march_equinox < s.june_solstice && s.june_solstice < s.september_equinox && s.september_equinox < s.december_solstice);
-    assert_eq!((s.march_equinox.month(), s.june_solstice.month(), s.september_equinox.month(), s.december_solstice.month()), (3, 6, 9, 12));
+    assert!(
+        s.march_equinox < s.june_solstice
+            && s.june_solstice < s.september_equinox
+            && s.september_equinox < s.december_solstice
+    );
+    assert_eq!(
+        (s.march_equinox.month(), s.june_solstice.month(), s.september_equinox.month(), s.december_solstice.month()),
+        (3, 6, 9, 12)
+    );
     // At the equinoxes the geocentric declination passes through zero (common practice).
     for t in [s.march_equinox, s.september_equinox] {
-        let p = solar_position(&Site::new(0.0, 0.0, 0.0).unwrap(), t, &Atmosphere::default(), DeltaT::EspenakMeeus).unwrap();
+        let p = solar_position(&Site::new(0.0, 0.0, 0.0).unwrap(), t, &Atmosphere::default(), DeltaT::EspenakMeeus)
+            .unwrap();
         assert!(p.declination_deg.abs() < 0.01, "declination {} at {t}", p.declination_deg);
     }
-    assert!(matches!(season_instants(6001, DeltaT::EspenakMeeus), Err(sunlot::solar::InputError::YearOutOfRange { year: 6001 })));
+    assert!(matches!(
+        season_instants(6001, DeltaT::EspenakMeeus),
+        Err(sunlot::solar::InputError::YearOutOfRange { year: 6001 })
+    ));
 }
 
 /// Common practice: at an equinox the sun's noon altitude is 90° − |latitude| (REFERENCES, "Sun geometry").
@@ -57,7 +68,13 @@ fn equinox_noon_altitude_is_ninety_minus_latitude() {
     for lat in [-60.0, -33.9, 0.0, 20.0, 51.5, 64.0] {
         let site = Site::new(lat, 0.0, 0.0).unwrap();
         let ev = day_events(&site, date, &utc(), DeltaT::EspenakMeeus).unwrap();
-        let p = solar_position(&site, ev.transit, &Atmosphere { refraction: false, ..Default::default() }, DeltaT::EspenakMeeus).unwrap();
+        let p = solar_position(
+            &site,
+            ev.transit,
+            &Atmosphere { refraction: false, ..Default::default() },
+            DeltaT::EspenakMeeus,
+        )
+        .unwrap();
         // Within half a degree: the equinox instant is not at this meridian's noon (0.4°/day drift).
         assert_abs_diff_eq!(p.altitude_deg, 90.0 - f64::abs(lat), epsilon = 0.5);
         assert_abs_diff_eq!(p.altitude_unrefracted_deg, ev.transit_altitude_deg, epsilon = 0.01);
@@ -127,7 +144,12 @@ fn polar_night_and_polar_day_are_values() {
 #[test]
 fn events_fall_on_the_local_date_asked_for_in_far_zones() {
     // Zones far from their meridian: UTC+14 at 157° W, UTC−11 at 170° E, UTC+13 at 175° W.
-    for (lat, lon, zone) in [(1.87, -157.4, "Pacific/Kiritimati"), (-14.3, -170.7, "Pacific/Pago_Pago"), (-21.1, -175.2, "Pacific/Tongatapu"), (52.62, -1.87, "Europe/London")] {
+    for (lat, lon, zone) in [
+        (1.87, -157.4, "Pacific/Kiritimati"),
+        (-14.3, -170.7, "Pacific/Pago_Pago"),
+        (-21.1, -175.2, "Pacific/Tongatapu"),
+        (52.62, -1.87, "Europe/London"),
+    ] {
         let zone: Zone = zone.parse().unwrap();
         let site = Site::new(lat, lon, 0.0).unwrap();
         for day in [1, 80, 172, 266, 355] {

@@ -7,7 +7,9 @@
 
 use approx::assert_abs_diff_eq;
 use chrono::{NaiveDate, TimeZone, Timelike, Utc};
-use sunlot::solar::{day_events, rise_transit_set_ut, solar_position, Atmosphere, Crossing, Site, SunAtInstant, SUNRISE_DEG};
+use sunlot::solar::{
+    day_events, rise_transit_set_ut, solar_position, Atmosphere, Crossing, Site, SunAtInstant, SUNRISE_DEG,
+};
 use sunlot::time::{DeltaT, Zone};
 
 fn site() -> Site {

@@ -23,7 +23,7 @@ fn num(v: &JsValue, key: &str) -> f64 {
 }
 
 fn error_message(r: Result<JsValue, wasm_bindgen::JsError>) -> String {
-    let e: JsValue = r.err().expect("an error").into();
+    let e: JsValue = r.expect_err("an error").into();
     get(&e, "message").as_string().expect("message string")
 }
 
@@ -56,22 +56,31 @@ fn paper_sunrise_and_polar_night_in_the_browser() {
     .unwrap();
     assert_eq!(get(&out, "sunrise").as_string().unwrap(), "2003-10-17T06:12:43-07:00");
     assert_eq!(get(&out, "solarNoon").as_string().unwrap(), "2003-10-17T11:46:04-07:00"); // 11:46:04.96, seconds truncated as in the paper
-    let polar = sunlot::web::day_events(js(r#"{"latitudeDeg": 78.2, "longitudeDeg": 15.6, "date": "2026-12-21", "zone": "Arctic/Longyearbyen"}"#)).unwrap();
+    let polar = sunlot::web::day_events(js(
+        r#"{"latitudeDeg": 78.2, "longitudeDeg": 15.6, "date": "2026-12-21", "zone": "Arctic/Longyearbyen"}"#,
+    ))
+    .unwrap();
     assert_eq!(get(&polar, "sun").as_string().unwrap(), "alwaysDown");
     assert!(get(&polar, "sunrise").is_null());
 }
 
 #[wasm_bindgen_test]
 fn bad_input_throws_errors_that_name_the_field() {
-    let m = error_message(sunlot::web::solar_position(js(r#"{"latitudeDeg": 91, "longitudeDeg": 0, "time": "2020-01-01T00:00:00Z"}"#)));
+    let m = error_message(sunlot::web::solar_position(js(
+        r#"{"latitudeDeg": 91, "longitudeDeg": 0, "time": "2020-01-01T00:00:00Z"}"#,
+    )));
     assert!(m.contains("latitude_deg must be between -90 and 90"), "{m}");
     let m = error_message(sunlot::web::solar_position(js(r#"{"latitudeDeg": 10, "longitudeDeg": 0, "time": "noon"}"#)));
     assert!(m.contains("\"noon\" is not an RFC 3339"), "{m}");
     let m = error_message(sunlot::web::solar_position(js(r#"{"longitudeDeg": 0, "time": "2020-01-01T00:00:00Z"}"#)));
     assert!(m.contains("latitudeDeg"), "{m}");
-    let m = error_message(sunlot::web::solar_position(js(r#"{"latitudeDeg": 51, "longitudeDeg": 0, "localTime": "2024-03-31T01:30", "zone": "Europe/London"}"#)));
+    let m = error_message(sunlot::web::solar_position(js(
+        r#"{"latitudeDeg": 51, "longitudeDeg": 0, "localTime": "2024-03-31T01:30", "zone": "Europe/London"}"#,
+    )));
     assert!(m.contains("does not exist in Europe/London"), "{m}");
-    let m = error_message(sunlot::web::day_events(js(r#"{"latitudeDeg": 51, "longitudeDeg": 0, "date": "2024-03-31", "zone": "Mars/Base"}"#)));
+    let m = error_message(sunlot::web::day_events(js(
+        r#"{"latitudeDeg": 51, "longitudeDeg": 0, "date": "2024-03-31", "zone": "Mars/Base"}"#,
+    )));
     assert!(m.contains("zone"), "{m}");
     let m = error_message(sunlot::web::season_instants(7000, None));
     assert!(m.contains("year 7000"), "{m}");

@@ -96,7 +96,9 @@ pub fn bird_clear_sky(zenith_deg: f64, extraterrestrial_w_m2: f64, atm: &BirdAtm
     let am_p = absolute_air_mass(am, atm.pressure_hpa);
     let t_rayleigh = (-0.0903 * am_p.powf(0.84) * (1.0 + am_p - am_p.powf(1.01))).exp();
     let x_o = atm.ozone_cm * am;
-    let t_ozone = 1.0 - 0.1611 * x_o * (1.0 + 139.48 * x_o).powf(-0.3034) - 0.002715 * x_o / (1.0 + 0.044 * x_o + 0.0003 * x_o * x_o);
+    let t_ozone = 1.0
+        - 0.1611 * x_o * (1.0 + 139.48 * x_o).powf(-0.3034)
+        - 0.002715 * x_o / (1.0 + 0.044 * x_o + 0.0003 * x_o * x_o);
     let t_gases = (-0.0127 * am_p.powf(0.26)).exp();
     let x_w = atm.precipitable_water_cm * am;
     let t_water = 1.0 - 2.4959 * x_w / ((1.0 + 79.034 * x_w).powf(0.6828) + 6.385 * x_w);
@@ -108,7 +110,13 @@ pub fn bird_clear_sky(zenith_deg: f64, extraterrestrial_w_m2: f64, atm: &BirdAtm
     let dni = 0.9662 * extraterrestrial_w_m2 * t_aerosol * t_water * t_gases * t_ozone * t_rayleigh;
     let cos_z = zenith_deg.to_radians().cos();
     let beam_h = dni * cos_z;
-    let scattered = extraterrestrial_w_m2 * cos_z * 0.79 * t_ozone * t_gases * t_water * t_aa
+    let scattered = extraterrestrial_w_m2
+        * cos_z
+        * 0.79
+        * t_ozone
+        * t_gases
+        * t_water
+        * t_aa
         * (0.5 * (1.0 - t_rayleigh) + atm.forward_scattering * (1.0 - t_aerosol / t_aa))
         / (1.0 - am + am.powf(1.02));
     let ghi = (beam_h + scattered) / (1.0 - atm.albedo * sky_albedo);

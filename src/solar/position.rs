@@ -113,7 +113,13 @@ impl SunAtInstant {
 
     /// The full topocentric intermediate values seen from `site`.
     pub fn topocentric(&self, site: &Site, atmosphere: &Atmosphere) -> Topocentric {
-        Topocentric::observe(&self.geo, site.latitude_deg, site.longitude_deg, site.elevation_m, atmosphere.refraction_args())
+        Topocentric::observe(
+            &self.geo,
+            site.latitude_deg,
+            site.longitude_deg,
+            site.elevation_m,
+            atmosphere.refraction_args(),
+        )
     }
 }
 
@@ -136,6 +142,11 @@ impl SunAtInstant {
 ///
 /// # Errors
 /// [`InputError`] for a year outside −2000…6000 or a non-finite ΔT.
-pub fn solar_position(site: &Site, instant: DateTime<Utc>, atmosphere: &Atmosphere, delta_t: DeltaT) -> Result<SolarPosition, InputError> {
+pub fn solar_position(
+    site: &Site,
+    instant: DateTime<Utc>,
+    atmosphere: &Atmosphere,
+    delta_t: DeltaT,
+) -> Result<SolarPosition, InputError> {
     Ok(SunAtInstant::new(instant, delta_t)?.observe(site, atmosphere))
 }

@@ -97,7 +97,9 @@ impl Geocentric {
         let eps0 = 84_381.448
             + u * (-4_680.93
                 + u * (-1.55
-                    + u * (1_999.25 + u * (-51.38 + u * (-249.67 + u * (-39.05 + u * (7.12 + u * (27.87 + u * (5.79 + u * 2.45)))))))));
+                    + u * (1_999.25
+                        + u * (-51.38
+                            + u * (-249.67 + u * (-39.05 + u * (7.12 + u * (27.87 + u * (5.79 + u * 2.45)))))))));
         let eps = eps0 / 3600.0 + deps; // eq. 25
         let aberration = -20.4898 / (3600.0 * r_au); // eq. 26
         let lambda = theta + dpsi + aberration; // eq. 27
@@ -116,7 +118,9 @@ impl Geocentric {
         // Equation of time (eq. A.1–A.2)
         let m = limit_360(
             280.466_456_7
-                + jme * (360_007.698_277_9 + jme * (0.030_320_28 + jme * (1.0 / 49_931.0 + jme * (-1.0 / 15_300.0 - jme / 2_000_000.0)))),
+                + jme
+                    * (360_007.698_277_9
+                        + jme * (0.030_320_28 + jme * (1.0 / 49_931.0 + jme * (-1.0 / 15_300.0 - jme / 2_000_000.0)))),
         );
         let mut e_deg = (m - 0.005_718_3 - alpha + dpsi * ce).rem_euclid(360.0);
         if e_deg > 180.0 {
@@ -196,7 +200,13 @@ impl Topocentric {
     /// Adds an observer at latitude φ and longitude σ (degrees, east positive) and elevation (metres)
     /// to `geo`. `refraction` is `Some((pressure_hpa, temperature_c))` for apparent positions (eq. 43),
     /// or `None` for the true geometric position.
-    pub fn observe(geo: &Geocentric, latitude_deg: f64, longitude_deg: f64, elevation_m: f64, refraction: Option<(f64, f64)>) -> Self {
+    pub fn observe(
+        geo: &Geocentric,
+        latitude_deg: f64,
+        longitude_deg: f64,
+        elevation_m: f64,
+        refraction: Option<(f64, f64)>,
+    ) -> Self {
         let phi = rad(latitude_deg);
         let h = limit_360(geo.sidereal_time_deg + longitude_deg - geo.right_ascension_deg); // eq. 32
         let xi = rad(8.794 / (3600.0 * geo.earth_sun_distance_au)); // eq. 33
@@ -232,7 +242,7 @@ impl Topocentric {
             hour_angle_deg: h_p.to_degrees(),
             altitude_unrefracted_deg: e0,
             refraction_deg: de,
-            zenith_deg: 90.0 - e, // eq. 44
+            zenith_deg: 90.0 - e,                  // eq. 44
             azimuth_deg: limit_360(gamma + 180.0), // eq. 46
         }
     }

@@ -4,6 +4,9 @@
 //! do not edit by hand. Earth terms are rows of [A, B, C] for A·cos(B + C·τ), τ in Julian
 //! ephemeris millennia; nutation rows are [a, b, c, d] in 0.0001″ and the multipliers Y0..Y4.
 
+// The tables hold published values such as 3.14 and 3.142; they are not approximations of π.
+#![allow(clippy::approx_constant)]
+
 /// Earth heliocentric L0 terms (Table A4.2).
 pub const L0: [[f64; 3]; 64] = [
     [175347046.0, 0.0, 0.0],
@@ -146,16 +149,10 @@ pub const L3: [[f64; 3]; 7] = [
 ];
 
 /// Earth heliocentric L4 terms (Table A4.2).
-pub const L4: [[f64; 3]; 3] = [
-    [114.0, 3.142, 0.0],
-    [8.0, 4.13, 6283.08],
-    [1.0, 3.84, 12566.15],
-];
+pub const L4: [[f64; 3]; 3] = [[114.0, 3.142, 0.0], [8.0, 4.13, 6283.08], [1.0, 3.84, 12566.15]];
 
 /// Earth heliocentric L5 terms (Table A4.2).
-pub const L5: [[f64; 3]; 1] = [
-    [1.0, 3.14, 0.0],
-];
+pub const L5: [[f64; 3]; 1] = [[1.0, 3.14, 0.0]];
 
 /// Earth heliocentric B0 terms (Table A4.2).
 pub const B0: [[f64; 3]; 5] = [
@@ -167,10 +164,7 @@ pub const B0: [[f64; 3]; 5] = [
 ];
 
 /// Earth heliocentric B1 terms (Table A4.2).
-pub const B1: [[f64; 3]; 2] = [
-    [9.0, 3.9, 5507.55],
-    [6.0, 1.73, 5223.69],
-];
+pub const B1: [[f64; 3]; 2] = [[9.0, 3.9, 5507.55], [6.0, 1.73, 5223.69]];
 
 /// Earth heliocentric R0 terms (Table A4.2).
 pub const R0: [[f64; 3]; 40] = [
@@ -241,15 +235,10 @@ pub const R2: [[f64; 3]; 6] = [
 ];
 
 /// Earth heliocentric R3 terms (Table A4.2).
-pub const R3: [[f64; 3]; 2] = [
-    [145.0, 4.273, 6283.076],
-    [7.0, 3.92, 12566.15],
-];
+pub const R3: [[f64; 3]; 2] = [[145.0, 4.273, 6283.076], [7.0, 3.92, 12566.15]];
 
 /// Earth heliocentric R4 terms (Table A4.2).
-pub const R4: [[f64; 3]; 1] = [
-    [4.0, 2.56, 6283.08],
-];
+pub const R4: [[f64; 3]; 1] = [[4.0, 2.56, 6283.08]];
 
 /// Nutation coefficients a, b, c, d (Table A4.3).
 pub const NUTATION_ABCD: [[f64; 4]; 63] = [
@@ -384,4 +373,3 @@ pub const NUTATION_Y: [[f64; 5]; 63] = [
     [0.0, 0.0, 3.0, 2.0, 2.0],
     [2.0, -1.0, 0.0, 2.0, 2.0],
 ];
-

@@ -33,12 +33,7 @@ pub enum TimeError {
         "local time {wall} occurs twice in {zone} (clocks go back): at {earlier} and at {later}; \
          choose the earlier or the later one"
     )]
-    Ambiguous {
-        wall: NaiveDateTime,
-        zone: String,
-        earlier: DateTime<FixedOffset>,
-        later: DateTime<FixedOffset>,
-    },
+    Ambiguous { wall: NaiveDateTime, zone: String, earlier: DateTime<FixedOffset>, later: DateTime<FixedOffset> },
 }
 
 /// Which of two instants a repeated wall-clock time means.
@@ -181,8 +176,7 @@ impl fmt::Display for Zone {
 /// # Errors
 /// [`TimeError::NotRfc3339`] naming the text.
 pub fn parse_instant(text: &str) -> Result<(DateTime<Utc>, Zone), TimeError> {
-    let t = DateTime::parse_from_rfc3339(text.trim())
-        .map_err(|_| TimeError::NotRfc3339 { text: text.to_string() })?;
+    let t = DateTime::parse_from_rfc3339(text.trim()).map_err(|_| TimeError::NotRfc3339 { text: text.to_string() })?;
     Ok((t.with_timezone(&Utc), Zone::Fixed(*t.offset())))
 }
 

@@ -104,7 +104,12 @@ pub fn solar_position(input: JsValue) -> Result<JsValue, JsError> {
     let i: PositionIn = read(input, "solarPosition")?;
     let site = i.site.site()?;
     let d = Atmosphere::default();
-    let air = Atmosphere::new(i.pressure_hpa.unwrap_or(d.pressure_hpa), i.temperature_c.unwrap_or(d.temperature_c), i.refraction.unwrap_or(true)).map_err(err)?;
+    let air = Atmosphere::new(
+        i.pressure_hpa.unwrap_or(d.pressure_hpa),
+        i.temperature_c.unwrap_or(d.temperature_c),
+        i.refraction.unwrap_or(true),
+    )
+    .map_err(err)?;
     let z = zone(i.zone.as_deref())?;
     let (t, z) = match (&i.time, &i.local_time, z) {
         (Some(_), Some(_), _) => return Err(JsError::new("solarPosition: give either time or localTime, not both")),
@@ -114,7 +119,9 @@ pub fn solar_position(input: JsValue) -> Result<JsValue, JsError> {
         }
         (None, Some(text), Some(z)) => (z.parse_local(text, fold(i.fold.as_deref())?).map_err(err)?, z),
         (None, Some(_), None) => return Err(JsError::new("solarPosition: localTime needs a zone")),
-        (None, None, _) => return Err(JsError::new("solarPosition: missing field `time` (RFC 3339) or `localTime` with `zone`")),
+        (None, None, _) => {
+            return Err(JsError::new("solarPosition: missing field `time` (RFC 3339) or `localTime` with `zone`"))
+        }
     };
     let dt = delta_t(i.delta_t_s);
     let p = SunAtInstant::new(t, dt).map_err(err)?.observe(&site, &air);

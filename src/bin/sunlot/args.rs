@@ -22,7 +22,9 @@ pub fn flag_for(field: &str) -> &str {
 pub fn input_message(e: &InputError) -> String {
     match e {
         InputError::NotFinite { field, value } => format!("{} must be a finite number, got {value}", flag_for(field)),
-        InputError::OutOfRange { field, value, min, max } => format!("{} must be between {min} and {max}, got {value}", flag_for(field)),
+        InputError::OutOfRange { field, value, min, max } => {
+            format!("{} must be between {min} and {max}, got {value}", flag_for(field))
+        }
         other => other.to_string(),
     }
 }
@@ -30,10 +32,10 @@ pub fn input_message(e: &InputError) -> String {
 #[derive(Debug, Clone, Args)]
 pub struct SiteArgs {
     /// Latitude of the site, degrees, north positive (−90 to 90).
-    #[arg(long, allow_hyphen_values = true, required_unless_present = "demo")]
+    #[arg(long, allow_hyphen_values = true)]
     pub lat: Option<f64>,
     /// Longitude of the site, degrees, east positive (−180 to 180).
-    #[arg(long, allow_hyphen_values = true, required_unless_present = "demo")]
+    #[arg(long, allow_hyphen_values = true)]
     pub lon: Option<f64>,
     /// Height of the site above sea level, metres.
     #[arg(long, allow_hyphen_values = true, default_value_t = 0.0)]
@@ -48,7 +50,9 @@ impl SiteArgs {
         if self.demo {
             return Ok(sunlot::demo::demo_site());
         }
-        let (lat, lon) = (self.lat.unwrap_or(f64::NAN), self.lon.unwrap_or(f64::NAN));
+        let (Some(lat), Some(lon)) = (self.lat, self.lon) else {
+            return Err("give the site with --lat and --lon (degrees), or use --demo".into());
+        };
         Site::new(lat, lon, self.elevation_m).map_err(|e| input_message(&e))
     }
 }
@@ -115,7 +119,9 @@ impl ZoneArgs {
     pub fn zone(&self, demo: bool) -> Result<Option<Zone>, String> {
         match (&self.zone, demo) {
             (Some(z), _) => z.parse().map(Some).map_err(|e: sunlot::time::TimeError| format!("--zone: {e}")),
-            (None, true) => Ok(Some(sunlot::demo::DEMO_ZONE.parse().map_err(|e: sunlot::time::TimeError| e.to_string())?)),
+            (None, true) => {
+                Ok(Some(sunlot::demo::DEMO_ZONE.parse().map_err(|e: sunlot::time::TimeError| e.to_string())?))
+            }
             (None, false) => Ok(None),
         }
     }
@@ -130,7 +136,12 @@ impl ZoneArgs {
 }
 
 /// One instant from `--time` (RFC 3339) or `--local` (wall time in `--zone`), with the display zone.
-pub fn instant(time: Option<&str>, local: Option<&str>, zones: &ZoneArgs, demo: bool) -> Result<Option<(DateTime<Utc>, Zone)>, String> {
+pub fn instant(
+    time: Option<&str>,
+    local: Option<&str>,
+    zones: &ZoneArgs,
+    demo: bool,
+) -> Result<Option<(DateTime<Utc>, Zone)>, String> {
     let zone = zones.zone(demo)?;
     match (time, local) {
         (Some(t), _) => {

@@ -32,7 +32,14 @@ struct Columns {
 impl Columns {
     fn find(header: &StringRecord) -> Result<Self, String> {
         let at = |name: &str| header.iter().position(|h| h.trim() == name);
-        let need = |name: &str| at(name).ok_or_else(|| format!("input CSV header has no {name:?} column (need lat,lon,time; got {:?})", header.iter().collect::<Vec<_>>().join(",")));
+        let need = |name: &str| {
+            at(name).ok_or_else(|| {
+                format!(
+                    "input CSV header has no {name:?} column (need lat,lon,time; got {:?})",
+                    header.iter().collect::<Vec<_>>().join(",")
+                )
+            })
+        };
         Ok(Columns {
             lat: need("lat")?,
             lon: need("lon")?,
@@ -76,7 +83,10 @@ fn convert(input: &str, defaults: &Defaults) -> Result<String, String> {
                 s.spawn(move || convert_rows(rows, k * chunk, cols, defaults))
             })
             .collect();
-        handles.into_iter().map(|h| h.join().unwrap_or_else(|_| Err("internal error in a worker thread".into()))).collect()
+        handles
+            .into_iter()
+            .map(|h| h.join().unwrap_or_else(|_| Err("internal error in a worker thread".into())))
+            .collect()
     });
 
     let mut w = csv::Writer::from_writer(Vec::with_capacity(input.len() * 2));
@@ -104,7 +114,8 @@ fn convert_rows(rows: &[StringRecord], first: usize, cols: &Columns, d: &Default
             text.parse::<f64>().map_err(|_| at(format!("{name} {text:?} is not a number")))
         };
         let opt = |idx: Option<usize>, name: &str, default: f64| idx.map_or(Ok(default), |i| num(i, name));
-        let site = Site::new(num(cols.lat, "lat")?, num(cols.lon, "lon")?, opt(cols.elevation_m, "elevation_m", 0.0)?).map_err(|e| at(column_message(&e)))?;
+        let site = Site::new(num(cols.lat, "lat")?, num(cols.lon, "lon")?, opt(cols.elevation_m, "elevation_m", 0.0)?)
+            .map_err(|e| at(column_message(&e)))?;
         let air = Atmosphere::new(
             opt(cols.pressure_hpa, "pressure_hpa", d.atmosphere.pressure_hpa)?,
             opt(cols.temperature_c, "temperature_c", d.atmosphere.temperature_c)?,
@@ -143,7 +154,9 @@ fn column_message(e: &InputError) -> String {
     };
     match e {
         InputError::NotFinite { field, value } => format!("{} must be a finite number, got {value}", col(field)),
-        InputError::OutOfRange { field, value, min, max } => format!("{} must be between {min} and {max}, got {value}", col(field)),
+        InputError::OutOfRange { field, value, min, max } => {
+            format!("{} must be between {min} and {max}, got {value}", col(field))
+        }
         other => other.to_string(),
     }
 }
@@ -158,7 +171,9 @@ mod tests {
 
     #[test]
     fn keeps_input_columns_and_adds_three() {
-        let out = convert("lat,lon,time,note\n39.742476,-105.1786,2003-10-17T12:30:30-07:00,\"a, quoted\"\n", &defaults()).unwrap();
+        let out =
+            convert("lat,lon,time,note\n39.742476,-105.1786,2003-10-17T12:30:30-07:00,\"a, quoted\"\n", &defaults())
+                .unwrap();
         let mut lines = out.lines();
         assert_eq!(lines.next(), Some("lat,lon,time,note,zenith_deg,altitude_deg,azimuth_deg"));
         let row = lines.next().unwrap();
@@ -167,7 +182,8 @@ mod tests {
 
     #[test]
     fn bad_row_is_named_and_nothing_is_written() {
-        let e = convert("lat,lon,time\n10,20,2020-01-01T00:00:00Z\n95,20,2020-01-01T00:00:00Z\n", &defaults()).unwrap_err();
+        let e =
+            convert("lat,lon,time\n10,20,2020-01-01T00:00:00Z\n95,20,2020-01-01T00:00:00Z\n", &defaults()).unwrap_err();
         assert_eq!(e, "row 2 (line 3): lat must be between -90 and 90, got 95");
         let e = convert("lat,lon,time\n10,20,yesterday\n", &defaults()).unwrap_err();
         assert!(e.starts_with("row 1 (line 2): time: time \"yesterday\" is not an RFC 3339"), "{e}");

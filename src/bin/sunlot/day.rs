@@ -49,18 +49,33 @@ pub fn run(a: &DayArgs) -> Result<String, String> {
 pub fn day_table(zone: &Zone) -> Table {
     let mut t = Table::new(
         "",
-        vec!["date", "sunrise", "solar_noon", "sunset", "day_length", "day_length_h", "noon_altitude_deg", "civil_dawn", "civil_dusk", "sun", "zone"],
+        vec![
+            "date",
+            "sunrise",
+            "solar_noon",
+            "sunset",
+            "day_length",
+            "day_length_h",
+            "noon_altitude_deg",
+            "civil_dawn",
+            "civil_dusk",
+            "sun",
+            "zone",
+        ],
     );
     t.notes.push(format!(
         "Times in {zone}. Sunrise and sunset: upper limb on the horizon with standard refraction (−0.8333°); civil twilight: sun 6° below."
     ));
-    t.notes.push("NREL SPA, Appendix A.2 (Reda & Andreas 2004). 'always_up' = polar day, 'always_down' = polar night.".into());
+    t.notes.push(
+        "NREL SPA, Appendix A.2 (Reda & Andreas 2004). 'always_up' = polar day, 'always_down' = polar night.".into(),
+    );
     t
 }
 
 /// One date's row; `clock` writes times as local HH:MM:SS (for reading) rather than RFC 3339.
 pub fn day_row(ev: &DayEvents, zone: &Zone, clock: bool) -> Vec<Cell> {
-    let stamp = |t: DateTime<Utc>| if clock { zone.local(t).format("%H:%M:%S").to_string() } else { args::rfc3339(t, zone) };
+    let stamp =
+        |t: DateTime<Utc>| if clock { zone.local(t).format("%H:%M:%S").to_string() } else { args::rfc3339(t, zone) };
     let (rise, set) = times(&ev.sun, &stamp);
     let (dawn, dusk) = times(&ev.civil_twilight, &stamp);
     let len = ev.day_length();

@@ -25,9 +25,7 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
     let seasons = season_instants(year, dt).map_err(|e| input_message(&e))?;
     let mut out = format!(
         "sunlot demo — {DEMO_SITE_NAME}\n  {:.2}° N, {:.2}° W, {} m above sea level, zone {zone}\n\n",
-        site.latitude_deg,
-        -site.longitude_deg,
-        site.elevation_m
+        site.latitude_deg, -site.longitude_deg, site.elevation_m
     );
 
     let key = [
@@ -71,7 +69,9 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
             }
             at += chrono::Duration::hours(1);
         }
-        table.notes.push("Shadow length per metre of height = 1 / tan(altitude), on flat ground (common practice).".into());
+        table
+            .notes
+            .push("Shadow length per metre of height = 1 / tan(altitude), on flat ground (common practice).".into());
         out += &table.render(Format::Table);
         out.push('\n');
     }

@@ -3,7 +3,10 @@
 
 use chrono::{DateTime, Datelike, Duration, Utc};
 use clap::Args;
-use sunlot::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, plane_of_array, relative_air_mass_kasten_young, BirdAtmosphere, Surface};
+use sunlot::sky::{
+    bird_clear_sky, extraterrestrial_normal_w_m2, plane_of_array, relative_air_mass_kasten_young, BirdAtmosphere,
+    Surface,
+};
 use sunlot::solar::{Atmosphere, Site, SunAtInstant};
 use sunlot::time::{DeltaT, Zone};
 
@@ -81,7 +84,9 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
     .validated()
     .map_err(|e| format!("--{}", input_message(&e).replace('_', "-")))?;
     let surface = match a.tilt_deg {
-        Some(t) if (0.0..=180.0).contains(&t) && a.surface_azimuth_deg.is_finite() => Some(Surface { tilt_deg: t, azimuth_deg: a.surface_azimuth_deg, albedo: a.albedo }),
+        Some(t) if (0.0..=180.0).contains(&t) && a.surface_azimuth_deg.is_finite() => {
+            Some(Surface { tilt_deg: t, azimuth_deg: a.surface_azimuth_deg, albedo: a.albedo })
+        }
         Some(t) => return Err(format!("--tilt-deg must be 0 to 180 with a finite --surface-azimuth-deg, got {t}")),
         None => None,
     };
@@ -93,7 +98,8 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
         table.single = true;
         return Ok(table.render(a.format));
     }
-    let date = args::date(a.date.as_deref().ok_or("give a moment with --time or --local, or a day with --date")?, "--date")?;
+    let date =
+        args::date(a.date.as_deref().ok_or("give a moment with --time or --local, or a day with --date")?, "--date")?;
     if !(1..=720).contains(&a.step_min) {
         return Err(format!("--step-min must be 1 to 720, got {}", a.step_min));
     }
@@ -113,7 +119,10 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
         table.rows.push(r);
         t += Duration::minutes(i64::from(a.step_min));
     }
-    table.notes.insert(0, format!("Daily clear-sky total on the horizontal: {:.2} kWh/m² (sum of steps × step length).", ghi_wh / 1000.0));
+    table.notes.insert(
+        0,
+        format!("Daily clear-sky total on the horizontal: {:.2} kWh/m² (sum of steps × step length).", ghi_wh / 1000.0),
+    );
     if s.surface.is_some() {
         table.notes.insert(1, format!("Daily clear-sky total on the surface: {:.2} kWh/m².", poa_wh / 1000.0));
     }
@@ -121,9 +130,25 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
 }
 
 fn table(s: &Setup) -> Table {
-    let mut cols = vec!["time", "zenith_deg", "altitude_deg", "azimuth_deg", "air_mass", "extraterrestrial_w_m2", "dni_w_m2", "dhi_w_m2", "ghi_w_m2"];
+    let mut cols = vec![
+        "time",
+        "zenith_deg",
+        "altitude_deg",
+        "azimuth_deg",
+        "air_mass",
+        "extraterrestrial_w_m2",
+        "dni_w_m2",
+        "dhi_w_m2",
+        "ghi_w_m2",
+    ];
     if s.surface.is_some() {
-        cols.extend(["incidence_deg", "surface_beam_w_m2", "surface_sky_diffuse_w_m2", "surface_ground_w_m2", "surface_total_w_m2"]);
+        cols.extend([
+            "incidence_deg",
+            "surface_beam_w_m2",
+            "surface_sky_diffuse_w_m2",
+            "surface_ground_w_m2",
+            "surface_total_w_m2",
+        ]);
     }
     let mut t = Table::new("", cols);
     t.notes.push(format!(
@@ -131,7 +156,10 @@ fn table(s: &Setup) -> Table {
         s.bird.aod_380, s.bird.aod_500, s.bird.precipitable_water_cm, s.bird.ozone_cm, s.bird.albedo
     ));
     if let Some(f) = s.surface {
-        t.notes.push(format!("Surface: tilt {}°, facing {}° from north; isotropic sky diffuse (Liu & Jordan).", f.tilt_deg, f.azimuth_deg));
+        t.notes.push(format!(
+            "Surface: tilt {}°, facing {}° from north; isotropic sky diffuse (Liu & Jordan).",
+            f.tilt_deg, f.azimuth_deg
+        ));
     }
     t.notes.push("A cloudless sky: real sunlight is lower. Indicative values.".into());
     t

@@ -156,7 +156,11 @@ impl Table {
         let objects: Vec<Value> = self
             .rows
             .iter()
-            .map(|r| Value::Object(self.columns.iter().map(|c| c.to_string()).zip(r.iter().map(Cell::json)).collect::<Map<_, _>>()))
+            .map(|r| {
+                Value::Object(
+                    self.columns.iter().map(|c| c.to_string()).zip(r.iter().map(Cell::json)).collect::<Map<_, _>>(),
+                )
+            })
             .collect();
         let v = if self.single && objects.len() == 1 { objects[0].clone() } else { Value::Array(objects) };
         serde_json::to_string_pretty(&v).unwrap_or_default() + "\n"

@@ -51,7 +51,9 @@ pub fn run(a: &PositionArgs) -> Result<String, String> {
     let delta_t = a.delta_t.delta_t()?;
     let surface = match (a.surface_tilt_deg, a.surface_azimuth_deg) {
         (Some(t), Some(az)) if t.is_finite() && az.is_finite() && (0.0..=180.0).contains(&t) => Some((t, az)),
-        (Some(t), Some(az)) => return Err(format!("--surface-tilt-deg must be 0 to 180 and both surface angles finite, got {t} and {az}")),
+        (Some(t), Some(az)) => {
+            return Err(format!("--surface-tilt-deg must be 0 to 180 and both surface angles finite, got {t} and {az}"))
+        }
         _ => None,
     };
     let moment = args::instant(a.time.as_deref(), a.local.as_deref(), &a.zone, a.site.demo)?;
@@ -76,7 +78,8 @@ pub fn run(a: &PositionArgs) -> Result<String, String> {
     if !(1..=720).contains(&a.step_min) {
         return Err(format!("--step-min must be 1 to 720, got {}", a.step_min));
     }
-    day_table(&site, date, &zone, &atmosphere, delta_t, a.step_min, a.include_night, surface).map(|t| t.render(a.format))
+    day_table(&site, date, &zone, &atmosphere, delta_t, a.step_min, a.include_night, surface)
+        .map(|t| t.render(a.format))
 }
 
 fn position_table(site: &Site, zone: &Zone, air: &Atmosphere, surface: Option<(f64, f64)>) -> Table {
@@ -106,13 +109,24 @@ fn position_table(site: &Site, zone: &Zone, air: &Atmosphere, surface: Option<(f
         site.latitude_deg,
         site.longitude_deg,
         site.elevation_m,
-        if air.refraction { format!("Refraction for {} hPa, {} °C", air.pressure_hpa, air.temperature_c) } else { "No refraction".into() }
+        if air.refraction {
+            format!("Refraction for {} hPa, {} °C", air.pressure_hpa, air.temperature_c)
+        } else {
+            "No refraction".into()
+        }
     ));
     t.notes.push("NREL SPA (Reda & Andreas 2004); ΔT by Espenak & Meeus (2006) unless --delta-t-s is given.".into());
     t
 }
 
-fn position_row(t: DateTime<Utc>, zone: &Zone, p: &SolarPosition, site: &Site, surface: Option<(f64, f64)>, columns: &[&str]) -> Vec<Cell> {
+fn position_row(
+    t: DateTime<Utc>,
+    zone: &Zone,
+    p: &SolarPosition,
+    site: &Site,
+    surface: Option<(f64, f64)>,
+    columns: &[&str],
+) -> Vec<Cell> {
     let mut cells = vec![
         ("time", Cell::text(args::rfc3339(t, zone))),
         ("altitude_deg", Cell::num(p.altitude_deg, 4)),
@@ -147,11 +161,23 @@ pub fn day_bounds(zone: &Zone, date: NaiveDate) -> (DateTime<Utc>, DateTime<Utc>
 }
 
 #[allow(clippy::too_many_arguments)]
-fn day_table(site: &Site, date: NaiveDate, zone: &Zone, air: &Atmosphere, delta_t: DeltaT, step_min: u32, night: bool, surface: Option<(f64, f64)>) -> Result<Table, String> {
+fn day_table(
+    site: &Site,
+    date: NaiveDate,
+    zone: &Zone,
+    air: &Atmosphere,
+    delta_t: DeltaT,
+    step_min: u32,
+    night: bool,
+    surface: Option<(f64, f64)>,
+) -> Result<Table, String> {
     let (start, end) = day_bounds(zone, date);
     let mut table = position_table(site, zone, air, surface);
-    table.columns.retain(|c| !matches!(*c, "latitude_deg" | "longitude_deg" | "elevation_m" | "zone" | "delta_t_s" | "sun_up"));
-    table.title = format!("Sun through {date} ({zone}), every {step_min} min{}", if night { "" } else { ", sun up only" });
+    table
+        .columns
+        .retain(|c| !matches!(*c, "latitude_deg" | "longitude_deg" | "elevation_m" | "zone" | "delta_t_s" | "sun_up"));
+    table.title =
+        format!("Sun through {date} ({zone}), every {step_min} min{}", if night { "" } else { ", sun up only" });
     let ev = day_events(site, date, zone, delta_t).map_err(|e| input_message(&e))?;
     let mut t = start;
     while t < end {
@@ -175,7 +201,8 @@ mod tests {
         let zone: Zone = "Europe/London".parse().unwrap();
         let d = NaiveDate::from_ymd_opt(2026, 3, 20).unwrap();
         for surface in [None, Some((30.0, 180.0))] {
-            let t = day_table(&site, d, &zone, &Atmosphere::default(), DeltaT::EspenakMeeus, 60, false, surface).unwrap();
+            let t =
+                day_table(&site, d, &zone, &Atmosphere::default(), DeltaT::EspenakMeeus, 60, false, surface).unwrap();
             assert!(t.rows.len() >= 11 && t.rows.len() <= 13, "{} rows", t.rows.len());
             assert!(t.rows.iter().all(|r| r.len() == t.columns.len()));
         }

@@ -35,7 +35,8 @@ pub fn run(a: &SeasonsArgs) -> Result<String, String> {
         format!("Equinoxes and solstices ({zone})"),
         vec!["year", "march_equinox", "june_solstice", "september_equinox", "december_solstice", "zone"],
     );
-    t.notes.push("When the sun's apparent longitude is 0°, 90°, 180°, 270° (NREL SPA terms; Meeus 1998 ch. 27).".into());
+    t.notes
+        .push("When the sun's apparent longitude is 0°, 90°, 180°, 270° (NREL SPA terms; Meeus 1998 ch. 27).".into());
     for k in 0..a.years {
         let year = a.year.saturating_add(k as i32);
         let s = season_instants(year, delta_t).map_err(|e| format!("--year: {}", input_message(&e)))?;

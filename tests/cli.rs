@@ -1,0 +1,205 @@
+//! The command line's contract, run as a user would run it.
+
+use std::io::Write;
+use std::process::{Command, Output, Stdio};
+
+fn sunlot(args: &[&str], stdin: Option<&str>) -> Output {
+    let mut child = Command::new(env!("CARGO_BIN_EXE_sunlot"))
+        .args(args)
+        .stdin(Stdio::piped())
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .expect("sunlot runs");
+    if let Some(text) = stdin {
+        child.stdin.take().unwrap().write_all(text.as_bytes()).unwrap();
+    } else {
+        drop(child.stdin.take());
+    }
+    child.wait_with_output().unwrap()
+}
+
+fn stdout(o: &Output) -> String {
+    String::from_utf8(o.stdout.clone()).unwrap()
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8(o.stderr.clone()).unwrap()
+}
+
+const PAPER: [&str; 14] = [
+    "position",
+    "--lat",
+    "39.742476",
+    "--lon",
+    "-105.1786",
+    "--time",
+    "2003-10-17T12:30:30-07:00",
+    "--elevation-m",
+    "1830.14",
+    "--pressure-hpa",
+    "820",
+    "--temperature-c",
+    "11",
+    "--delta-t-s",
+];
+
+#[test]
+fn position_json_has_the_contract_fields() {
+    let mut args = PAPER.to_vec();
+    args.extend(["67", "--format", "json"]);
+    let o = sunlot(&args, None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).expect("one JSON object");
+    // Reda & Andreas (2004), Table A5.2.
+    assert!((v["zenith_deg"].as_f64().unwrap() - 50.11162).abs() < 5e-6);
+    assert!((v["azimuth_deg"].as_f64().unwrap() - 194.34024).abs() < 5e-6);
+    assert!((v["altitude_deg"].as_f64().unwrap() - 39.88838).abs() < 5e-6);
+    assert!((v["declination_deg"].as_f64().unwrap() - -9.316179).abs() < 5e-6);
+    assert!((v["equation_of_time_min"].as_f64().unwrap() - 14.641511).abs() < 5e-6);
+    assert_eq!(v["time"], "2003-10-17T12:30:30-07:00");
+}
+
+#[test]
+fn no_refraction_gives_the_geometric_zenith() {
+    let mut args = PAPER.to_vec();
+    args.extend(["67", "--format", "json", "--no-refraction"]);
+    let v: serde_json::Value = serde_json::from_str(&stdout(&sunlot(&args, None))).unwrap();
+    let z = v["zenith_deg"].as_f64().unwrap();
+    assert!(z > 50.11162 + 0.01, "refraction lifts the sun, so without it the zenith is larger: {z}");
+}
+
+#[test]
+fn csv_batch_adds_three_columns_per_row() {
+    let input = "lat,lon,time,elevation_m,pressure_hpa,temperature_c\n\
+                 39.742476,-105.1786,2003-10-17T12:30:30-07:00,1830.14,820,11\n\
+                 -33.9,151.2,2026-06-21T12:00:00+10:00,20,1013,15\n\
+                 51.5,0,2026-03-20T12:00:00Z,,,\n";
+    let o = sunlot(&["position", "--format", "csv", "--delta-t-s", "67"], Some(&input.replace(",,,", ",0,1013.25,10")));
+    assert!(o.status.success(), "{}", stderr(&o));
+    let out = stdout(&o);
+    let lines: Vec<&str> = out.lines().collect();
+    assert_eq!(lines[0], "lat,lon,time,elevation_m,pressure_hpa,temperature_c,zenith_deg,altitude_deg,azimuth_deg");
+    assert_eq!(lines.len(), 4);
+    let z: f64 = lines[1].split(',').nth(6).unwrap().parse().unwrap();
+    assert!((z - 50.11162).abs() < 5e-6);
+}
+
+#[test]
+fn bad_input_exits_non_zero_naming_the_field() {
+    let cases: [(&[&str], Option<&str>, &str); 7] = [
+        (
+            &["position", "--lat", "91", "--lon", "0", "--time", "2020-01-01T00:00:00Z"],
+            None,
+            "--lat must be between -90 and 90",
+        ),
+        (
+            &["position", "--lat", "NaN", "--lon", "0", "--time", "2020-01-01T00:00:00Z"],
+            None,
+            "--lat must be a finite number",
+        ),
+        (
+            &["position", "--lat", "10", "--lon", "0", "--time", "2020-01-01 12:00"],
+            None,
+            "--time: time \"2020-01-01 12:00\" is not an RFC 3339",
+        ),
+        (
+            &["day", "--lat", "10", "--lon", "0", "--date", "2020-01-01", "--zone", "Mars/Olympus"],
+            None,
+            "--zone: zone \"Mars/Olympus\"",
+        ),
+        (
+            &["position", "--format", "csv"],
+            Some("lat,lon,time\n1,2,2020-01-01T00:00:00Z\n1,200,2020-01-01T00:00:00Z\n"),
+            "row 2 (line 3): lon must be between -180 and 180, got 200",
+        ),
+        (
+            &["position", "--lat", "51", "--lon", "0", "--local", "2024-03-31T01:30", "--zone", "Europe/London"],
+            None,
+            "does not exist in Europe/London",
+        ),
+        (
+            &["position", "--lat", "51", "--lon", "0", "--local", "2024-10-27T01:30", "--zone", "Europe/London"],
+            None,
+            "occurs twice in Europe/London",
+        ),
+    ];
+    for (args, input, want) in cases {
+        let o = sunlot(args, input);
+        assert!(!o.status.success(), "{args:?} should fail");
+        assert!(stderr(&o).contains(want), "{args:?}: {}", stderr(&o));
+        assert!(!stderr(&o).contains("panicked"), "{args:?} panicked");
+        assert!(stdout(&o).is_empty(), "{args:?} wrote output before failing");
+    }
+}
+
+#[test]
+fn fold_picks_one_of_a_repeated_local_time() {
+    let o = sunlot(
+        &[
+            "position",
+            "--lat",
+            "51",
+            "--lon",
+            "0",
+            "--local",
+            "2024-10-27T01:30",
+            "--zone",
+            "Europe/London",
+            "--fold",
+            "later",
+            "--format",
+            "json",
+        ],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(v["time"], "2024-10-27T01:30:00Z");
+}
+
+#[test]
+fn day_seasons_and_irradiance_write_parseable_json_and_csv() {
+    let day = sunlot(&["day", "--demo", "--date", "2026-06-21", "--format", "json"], None);
+    let v: serde_json::Value = serde_json::from_str(&stdout(&day)).unwrap();
+    assert_eq!(v["sun"], "rises_and_sets");
+    assert!(v["sunrise"].as_str().unwrap().ends_with("+01:00"));
+    let polar = sunlot(
+        &[
+            "day",
+            "--lat",
+            "78.2",
+            "--lon",
+            "15.6",
+            "--zone",
+            "Arctic/Longyearbyen",
+            "--date",
+            "2026-12-21",
+            "--format",
+            "json",
+        ],
+        None,
+    );
+    let v: serde_json::Value = serde_json::from_str(&stdout(&polar)).unwrap();
+    assert_eq!(v["sun"], "always_down");
+    assert!(v["sunrise"].is_null());
+
+    let s = sunlot(&["seasons", "--year", "2026", "--years", "3", "--format", "csv"], None);
+    assert!(s.status.success(), "{}", stderr(&s));
+    assert_eq!(stdout(&s).lines().count(), 4);
+
+    let i = sunlot(&["irradiance", "--demo", "--date", "2026-06-21", "--tilt-deg", "35", "--format", "csv"], None);
+    assert!(i.status.success(), "{}", stderr(&i));
+    let out = stdout(&i);
+    assert!(out.lines().next().unwrap().ends_with("surface_total_w_m2"));
+    assert_eq!(out.lines().count(), 25); // header + 24 hourly steps
+}
+
+#[test]
+fn help_explains_units() {
+    let o = sunlot(&["position", "--help"], None);
+    let h = stdout(&o);
+    for needle in ["degrees", "RFC 3339", "hectopascals", "metres", "seconds", "clockwise from true north"] {
+        assert!(h.contains(needle), "help lacks {needle:?}:\n{h}");
+    }
+}
