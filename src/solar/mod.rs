@@ -1,5 +1,6 @@
 //! The sun's apparent motion: position (NREL SPA), day events and season instants.
 
+mod ephemeris;
 mod events;
 mod input;
 mod position;
@@ -7,6 +8,7 @@ mod seasons;
 pub mod spa;
 mod terms;
 
+pub use ephemeris::Ephemeris;
 pub use events::{day_events, rise_transit_set_ut, Crossing, DayEvents, UtDayEvents, CIVIL_TWILIGHT_DEG, SUNRISE_DEG};
 pub use input::{Atmosphere, InputError, Site};
 pub use position::{solar_position, SolarPosition, SunAtInstant};

@@ -92,12 +92,22 @@ impl SunAtInstant {
     /// # Errors
     /// [`InputError::YearOutOfRange`] outside −2000…6000; [`InputError::NotFinite`] for a bad ΔT.
     pub fn new(instant: DateTime<Utc>, delta_t: DeltaT) -> Result<Self, InputError> {
+        let (jd, delta_t_s) = Self::checked_inputs(instant, delta_t)?;
+        Ok(SunAtInstant { geo: Geocentric::at(jd, delta_t_s), delta_t_s })
+    }
+
+    /// The Julian day (UT) and ΔT in seconds of an instant, after checking the year and ΔT.
+    pub(crate) fn checked_inputs(instant: DateTime<Utc>, delta_t: DeltaT) -> Result<(f64, f64), InputError> {
         let year = instant.year();
         if !(-2000..=6000).contains(&year) {
             return Err(InputError::YearOutOfRange { year });
         }
         let delta_t_s = super::input::check("delta_t_s", delta_t.seconds_at(instant), -8_000.0, 100_000.0)?;
-        Ok(SunAtInstant { geo: Geocentric::at(julian_day(instant), delta_t_s), delta_t_s })
+        Ok((julian_day(instant), delta_t_s))
+    }
+
+    pub(crate) fn from_geocentric(geo: Geocentric, delta_t_s: f64) -> Self {
+        SunAtInstant { geo, delta_t_s }
     }
 
     /// The geocentric intermediate values (for reports and checks).

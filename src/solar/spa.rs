@@ -74,24 +74,58 @@ pub struct Geocentric {
     pub equation_of_time_min: f64,
 }
 
+/// The costly, slowly varying part of the SPA: the Earth's heliocentric position (eq. 9–12, 195 periodic
+/// terms) and the nutation (eq. 15–23, 63 terms). Functions of the Julian ephemeris day alone.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SlowTerms {
+    /// Earth heliocentric longitude L, degrees 0–360.
+    pub l_deg: f64,
+    /// Earth heliocentric latitude B, degrees.
+    pub b_deg: f64,
+    /// Earth–Sun distance R, AU.
+    pub r_au: f64,
+    /// Nutation in longitude Δψ, degrees.
+    pub dpsi_deg: f64,
+    /// Nutation in obliquity Δε, degrees.
+    pub deps_deg: f64,
+}
+
+impl SlowTerms {
+    /// The terms at Julian ephemeris day `jde`.
+    pub fn at_jde(jde: f64) -> Self {
+        let jce = (jde - 2_451_545.0) / 36_525.0; // eq. 7
+        let jme = jce / 10.0; // eq. 8
+        let (dpsi_deg, deps_deg) = nutation(jce);
+        SlowTerms {
+            l_deg: limit_360(
+                earth_value(&[&terms::L0, &terms::L1, &terms::L2, &terms::L3, &terms::L4, &terms::L5], jme)
+                    .to_degrees(),
+            ),
+            b_deg: earth_value(&[&terms::B0, &terms::B1], jme).to_degrees(),
+            r_au: earth_value(&[&terms::R0, &terms::R1, &terms::R2, &terms::R3, &terms::R4], jme),
+            dpsi_deg,
+            deps_deg,
+        }
+    }
+}
+
 impl Geocentric {
     /// The time-only part of the SPA at Julian day `jd` (UT), with ΔT in seconds.
     pub fn at(jd: f64, delta_t_s: f64) -> Self {
         let jde = jd + delta_t_s / 86_400.0; // eq. 5
+        Self::from_slow_terms(jd, jde, &SlowTerms::at_jde(jde))
+    }
+
+    /// The rest of the time-only part, from [`SlowTerms`] computed (or interpolated) for `jde`.
+    pub fn from_slow_terms(jd: f64, jde: f64, slow: &SlowTerms) -> Self {
         let jc = (jd - 2_451_545.0) / 36_525.0; // eq. 6
         let jce = (jde - 2_451_545.0) / 36_525.0; // eq. 7
         let jme = jce / 10.0; // eq. 8
-
-        let l_deg = limit_360(
-            earth_value(&[&terms::L0, &terms::L1, &terms::L2, &terms::L3, &terms::L4, &terms::L5], jme).to_degrees(),
-        );
-        let b_deg = earth_value(&[&terms::B0, &terms::B1], jme).to_degrees();
-        let r_au = earth_value(&[&terms::R0, &terms::R1, &terms::R2, &terms::R3, &terms::R4], jme);
+        let SlowTerms { l_deg, b_deg, r_au, dpsi_deg: dpsi, deps_deg: deps } = *slow;
 
         let theta = limit_360(l_deg + 180.0); // eq. 13
         let beta = -b_deg; // eq. 14
 
-        let (dpsi, deps) = nutation(jce);
         let u = jme / 10.0;
         // eq. 24, arcseconds
         let eps0 = 84_381.448

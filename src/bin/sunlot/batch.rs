@@ -4,19 +4,19 @@
 //! `pressure_hpa` and `temperature_c` are optional per row, else the command's options apply. Every
 //! input column is written back, followed by `zenith_deg,altitude_deg,azimuth_deg`. The whole input is
 //! checked before anything is written, so a bad row never leaves half a file; the message names the
-//! row (1 = first data row), its line and the column. The time-only part of the algorithm is computed
-//! once per distinct instant and shared by all rows at that instant.
+//! row (1 = first data row), its line and the column. The costly time-only terms of the algorithm are
+//! computed once per hour of the rows' instants and shared by all rows ([`Ephemeris`]).
 
-use std::collections::HashMap;
+use std::fmt::Write as _;
 use std::io::Read;
 
 use csv::StringRecord;
-use sunlot::solar::{Atmosphere, InputError, Site, SunAtInstant};
+use sunlot::solar::{Atmosphere, Ephemeris, InputError, Site};
 use sunlot::time::{parse_instant, DeltaT};
 
 use crate::args::{AirArgs, DeltaTArgs};
 
-/// Rows are split into this many parts, one thread each.
+/// Rows are split into this many parts, one thread each (the machines we target have two cores).
 const THREADS: usize = 2;
 
 /// Column positions in the input.
@@ -65,22 +65,39 @@ pub fn run(air: &AirArgs, delta_t: &DeltaTArgs) -> Result<String, String> {
 }
 
 fn convert(input: &str, defaults: &Defaults) -> Result<String, String> {
-    let mut rdr = csv::ReaderBuilder::new().has_headers(true).flexible(false).from_reader(input.as_bytes());
+    let header_end = input.find('\n').map_or(input.len(), |i| i + 1);
+    let mut rdr = csv::ReaderBuilder::new().has_headers(true).from_reader(input[..header_end].as_bytes());
     let header = rdr.headers().map_err(|e| format!("input CSV header: {e}"))?.clone();
     let cols = Columns::find(&header)?;
-    let mut records = Vec::new();
-    for (i, r) in rdr.records().enumerate() {
-        records.push(r.map_err(|e| format!("row {}: not valid CSV: {e}", i + 1))?);
+
+    // Parts of whole lines for the threads; quoted fields may hold line breaks, so such input is one part.
+    let body = &input[header_end..];
+    let mut parts: Vec<(&str, u64)> = Vec::new();
+    if body.contains('"') {
+        parts.push((body, 1));
+    } else {
+        let (mut from, mut lines_before) = (0, 1);
+        for k in 1..=THREADS {
+            let target = body.len() * k / THREADS;
+            let to = if k == THREADS {
+                body.len()
+            } else {
+                body[target..].find('\n').map_or(body.len(), |i| target + i + 1)
+            };
+            if to > from {
+                parts.push((&body[from..to], lines_before));
+                lines_before += body[from..to].bytes().filter(|&b| b == b'\n').count() as u64;
+                from = to;
+            }
+        }
     }
 
-    let chunk = records.len().div_ceil(THREADS).max(1);
-    let parts: Vec<Result<Vec<u8>, String>> = std::thread::scope(|s| {
-        let handles: Vec<_> = records
-            .chunks(chunk)
-            .enumerate()
-            .map(|(k, rows)| {
-                let cols = &cols;
-                s.spawn(move || convert_rows(rows, k * chunk, cols, defaults))
+    let outputs: Vec<Result<Vec<u8>, String>> = std::thread::scope(|s| {
+        let handles: Vec<_> = parts
+            .iter()
+            .map(|&(text, lines_before)| {
+                let (cols, width) = (&cols, header.len());
+                s.spawn(move || convert_part(text, lines_before, width, cols, defaults))
             })
             .collect();
         handles
@@ -96,19 +113,27 @@ fn convert(input: &str, defaults: &Defaults) -> Result<String, String> {
     }
     w.write_record(&out_header).map_err(|e| e.to_string())?;
     let mut out = w.into_inner().map_err(|e| e.to_string())?;
-    for p in parts {
+    for p in outputs {
         out.extend_from_slice(&p?);
     }
     String::from_utf8(out).map_err(|e| e.to_string())
 }
 
-fn convert_rows(rows: &[StringRecord], first: usize, cols: &Columns, d: &Defaults) -> Result<Vec<u8>, String> {
-    let mut w = csv::Writer::from_writer(Vec::with_capacity(rows.len() * 96));
-    let mut cache: HashMap<i64, SunAtInstant> = HashMap::new();
-    let mut out = StringRecord::new();
-    for (i, r) in rows.iter().enumerate() {
-        let n = first + i + 1;
-        let at = |msg: String| format!("row {n} (line {}): {msg}", n + 1);
+/// Converts the rows in `text`, which starts after `lines_before` lines of the input; `width` is the
+/// header's number of columns.
+fn convert_part(text: &str, lines_before: u64, width: usize, cols: &Columns, d: &Defaults) -> Result<Vec<u8>, String> {
+    let mut rdr = csv::ReaderBuilder::new().has_headers(false).flexible(true).from_reader(text.as_bytes());
+    let mut w = csv::Writer::from_writer(Vec::with_capacity(text.len() * 2));
+    let mut ephemeris = Ephemeris::new();
+    let mut r = StringRecord::new();
+    let mut numbers = [String::new(), String::new(), String::new()];
+    while rdr.read_record(&mut r).map_err(|e| format!("not valid CSV after line {lines_before}: {e}"))? {
+        let line = lines_before + r.position().map_or(0, |p| p.line());
+        let n = line - 1;
+        let at = |msg: String| format!("row {n} (line {line}): {msg}");
+        if r.len() != width {
+            return Err(at(format!("has {} fields, the header has {width}", r.len())));
+        }
         let num = |idx: usize, name: &str| -> Result<f64, String> {
             let text = r.get(idx).unwrap_or("").trim();
             text.parse::<f64>().map_err(|_| at(format!("{name} {text:?} is not a number")))
@@ -123,24 +148,13 @@ fn convert_rows(rows: &[StringRecord], first: usize, cols: &Columns, d: &Default
         )
         .map_err(|e| at(column_message(&e)))?;
         let (t, _) = parse_instant(r.get(cols.time).unwrap_or("")).map_err(|e| at(format!("time: {e}")))?;
-        let key = t.timestamp_nanos_opt().unwrap_or(i64::MIN);
-        let sun = match cache.get(&key) {
-            Some(s) => *s,
-            None => {
-                let s = SunAtInstant::new(t, d.delta_t).map_err(|e| at(column_message(&e)))?;
-                if cache.len() > 4096 {
-                    cache.clear();
-                }
-                cache.insert(key, s);
-                s
-            }
-        };
+        let sun = ephemeris.sun_at(t, d.delta_t).map_err(|e| at(column_message(&e)))?;
         let p = sun.observe(&site, &air);
-        out.clone_from(r);
-        out.push_field(&p.zenith_deg.to_string());
-        out.push_field(&p.altitude_deg.to_string());
-        out.push_field(&p.azimuth_deg.to_string());
-        w.write_record(&out).map_err(|e| at(e.to_string()))?;
+        for (buf, v) in numbers.iter_mut().zip([p.zenith_deg, p.altitude_deg, p.azimuth_deg]) {
+            buf.clear();
+            let _ = write!(buf, "{v}");
+        }
+        w.write_record(r.iter().chain(numbers.iter().map(String::as_str))).map_err(|e| format!("line {line}: {e}"))?;
     }
     w.into_inner().map_err(|e| e.to_string())
 }
@@ -192,7 +206,7 @@ mod tests {
         let e = convert("lat,lon,when\n", &defaults()).unwrap_err();
         assert!(e.contains("no \"time\" column"), "{e}");
         let e = convert("lat,lon,time\n1,2\n", &defaults()).unwrap_err();
-        assert!(e.starts_with("row 1: not valid CSV"), "{e}");
+        assert_eq!(e, "row 1 (line 2): has 2 fields, the header has 3");
     }
 
     #[test]
@@ -200,5 +214,24 @@ mod tests {
         let out = convert("lat,lon,time,elevation_m,pressure_hpa,temperature_c\n39.742476,-105.1786,2003-10-17T12:30:30-07:00,1830.14,820,11\n", &defaults()).unwrap();
         let z: f64 = out.lines().nth(1).unwrap().split(',').nth(6).unwrap().parse().unwrap();
         assert!((z - 50.11162).abs() < 5e-6, "{z}"); // SPA paper, Table A5.2
+    }
+}
+
+#[cfg(test)]
+mod split_tests {
+    use super::*;
+
+    #[test]
+    fn parts_keep_every_row_in_order_with_true_line_numbers() {
+        let d = Defaults { atmosphere: Atmosphere::default(), delta_t: DeltaT::Seconds(67.0) };
+        let mut input = String::from("lat,lon,time\n");
+        for k in 0..101 {
+            input += &format!("{},{},2026-06-21T12:00:00Z\n", k % 90, k);
+        }
+        let out = convert(&input, &d).unwrap();
+        let lons: Vec<i32> = out.lines().skip(1).map(|l| l.split(',').nth(1).unwrap().parse().unwrap()).collect();
+        assert_eq!(lons, (0..101).collect::<Vec<_>>());
+        let bad = input.replace("\n77,77,", "\n77,777,");
+        assert_eq!(convert(&bad, &d).unwrap_err(), "row 78 (line 79): lon must be between -180 and 180, got 777");
     }
 }
