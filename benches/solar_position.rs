@@ -5,7 +5,7 @@
 mod native {
     use chrono::{Duration, TimeZone, Utc};
     use criterion::{black_box, Criterion, Throughput};
-    use sunlot::solar::{day_events, solar_position, Atmosphere, Site, SunAtInstant};
+    use sunlot::solar::{day_events, solar_position, Atmosphere, Ephemeris, Site, SunAtInstant};
     use sunlot::time::{DeltaT, Zone};
 
     pub fn benches(c: &mut Criterion) {
@@ -20,6 +20,14 @@ mod native {
             b.iter(|| {
                 for &t in &times {
                     black_box(solar_position(&site, t, &air, DeltaT::EspenakMeeus).unwrap());
+                }
+            })
+        });
+        g.bench_function("distinct_instants_hourly_ephemeris", |b| {
+            b.iter(|| {
+                let mut eph = Ephemeris::new();
+                for &t in &times {
+                    black_box(eph.sun_at(t, DeltaT::EspenakMeeus).unwrap().observe(&site, &air));
                 }
             })
         });

@@ -1,17 +1,55 @@
 //! The demo scenario: an invented site used by the README's main command and the demo pages.
 //!
-//! "Hollin Vale" and its street are made up; the coordinates are plausible for a small town in a
-//! temperate northern climate and name no real property.
+//! The data lives in `demo-site/hollin-vale.json` and is compiled in, so the demo needs no files at run
+//! time. "Hollin Vale" and its street are made up; the coordinates name no real property.
+
+use serde::Deserialize;
 
 use crate::solar::Site;
+use crate::time::Zone;
 
-/// Name of the invented demo site.
-pub const DEMO_SITE_NAME: &str = "Hollin Vale, 14 Tenter Lane (invented)";
+const DEMO_JSON: &str = include_str!("../demo-site/hollin-vale.json");
 
-/// IANA zone of the demo site.
-pub const DEMO_ZONE: &str = "Europe/London";
+/// The demo site as stored in `demo-site/hollin-vale.json`.
+#[derive(Debug, Clone, Deserialize)]
+pub struct DemoSite {
+    /// Display name (invented).
+    pub name: String,
+    /// Latitude, degrees north.
+    pub latitude_deg: f64,
+    /// Longitude, degrees east.
+    pub longitude_deg: f64,
+    /// Ground elevation above sea level, metres.
+    pub elevation_m: f64,
+    /// IANA time zone.
+    pub zone: String,
+}
 
-/// The demo site: 52.62° N, 1.87° W, 118 m above sea level.
+/// The demo scenario, parsed from the compiled-in JSON (checked by this module's tests).
+pub fn demo() -> DemoSite {
+    serde_json::from_str(DEMO_JSON).expect("demo-site/hollin-vale.json is valid (tested)")
+}
+
+/// The demo site's location.
 pub fn demo_site() -> Site {
-    Site { latitude_deg: 52.62, longitude_deg: -1.87, elevation_m: 118.0 }
+    let d = demo();
+    Site { latitude_deg: d.latitude_deg, longitude_deg: d.longitude_deg, elevation_m: d.elevation_m }
+}
+
+/// The demo site's zone.
+pub fn demo_zone() -> Zone {
+    demo().zone.parse().unwrap_or_else(|_| Zone::utc())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn demo_data_parses_and_is_valid() {
+        let d = demo();
+        assert!(Site::new(d.latitude_deg, d.longitude_deg, d.elevation_m).is_ok());
+        assert!(d.zone.parse::<Zone>().is_ok());
+        assert!(d.name.contains("invented"));
+    }
 }

@@ -98,6 +98,10 @@ pub fn rise_transit_set_ut(date: NaiveDate, site: &Site, delta_t_s: f64, h0_deg:
 
 /// Sunrise, transit, sunset and civil twilight on the local `date` in `zone` at `site`.
 ///
+/// The day is the transit (solar noon) that falls on the local date, with the rising before it and the
+/// setting after it. Where clock time runs about 12 hours off solar time a local date can hold no
+/// transit; the transit nearest local midday is then taken.
+///
 /// # Errors
 /// [`InputError`] for a date outside the SPA's years or a non-finite ΔT.
 pub fn day_events(site: &Site, date: NaiveDate, zone: &Zone, delta_t: DeltaT) -> Result<DayEvents, InputError> {
@@ -105,23 +109,30 @@ pub fn day_events(site: &Site, date: NaiveDate, zone: &Zone, delta_t: DeltaT) ->
     let check = super::SunAtInstant::new(midday, delta_t)?;
     let delta_t_s = check.observe(site, &super::Atmosphere::default()).delta_t_s;
 
-    // The UT day whose transit falls on the local date (normally the midday's UT date).
+    // The transit that falls on the local date, nearest local midday: searched in the UT days around
+    // it, since a transit close to midnight belongs to the neighbouring UT day's procedure.
     let base = midday.date_naive();
-    let candidates = [base, base - Duration::days(1), base + Duration::days(1)];
-    let mut best: Option<(UtDay, f64, i64)> = None;
-    for d in candidates {
+    let mut on_date: Option<(UtDay, f64, i64)> = None;
+    let mut nearest: Option<(UtDay, f64, i64)> = None;
+    for d in [base - Duration::days(1), base, base + Duration::days(1)] {
         let day = UtDay::new(d, site, delta_t_s);
-        let t = day.refine(day.transit_m(), None);
-        let instant = day.instant(t);
-        let miss = (instant - midday).num_seconds().abs();
-        if zone.local_date(instant) == date && best.as_ref().is_none_or(|b| miss < b.2) {
-            best = Some((day, t, miss));
+        for shift in [-1.0, 0.0, 1.0] {
+            let t = day.refine(day.transit_m() + shift, None);
+            let instant = day.instant(t);
+            let miss = (instant - midday).num_seconds().abs();
+            if zone.local_date(instant) == date && on_date.as_ref().is_none_or(|b| miss < b.2) {
+                on_date = Some((day, t, miss));
+            }
+            if nearest.as_ref().is_none_or(|b| miss < b.2) {
+                nearest = Some((day, t, miss));
+            }
         }
     }
-    let (day, t, _) = best.unwrap_or_else(|| {
+    // No transit on the date happens only where clock time runs about 12 h off solar time and the
+    // transit crosses midnight: then the transit nearest local midday is taken.
+    let (day, t, _) = on_date.or(nearest).unwrap_or_else(|| {
         let day = UtDay::new(base, site, delta_t_s);
-        let t = day.refine(day.transit_m(), None);
-        (day, t, 0)
+        (day, day.refine(day.transit_m(), None), 0)
     });
 
     Ok(DayEvents {

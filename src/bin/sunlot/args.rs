@@ -119,9 +119,7 @@ impl ZoneArgs {
     pub fn zone(&self, demo: bool) -> Result<Option<Zone>, String> {
         match (&self.zone, demo) {
             (Some(z), _) => z.parse().map(Some).map_err(|e: sunlot::time::TimeError| format!("--zone: {e}")),
-            (None, true) => {
-                Ok(Some(sunlot::demo::DEMO_ZONE.parse().map_err(|e: sunlot::time::TimeError| e.to_string())?))
-            }
+            (None, true) => Ok(Some(sunlot::demo::demo_zone())),
             (None, false) => Ok(None),
         }
     }

@@ -2,9 +2,9 @@
 
 use chrono::Datelike;
 use clap::Args;
-use sunlot::demo::{demo_site, DEMO_SITE_NAME, DEMO_ZONE};
+use sunlot::demo::{demo, demo_site, demo_zone};
 use sunlot::solar::{day_events, season_instants, Atmosphere, SunAtInstant};
-use sunlot::time::{DeltaT, Zone};
+use sunlot::time::DeltaT;
 
 use crate::args::input_message;
 use crate::day::{day_row, day_table};
@@ -20,12 +20,15 @@ pub struct DemoArgs {
 pub fn run(a: &DemoArgs) -> Result<String, String> {
     let year = a.year.unwrap_or_else(|| chrono::Utc::now().year());
     let site = demo_site();
-    let zone: Zone = DEMO_ZONE.parse().map_err(|e: sunlot::time::TimeError| e.to_string())?;
+    let zone = demo_zone();
     let dt = DeltaT::EspenakMeeus;
     let seasons = season_instants(year, dt).map_err(|e| input_message(&e))?;
     let mut out = format!(
-        "sunlot demo — {DEMO_SITE_NAME}\n  {:.2}° N, {:.2}° W, {} m above sea level, zone {zone}\n\n",
-        site.latitude_deg, -site.longitude_deg, site.elevation_m
+        "sunlot demo — {}\n  {:.2}° N, {:.2}° W, {} m above sea level, zone {zone}\n\n",
+        demo().name,
+        site.latitude_deg,
+        -site.longitude_deg,
+        site.elevation_m
     );
 
     let key = [

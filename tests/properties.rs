@@ -1,0 +1,77 @@
+//! Properties that hold for every valid input (proptest): ranges, identities, and no panics.
+#![cfg(not(target_arch = "wasm32"))]
+
+use chrono::{DateTime, Duration, NaiveDate, Utc};
+use proptest::prelude::*;
+use sunlot::solar::{day_events, solar_position, Atmosphere, Crossing, Site};
+use sunlot::time::{DeltaT, Fold, Zone};
+
+fn instant_1900_2100() -> impl Strategy<Value = DateTime<Utc>> {
+    (-2_208_988_800_i64..4_133_894_400_i64).prop_map(|s| DateTime::from_timestamp(s, 0).unwrap())
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(2_000))]
+
+    /// Zenith 0–180°, azimuth 0–360°, altitude = 90° − zenith, incidence 0–180°, for any site and time.
+    #[test]
+    fn position_angles_stay_in_their_ranges(lat in -90.0..=90.0_f64, lon in -180.0..=180.0_f64, elev in -500.0..9000.0_f64,
+                                            t in instant_1900_2100(), p in 300.0..1100.0_f64, temp in -60.0..60.0_f64,
+                                            tilt in 0.0..=180.0_f64, face in 0.0..360.0_f64) {
+        let site = Site::new(lat, lon, elev).unwrap();
+        let air = Atmosphere::new(p, temp, true).unwrap();
+        let s = solar_position(&site, t, &air, DeltaT::EspenakMeeus).unwrap();
+        prop_assert!((0.0..=180.0).contains(&s.zenith_deg));
+        prop_assert!((0.0..360.0).contains(&s.azimuth_deg));
+        prop_assert!((s.altitude_deg - (90.0 - s.zenith_deg)).abs() < 1e-12);
+        prop_assert!((-180.0..=180.0).contains(&s.hour_angle_deg));
+        prop_assert!(s.equation_of_time_min.abs() < 17.0, "equation of time {}", s.equation_of_time_min);
+        prop_assert!((0.97..1.02).contains(&s.earth_sun_distance_au));
+        prop_assert!(s.declination_deg.abs() < 23.5);
+        let i = s.incidence_deg(tilt, face);
+        prop_assert!((0.0..=180.0).contains(&i));
+        // A flat surface sees the sun at its zenith angle (SPA eq. 47 with ω = 0).
+        prop_assert!((s.incidence_deg(0.0, face) - s.zenith_deg).abs() < 1e-9);
+        // Refraction only ever lifts the sun, and by less than a degree.
+        let refr = s.altitude_deg - s.altitude_unrefracted_deg;
+        prop_assert!((-1e-9..1.0).contains(&refr), "refraction {refr}");
+    }
+
+    /// Outside the polar circles the sun rises before solar noon and sets after it, on the asked date.
+    #[test]
+    fn sunrise_before_noon_before_sunset(lat in -65.0..65.0_f64, lon in -180.0..180.0_f64, day in 0_i64..73_000) {
+        let date = NaiveDate::from_ymd_opt(1900, 1, 1).unwrap() + Duration::days(day);
+        let site = Site::new(lat, lon, 0.0).unwrap();
+        let ev = day_events(&site, date, &Zone::utc(), DeltaT::EspenakMeeus).unwrap();
+        let Crossing::Crosses { rise, set } = ev.sun else { return Err(TestCaseError::fail("no sunrise at |lat| < 65°")) };
+        prop_assert!(rise < ev.transit && ev.transit < set);
+        // The transit is on the asked date except where solar time runs ~12 h off the clock (UTC near
+        // ±180° longitude), where it is the one nearest midday.
+        if lon.abs() < 170.0 {
+            prop_assert_eq!(ev.transit.date_naive(), date);
+        }
+        let midday = date.and_hms_opt(12, 0, 0).unwrap().and_utc();
+        prop_assert!((ev.transit - midday).num_minutes().abs() < 12 * 60 + 20);
+        let len = ev.day_length();
+        prop_assert!(len > Duration::hours(2) && len < Duration::hours(22), "day length {len}");
+        // Civil twilight brackets the day.
+        if let Crossing::Crosses { rise: dawn, set: dusk } = ev.civil_twilight {
+            prop_assert!(dawn < rise && set < dusk);
+        }
+    }
+
+    /// Every wall time in a zone with daylight saving is resolved, refused as skipped, or refused as
+    /// repeated — and an accepted one reads back as itself.
+    #[test]
+    fn wall_times_resolve_or_say_why(minutes in 0_i64..(60 * 24 * 366 * 3), zone in prop::sample::select(vec!["Europe/London", "America/New_York", "Australia/Sydney", "Asia/Kolkata", "Pacific/Chatham"])) {
+        let z: Zone = zone.parse().unwrap();
+        let wall = NaiveDate::from_ymd_opt(2024, 1, 1).unwrap().and_hms_opt(0, 0, 0).unwrap() + Duration::minutes(minutes);
+        match z.resolve(wall, Fold::Reject) {
+            Ok(t) => prop_assert_eq!(z.local(t).naive_local(), wall),
+            Err(e) => {
+                let text = e.to_string();
+                prop_assert!(text.contains("does not exist") || text.contains("occurs twice"), "{}", text);
+            }
+        }
+    }
+}
