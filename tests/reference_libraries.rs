@@ -1,7 +1,7 @@
-//! The solar engine against pvlib-python, a general-purpose reference library.
+//! The solar engine against general-purpose reference libraries: pvlib-python and astropy.
 //!
-//! Fixtures: `tests/fixtures/*.csv`, written by `tests/fixtures/generate_pvlib.py` (pvlib 0.16.1; the
-//! versions and date are in each file's first line).
+//! Fixtures: `tests/fixtures/*.csv`, written by `tests/fixtures/generate_pvlib.py` (pvlib 0.16.1) and
+//! `tests/fixtures/generate_astropy.py` (astropy 8.0.2); versions and date are in each file's first line.
 
 mod common;
 
@@ -70,4 +70,20 @@ fn bird_clear_sky_matches_pvlib() {
             assert!((ours - want).abs() < 1e-6 * want.max(1.0), "row {i} {key}: {ours} vs {want}");
         }
     }
+}
+
+/// Season instants against astropy (fixture `seasons_astropy.csv`, from `generate_astropy.py`): within
+/// one minute is the bar; the SPA's truncated VSOP87 does far better.
+#[test]
+fn season_instants_agree_with_astropy_within_a_minute() {
+    let rows = fixture_rows("seasons_astropy.csv");
+    assert_eq!(rows.len(), 201 * 4);
+    let mut worst_s = 0.0_f64;
+    for r in &rows {
+        let jde = sunlot::solar::season_jde(num(r, "year") as i32, num(r, "longitude_deg"));
+        let diff_s = (jde - num(r, "jde_tt")).abs() * 86_400.0;
+        assert!(diff_s < 60.0, "{r:?}: {diff_s} s");
+        worst_s = worst_s.max(diff_s);
+    }
+    println!("worst season instant difference {worst_s:.1} s");
 }
