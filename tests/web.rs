@@ -98,4 +98,13 @@ fn clear_sky_in_the_browser_matches_the_core() {
     let s = sunlot::sky::bird_clear_sky(30.0, e0, &Default::default());
     assert_eq!(num(&out, "ghiWM2"), s.ghi_w_m2);
     assert!(num(&out, "ghiWM2") > 700.0 && num(&out, "ghiWM2") < 1100.0);
+    let hazy = sunlot::web::clear_sky(js(
+        r#"{"zenithDeg": 30, "dayOfYear": 172, "atmosphere": {"aod500": 0.5, "aod380": 0.7}}"#,
+    ))
+    .unwrap();
+    assert!(num(&hazy, "dniWM2") < num(&out, "dniWM2"));
+    let m = error_message(sunlot::web::clear_sky(js(
+        r#"{"zenithDeg": 30, "dayOfYear": 172, "atmosphere": {"albedo": 2}}"#,
+    )));
+    assert!(m.contains("albedo"), "{m}");
 }

@@ -232,7 +232,35 @@ struct ClearSkyIn {
     zenith_deg: f64,
     day_of_year: u32,
     #[serde(default)]
-    atmosphere: Option<BirdAtmosphere>,
+    atmosphere: Option<AtmosphereIn>,
+}
+
+/// The Bird model's atmosphere with JavaScript names; each field falls back to the core's default.
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct AtmosphereIn {
+    aod380: Option<f64>,
+    aod500: Option<f64>,
+    precipitable_water_cm: Option<f64>,
+    ozone_cm: Option<f64>,
+    forward_scattering: Option<f64>,
+    albedo: Option<f64>,
+    pressure_hpa: Option<f64>,
+}
+
+impl AtmosphereIn {
+    fn atmosphere(&self) -> BirdAtmosphere {
+        let d = BirdAtmosphere::default();
+        BirdAtmosphere {
+            aod_380: self.aod380.unwrap_or(d.aod_380),
+            aod_500: self.aod500.unwrap_or(d.aod_500),
+            precipitable_water_cm: self.precipitable_water_cm.unwrap_or(d.precipitable_water_cm),
+            ozone_cm: self.ozone_cm.unwrap_or(d.ozone_cm),
+            forward_scattering: self.forward_scattering.unwrap_or(d.forward_scattering),
+            albedo: self.albedo.unwrap_or(d.albedo),
+            pressure_hpa: self.pressure_hpa.unwrap_or(d.pressure_hpa),
+        }
+    }
 }
 
 #[derive(Serialize)]
@@ -245,8 +273,9 @@ struct ClearSkyOut {
     ghi_w_m2: f64,
 }
 
-/// Bird clear-sky irradiance (W/m²) for `{zenithDeg, dayOfYear, atmosphere?}`; `atmosphere` has the
-/// fields of the core's `BirdAtmosphere` (`aod_380`, `aod_500`, …), defaults as documented there.
+/// Bird clear-sky irradiance (W/m²) for `{zenithDeg, dayOfYear, atmosphere?}`; `atmosphere` may set
+/// `aod380`, `aod500`, `precipitableWaterCm`, `ozoneCm`, `forwardScattering`, `albedo`, `pressureHpa`
+/// (defaults: a clear rural sky, see the core's `BirdAtmosphere`).
 #[wasm_bindgen(js_name = clearSky)]
 pub fn clear_sky(input: JsValue) -> Result<JsValue, JsError> {
     let i: ClearSkyIn = read(input, "clearSky")?;
@@ -256,7 +285,7 @@ pub fn clear_sky(input: JsValue) -> Result<JsValue, JsError> {
     if !(1..=366).contains(&i.day_of_year) {
         return Err(JsError::new(&format!("clearSky: dayOfYear must be 1 to 366, got {}", i.day_of_year)));
     }
-    let atm = i.atmosphere.unwrap_or_default().validated().map_err(err)?;
+    let atm = i.atmosphere.map_or_else(BirdAtmosphere::default, |a| a.atmosphere()).validated().map_err(err)?;
     let e0 = extraterrestrial_normal_w_m2(i.day_of_year);
     let s = bird_clear_sky(i.zenith_deg, e0, &atm);
     write(&ClearSkyOut {
