@@ -1,4 +1,5 @@
 //! The command line's contract, run as a user would run it.
+#![cfg(not(target_arch = "wasm32"))]
 
 use std::io::Write;
 use std::process::{Command, Output, Stdio};

@@ -66,7 +66,7 @@ pub fn run(air: &AirArgs, delta_t: &DeltaTArgs) -> Result<String, String> {
 
 fn convert(input: &str, defaults: &Defaults) -> Result<String, String> {
     let header_end = input.find('\n').map_or(input.len(), |i| i + 1);
-    let mut rdr = csv::ReaderBuilder::new().has_headers(true).from_reader(input[..header_end].as_bytes());
+    let mut rdr = csv::ReaderBuilder::new().has_headers(true).from_reader(&input.as_bytes()[..header_end]);
     let header = rdr.headers().map_err(|e| format!("input CSV header: {e}"))?.clone();
     let cols = Columns::find(&header)?;
 
