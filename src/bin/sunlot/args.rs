@@ -164,3 +164,59 @@ pub fn date(text: &str, flag: &str) -> Result<NaiveDate, String> {
 pub fn rfc3339(t: DateTime<Utc>, zone: &Zone) -> String {
     zone.local(t).to_rfc3339_opts(chrono::SecondsFormat::Secs, true)
 }
+
+/// When to compute: one moment, or a whole local day at a step.
+#[derive(Debug, Clone, Args)]
+pub struct WhenArgs {
+    /// The moment, RFC 3339 with an offset (2026-06-21T12:00:00+01:00 or ...Z).
+    #[arg(long, conflicts_with_all = ["local", "date"])]
+    pub time: Option<String>,
+    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in --zone.
+    #[arg(long, conflicts_with = "date")]
+    pub local: Option<String>,
+    /// A whole local date YYYY-MM-DD: a table through the day at --step-min.
+    #[arg(long)]
+    pub date: Option<String>,
+    /// Step of the day table, minutes (1 to 720), counted from local midnight.
+    #[arg(long, default_value_t = 60)]
+    pub step_min: u32,
+}
+
+/// What [`WhenArgs`] asked for.
+pub enum When {
+    /// One instant, shown in a zone.
+    Moment(DateTime<Utc>, Zone),
+    /// The steps of a local day (from local midnight to the next, at `step_min`).
+    Day { date: NaiveDate, zone: Zone, step_min: u32, steps: Vec<DateTime<Utc>> },
+    /// Neither a moment nor a date was given.
+    Unspecified,
+}
+
+impl WhenArgs {
+    pub fn resolve(&self, zones: &ZoneArgs, demo: bool) -> Result<When, String> {
+        if let Some((t, zone)) = instant(self.time.as_deref(), self.local.as_deref(), zones, demo)? {
+            return Ok(When::Moment(t, zone));
+        }
+        let Some(text) = self.date.as_deref() else { return Ok(When::Unspecified) };
+        let date = date(text, "--date")?;
+        if !(1..=720).contains(&self.step_min) {
+            return Err(format!("--step-min must be 1 to 720, got {}", self.step_min));
+        }
+        let zone = zones.zone(demo)?.unwrap_or_else(Zone::utc);
+        let (start, end) = day_bounds(&zone, date);
+        let step = chrono::Duration::minutes(i64::from(self.step_min));
+        let steps = std::iter::successors(Some(start), |t| Some(*t + step)).take_while(|t| *t < end).collect();
+        Ok(When::Day { date, zone, step_min: self.step_min, steps })
+    }
+}
+
+/// Local midnight at the start of `date` and of the next day, as instants (where midnight is skipped
+/// by a daylight-saving change, the first hour that exists).
+pub fn day_bounds(zone: &Zone, date: NaiveDate) -> (DateTime<Utc>, DateTime<Utc>) {
+    let start_of = |d: NaiveDate| {
+        (0..4)
+            .find_map(|h| zone.resolve(d.and_hms_opt(h, 0, 0).expect("valid hour"), Fold::Earlier).ok())
+            .unwrap_or_else(|| d.and_hms_opt(0, 0, 0).expect("midnight").and_utc())
+    };
+    (start_of(date), start_of(date.succ_opt().unwrap_or(date)))
+}

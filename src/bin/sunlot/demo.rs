@@ -57,7 +57,7 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
             format!("Sun every hour on {date} ({name}), local time {zone}"),
             vec!["local_time", "altitude_deg", "azimuth_deg", "shadow_per_m_height_m", "direction_of_shadow_deg"],
         );
-        let (start, end) = crate::position::day_bounds(&zone, date);
+        let (start, end) = crate::args::day_bounds(&zone, date);
         let mut at = start;
         while at < end {
             let p = SunAtInstant::new(at, dt).map_err(|e| input_message(&e))?.observe(&site, &Atmosphere::default());

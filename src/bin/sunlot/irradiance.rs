@@ -1,7 +1,7 @@
 //! `sunlot irradiance`: clear-sky sunlight at a moment or through a day, on the horizontal and on a
 //! tilted surface.
 
-use chrono::{DateTime, Datelike, Duration, Utc};
+use chrono::{DateTime, Datelike, Utc};
 use clap::Args;
 use sunlot::sky::{
     bird_clear_sky, extraterrestrial_normal_w_m2, plane_of_array, relative_air_mass_kasten_young, BirdAtmosphere,
@@ -10,25 +10,16 @@ use sunlot::sky::{
 use sunlot::solar::{Atmosphere, Site, SunAtInstant};
 use sunlot::time::{DeltaT, Zone};
 
-use crate::args::{self, input_message, AirArgs, DeltaTArgs, SiteArgs, ZoneArgs};
+use crate::args::{self, input_message, AirArgs, DeltaTArgs, SiteArgs, When, WhenArgs, ZoneArgs};
 use crate::output::{Cell, Format, Table};
 
 #[derive(Debug, Args)]
 pub struct IrradianceArgs {
     #[command(flatten)]
     pub site: SiteArgs,
-    /// The moment, RFC 3339 with an offset.
-    #[arg(long, conflicts_with_all = ["local", "date"])]
-    pub time: Option<String>,
-    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in --zone.
-    #[arg(long, conflicts_with = "date")]
-    pub local: Option<String>,
-    /// A whole local date YYYY-MM-DD: a table through the day at --step-min, with daily totals.
-    #[arg(long)]
-    pub date: Option<String>,
-    /// Step of the day table, minutes (1 to 720).
-    #[arg(long, default_value_t = 60)]
-    pub step_min: u32,
+    /// With --date, the table comes with daily totals.
+    #[command(flatten)]
+    pub when: WhenArgs,
     #[command(flatten)]
     pub zone: ZoneArgs,
     #[command(flatten)]
@@ -92,24 +83,20 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
     };
     let s = Setup { site, air, bird, delta_t: a.delta_t.delta_t()?, surface };
     let mut table = table(&s);
-    if let Some((t, zone)) = args::instant(a.time.as_deref(), a.local.as_deref(), &a.zone, a.site.demo)? {
-        table.title = format!("Clear-sky irradiance at {} ({zone})", args::rfc3339(t, &zone));
-        table.rows.push(row(&s, t, &zone)?);
-        table.single = true;
-        return Ok(table.render(a.format));
-    }
-    let date =
-        args::date(a.date.as_deref().ok_or("give a moment with --time or --local, or a day with --date")?, "--date")?;
-    if !(1..=720).contains(&a.step_min) {
-        return Err(format!("--step-min must be 1 to 720, got {}", a.step_min));
-    }
-    let zone = a.zone.zone(a.site.demo)?.unwrap_or_else(Zone::utc);
-    let (start, end) = crate::position::day_bounds(&zone, date);
-    table.title = format!("Clear-sky irradiance through {date} ({zone}), every {} min", a.step_min);
-    let step_h = f64::from(a.step_min) / 60.0;
+    let (date, zone, step_min, steps) = match a.when.resolve(&a.zone, a.site.demo)? {
+        When::Moment(t, zone) => {
+            table.title = format!("Clear-sky irradiance at {} ({zone})", args::rfc3339(t, &zone));
+            table.rows.push(row(&s, t, &zone)?);
+            table.single = true;
+            return Ok(table.render(a.format));
+        }
+        When::Day { date, zone, step_min, steps } => (date, zone, step_min, steps),
+        When::Unspecified => return Err("give a moment with --time or --local, or a day with --date".into()),
+    };
+    table.title = format!("Clear-sky irradiance through {date} ({zone}), every {step_min} min");
+    let step_h = f64::from(step_min) / 60.0;
     let (mut ghi_wh, mut poa_wh) = (0.0, 0.0);
-    let mut t = start;
-    while t < end {
+    for t in steps {
         let r = row(&s, t, &zone)?;
         let value = |c: &Cell| if let Cell::Num { value, .. } = c { *value } else { 0.0 };
         ghi_wh += value(&r[8]) * step_h;
@@ -117,7 +104,6 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
             poa_wh += value(&r[13]) * step_h;
         }
         table.rows.push(r);
-        t += Duration::minutes(i64::from(a.step_min));
     }
     table.notes.insert(
         0,

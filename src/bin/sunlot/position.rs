@@ -1,29 +1,19 @@
 //! `sunlot position`: where the sun is at one moment, through a day, or for each row of a CSV.
 
-use chrono::{DateTime, Duration, NaiveDate, Utc};
+use chrono::{DateTime, NaiveDate, Utc};
 use clap::Args;
-use sunlot::solar::{day_events, Atmosphere, Site, SolarPosition, SunAtInstant};
+use sunlot::solar::{day_events, Atmosphere, Ephemeris, Site, SolarPosition, SunAtInstant};
 use sunlot::time::{DeltaT, Zone};
 
-use crate::args::{self, input_message, AirArgs, DeltaTArgs, SiteArgs, ZoneArgs};
+use crate::args::{self, input_message, AirArgs, DeltaTArgs, SiteArgs, When, WhenArgs, ZoneArgs};
 use crate::output::{Cell, Format, Table};
 
 #[derive(Debug, Args)]
 pub struct PositionArgs {
     #[command(flatten)]
     pub site: SiteArgs,
-    /// The moment, RFC 3339 with an offset (2026-06-21T12:00:00+01:00 or ...Z).
-    #[arg(long, conflicts_with_all = ["local", "date"])]
-    pub time: Option<String>,
-    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in --zone.
-    #[arg(long, conflicts_with = "date")]
-    pub local: Option<String>,
-    /// A whole local date YYYY-MM-DD: a table of positions through the day at --step-min.
-    #[arg(long)]
-    pub date: Option<String>,
-    /// Step of the day table, minutes (1 to 720).
-    #[arg(long, default_value_t = 60)]
-    pub step_min: u32,
+    #[command(flatten)]
+    pub when: WhenArgs,
     /// In the day table, also list the steps when the sun is below the horizon.
     #[arg(long)]
     pub include_night: bool,
@@ -56,30 +46,28 @@ pub fn run(a: &PositionArgs) -> Result<String, String> {
         }
         _ => None,
     };
-    let moment = args::instant(a.time.as_deref(), a.local.as_deref(), &a.zone, a.site.demo)?;
-    if moment.is_none() && a.date.is_none() {
-        if a.format == Format::Csv {
-            return crate::batch::run(&a.air, &a.delta_t);
+    let table = match a.when.resolve(&a.zone, a.site.demo)? {
+        When::Unspecified if a.format == Format::Csv => return crate::batch::run(&a.air, &a.delta_t),
+        When::Unspecified => {
+            return Err("give a moment with --time or --local, a day with --date, or use --format csv to read rows from standard input".into());
         }
-        return Err("give a moment with --time or --local, a day with --date, or use --format csv to read rows from standard input".into());
-    }
-    let site = a.site.site()?;
-    if let Some((t, zone)) = moment {
-        let p = SunAtInstant::new(t, delta_t).map_err(|e| input_message(&e))?.observe(&site, &atmosphere);
-        let mut table = position_table(&site, &zone, &atmosphere, surface);
-        table.title = format!("Sun at {} ({zone})", args::rfc3339(t, &zone));
-        let row = position_row(t, &zone, &p, &site, surface, &table.columns);
-        table.rows.push(row);
-        table.single = true;
-        return Ok(table.render(a.format));
-    }
-    let date = args::date(a.date.as_deref().unwrap_or_default(), "--date")?;
-    let zone = a.zone.zone(a.site.demo)?.unwrap_or_else(Zone::utc);
-    if !(1..=720).contains(&a.step_min) {
-        return Err(format!("--step-min must be 1 to 720, got {}", a.step_min));
-    }
-    day_table(&site, date, &zone, &atmosphere, delta_t, a.step_min, a.include_night, surface)
-        .map(|t| t.render(a.format))
+        When::Moment(t, zone) => {
+            let site = a.site.site()?;
+            let p = SunAtInstant::new(t, delta_t).map_err(|e| input_message(&e))?.observe(&site, &atmosphere);
+            let mut table = position_table(&site, &zone, &atmosphere, surface);
+            table.title = format!("Sun at {} ({zone})", args::rfc3339(t, &zone));
+            let row = position_row(t, &zone, &p, &site, surface, &table.columns);
+            table.rows.push(row);
+            table.single = true;
+            table
+        }
+        When::Day { date, zone, step_min, steps } => {
+            let site = a.site.site()?;
+            let day = Day { site: &site, date, zone: &zone, air: &atmosphere, delta_t, surface };
+            day_table(&day, step_min, &steps, a.include_night)?
+        }
+    };
+    Ok(table.render(a.format))
 }
 
 fn position_table(site: &Site, zone: &Zone, air: &Atmosphere, surface: Option<(f64, f64)>) -> Table {
@@ -150,59 +138,55 @@ fn position_row(
     cells.into_iter().filter(|(c, _)| columns.contains(c)).map(|(_, v)| v).collect()
 }
 
-/// Local midnight at the start of `date` and of the next day, as instants.
-pub fn day_bounds(zone: &Zone, date: NaiveDate) -> (DateTime<Utc>, DateTime<Utc>) {
-    let start_of = |d: NaiveDate| {
-        (0..4)
-            .find_map(|h| zone.resolve(d.and_hms_opt(h, 0, 0).expect("valid hour"), sunlot::time::Fold::Earlier).ok())
-            .unwrap_or_else(|| d.and_hms_opt(0, 0, 0).expect("midnight").and_utc())
-    };
-    (start_of(date), start_of(date.succ_opt().unwrap_or(date)))
+/// A day table's fixed inputs.
+struct Day<'a> {
+    site: &'a Site,
+    date: NaiveDate,
+    zone: &'a Zone,
+    air: &'a Atmosphere,
+    delta_t: DeltaT,
+    surface: Option<(f64, f64)>,
 }
 
-#[allow(clippy::too_many_arguments)]
-fn day_table(
-    site: &Site,
-    date: NaiveDate,
-    zone: &Zone,
-    air: &Atmosphere,
-    delta_t: DeltaT,
-    step_min: u32,
-    night: bool,
-    surface: Option<(f64, f64)>,
-) -> Result<Table, String> {
-    let (start, end) = day_bounds(zone, date);
-    let mut table = position_table(site, zone, air, surface);
+fn day_table(d: &Day, step_min: u32, steps: &[DateTime<Utc>], night: bool) -> Result<Table, String> {
+    let mut table = position_table(d.site, d.zone, d.air, d.surface);
     table
         .columns
         .retain(|c| !matches!(*c, "latitude_deg" | "longitude_deg" | "elevation_m" | "zone" | "delta_t_s" | "sun_up"));
-    table.title =
-        format!("Sun through {date} ({zone}), every {step_min} min{}", if night { "" } else { ", sun up only" });
-    let ev = day_events(site, date, zone, delta_t).map_err(|e| input_message(&e))?;
-    let mut t = start;
-    while t < end {
-        let p = SunAtInstant::new(t, delta_t).map_err(|e| input_message(&e))?.observe(site, air);
+    table.title = format!(
+        "Sun through {} ({}), every {step_min} min{}",
+        d.date,
+        d.zone,
+        if night { "" } else { ", sun up only" }
+    );
+    let ev = day_events(d.site, d.date, d.zone, d.delta_t).map_err(|e| input_message(&e))?;
+    let mut ephemeris = Ephemeris::new();
+    for &t in steps {
+        let p = ephemeris.sun_at(t, d.delta_t).map_err(|e| input_message(&e))?.observe(d.site, d.air);
         if night || p.is_up() {
-            table.rows.push(position_row(t, zone, &p, site, surface, &table.columns));
+            table.rows.push(position_row(t, d.zone, &p, d.site, d.surface, &table.columns));
         }
-        t += Duration::minutes(i64::from(step_min));
     }
-    table.notes.insert(0, crate::day::describe_sun(&ev, zone));
+    table.notes.insert(0, crate::day::describe_sun(&ev, d.zone));
     Ok(table)
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+    use chrono::Duration;
 
     #[test]
     fn day_table_columns_and_cells_line_up() {
         let site = sunlot::demo::demo_site();
         let zone: Zone = "Europe/London".parse().unwrap();
-        let d = NaiveDate::from_ymd_opt(2026, 3, 20).unwrap();
+        let date = NaiveDate::from_ymd_opt(2026, 3, 20).unwrap();
+        let (start, _) = args::day_bounds(&zone, date);
+        let steps: Vec<_> = (0..24).map(|h| start + Duration::hours(h)).collect();
         for surface in [None, Some((30.0, 180.0))] {
-            let t =
-                day_table(&site, d, &zone, &Atmosphere::default(), DeltaT::EspenakMeeus, 60, false, surface).unwrap();
+            let air = Atmosphere::default();
+            let d = Day { site: &site, date, zone: &zone, air: &air, delta_t: DeltaT::EspenakMeeus, surface };
+            let t = day_table(&d, 60, &steps, false).unwrap();
             assert!(t.rows.len() >= 11 && t.rows.len() <= 13, "{} rows", t.rows.len());
             assert!(t.rows.iter().all(|r| r.len() == t.columns.len()));
         }
