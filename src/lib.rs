@@ -5,7 +5,8 @@
 //! ## Conventions (held everywhere in the crate)
 //! - **Angles** are in degrees. Azimuth is measured clockwise from true north, 0–360° (90° east,
 //!   180° south). Altitude (elevation angle) is above the horizon; zenith = 90° − altitude.
-//! - **Latitude** north positive, **longitude** east positive, on WGS84; **heights** in metres.
+//! - **Latitude** north positive, **longitude** east positive, on WGS84; **heights** in metres above
+//!   local ground. **Plan** coordinates: x east, y north (of the plan), metres.
 //! - **Instants** are `chrono::DateTime<Utc>`; a [`time::Zone`] (IANA or fixed offset) goes with them
 //!   for reading and writing local clock times. Local times that a daylight-saving change skips or
 //!   repeats are never guessed: see [`time::Zone::resolve`].
@@ -16,10 +17,14 @@
 //! - [`time`]: zones, RFC 3339 and local times, Julian days, ΔT.
 //! - [`solar`]: the sun's position (NREL SPA), day events, equinoxes and solstices.
 //! - [`sky`]: clear-sky irradiance (Bird), air mass (Kasten–Young), tilted surfaces.
+//! - [`site`]: the site model: massing volumes and walls in the plan frame.
+//! - [`shadow`]: exact shadow polygons of the massing and their union.
 //! - [`demo`]: the invented demo scenario.
 //! - `web` (wasm32 only): the JavaScript facade.
 
 pub mod demo;
+pub mod shadow;
+pub mod site;
 pub mod sky;
 pub mod solar;
 pub mod time;

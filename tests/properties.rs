@@ -75,3 +75,48 @@ proptest! {
         }
     }
 }
+
+mod shadows {
+    use geo::{Area, BooleanOps, Coord, Rect};
+    use proptest::prelude::*;
+    use sunlot::shadow::{cast_shadows, shadow_offset_per_m, volume_shadow, Shadows};
+    use sunlot::site::{Status, Volume};
+
+    fn block(x: f64, y: f64, w: f64, d: f64, base: f64, h: f64) -> Volume {
+        Volume::from_vertices("b", Status::Existing, &[(x, y), (x + w, y), (x + w, y + d), (x, y + d)], base, base + h)
+            .unwrap()
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(300))]
+
+        /// At a fixed azimuth, a lower sun never casts a smaller shadow (for a volume on the ground).
+        #[test]
+        fn shadow_grows_as_the_sun_lowers(w in 1.0..30.0_f64, d in 1.0..30.0_f64, h in 1.0..40.0_f64,
+                                          az in 0.0..360.0_f64, alt in 5.0..80.0_f64, drop in 0.5..4.0_f64) {
+            let v = block(0.0, 0.0, w, d, 0.0, h);
+            let high = volume_shadow(&v, shadow_offset_per_m(az, alt).unwrap(), 0.0).unsigned_area();
+            let low = volume_shadow(&v, shadow_offset_per_m(az, alt - drop).unwrap(), 0.0).unsigned_area();
+            prop_assert!(low >= high - 1e-6 * high, "{low} < {high}");
+            prop_assert!(high >= w * d - 1e-6, "a grounded volume shades at least its footprint");
+        }
+
+        /// The union covers each volume's own shadow and is no larger than their sum (to 1e-7 of the area:
+        /// the boolean operations work on a fixed-precision grid).
+        #[test]
+        fn union_covers_every_shadow(xs in prop::collection::vec((-40.0..40.0_f64, -40.0..40.0_f64, 2.0..15.0_f64, 0.0..6.0_f64, 1.0..25.0_f64), 1..6),
+                                     az in 0.0..360.0_f64, alt in 10.0..80.0_f64) {
+            let vols: Vec<Volume> = xs.iter().map(|&(x, y, w, b, h)| block(x, y, w, w * 0.7, b, h)).collect();
+            let extent = Rect::new(Coord { x: -2_000.0, y: -2_000.0 }, Coord { x: 2_000.0, y: 2_000.0 });
+            let Shadows::Sun { per_volume, union, clipped } = cast_shadows(&vols, az, alt, 0.0, extent).unwrap() else {
+                return Err(TestCaseError::fail("sun is up"));
+            };
+            prop_assert!(!clipped);
+            let sum: f64 = per_volume.iter().map(|(_, s)| s.unsigned_area()).sum();
+            prop_assert!(union.unsigned_area() <= sum * (1.0 + 1e-7) + 1e-6, "union {} > sum {sum}", union.unsigned_area());
+            for (_, s) in &per_volume {
+                prop_assert!(s.difference(&union).unsigned_area() < 1e-7 * s.unsigned_area().max(1.0));
+            }
+        }
+    }
+}

@@ -1,0 +1,271 @@
+//! Casting the shadows of volumes onto a horizontal plane.
+
+use geo::orient::{Direction, Orient};
+use geo::{unary_union, Area, BooleanOps, BoundingRect, Coord, LineString, MultiPolygon, Polygon, Rect, Translate};
+
+use crate::site::Volume;
+
+/// Below this area a face's shadow is a sliver of an edge seen end-on and is left out, m².
+const SLIVER_M2: f64 = 1e-9;
+
+/// Problems with a shadow request.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum ShadowError {
+    /// The analysis extent has no area or is not finite.
+    #[error("the analysis extent must be a finite rectangle with an area, got {min_x}…{max_x} × {min_y}…{max_y} m")]
+    BadExtent { min_x: f64, max_x: f64, min_y: f64, max_y: f64 },
+    /// An angle that is not a finite number.
+    #[error("{field} must be a finite number, got {value}")]
+    NotFinite { field: &'static str, value: f64 },
+}
+
+/// Horizontal displacement of the shadow of a point per metre of its height above the receiving plane,
+/// in the plan frame (x east, y north when the plan is drawn to true north), metres per metre.
+///
+/// `azimuth_deg` is the sun's azimuth in the plan frame (clockwise from the plan's north), `altitude_deg`
+/// its altitude. The shadow falls away from the sun: direction azimuth + 180°, length 1 / tan(altitude)
+/// (common practice). `None` when the sun is not above the horizon.
+pub fn shadow_offset_per_m(azimuth_deg: f64, altitude_deg: f64) -> Option<Coord<f64>> {
+    if !(altitude_deg > 0.0 && altitude_deg.is_finite() && azimuth_deg.is_finite()) {
+        return None;
+    }
+    let len = 1.0 / altitude_deg.to_radians().tan();
+    let (s, c) = azimuth_deg.to_radians().sin_cos();
+    Some(Coord { x: -s * len, y: -c * len })
+}
+
+/// Length of the shadow per metre of height on flat ground, 1 / tan(altitude), metres per metre; `None`
+/// when the sun is not above the horizon (common practice).
+///
+/// # Examples
+/// ```
+/// // At 45° altitude a pole casts a shadow as long as it is tall.
+/// assert!((sunlot::shadow::shadow_length_per_m(45.0).unwrap() - 1.0).abs() < 1e-12);
+/// ```
+pub fn shadow_length_per_m(altitude_deg: f64) -> Option<f64> {
+    (altitude_deg > 0.0 && altitude_deg.is_finite()).then(|| 1.0 / altitude_deg.to_radians().tan())
+}
+
+/// The exact shadow of one volume on the horizontal plane at `plane_m` above ground, for a shadow
+/// offset per metre `offset` (from [`shadow_offset_per_m`]). Only the part of the volume above the
+/// plane casts; a volume wholly below it casts nothing.
+pub fn volume_shadow(volume: &Volume, offset: Coord<f64>, plane_m: f64) -> MultiPolygon<f64> {
+    let top = volume.top_m - plane_m;
+    if top <= 0.0 {
+        return MultiPolygon::new(vec![]);
+    }
+    let base = (volume.base_m - plane_m).max(0.0);
+    let at = |h: f64| Coord { x: offset.x * h, y: offset.y * h };
+    let (b, t) = (at(base), at(top));
+
+    let mut faces: Vec<Polygon<f64>> = Vec::new();
+    faces.push(volume.footprint.translate(b.x, b.y).orient(Direction::Default));
+    faces.push(volume.footprint.translate(t.x, t.y).orient(Direction::Default));
+    let rings = std::iter::once(volume.footprint.exterior()).chain(volume.footprint.interiors());
+    for ring in rings {
+        for edge in ring.lines() {
+            let quad = Polygon::new(
+                LineString::from(vec![edge.start + b, edge.end + b, edge.end + t, edge.start + t, edge.start + b]),
+                vec![],
+            );
+            if quad.unsigned_area() > SLIVER_M2 {
+                faces.push(quad.orient(Direction::Default));
+            }
+        }
+    }
+    unary_union(&faces)
+}
+
+/// The shadows of a set of volumes at one sun position.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Shadows {
+    /// The sun is not above the horizon: there is no direct sun, so no shadow is cast.
+    NoSun,
+    /// The sun is up.
+    Sun {
+        /// Each volume's shadow, by id, in the order given, clipped to the extent.
+        per_volume: Vec<(String, MultiPolygon<f64>)>,
+        /// The union of all shadows, clipped to the extent.
+        union: MultiPolygon<f64>,
+        /// Whether any shadow reached beyond the analysis extent and was cut at it.
+        clipped: bool,
+    },
+}
+
+/// Casts the shadows of `volumes` onto the plane at `plane_m`, for the sun at `azimuth_deg` (plan frame)
+/// and `altitude_deg`, clipped to `extent` (low sun casts very long shadows).
+///
+/// # Errors
+/// [`ShadowError`] for a degenerate extent or non-finite angles.
+pub fn cast_shadows(
+    volumes: &[Volume],
+    azimuth_deg: f64,
+    altitude_deg: f64,
+    plane_m: f64,
+    extent: Rect<f64>,
+) -> Result<Shadows, ShadowError> {
+    for (field, value) in [("azimuth_deg", azimuth_deg), ("altitude_deg", altitude_deg), ("plane_m", plane_m)] {
+        if !value.is_finite() {
+            return Err(ShadowError::NotFinite { field, value });
+        }
+    }
+    let (lo, hi) = (extent.min(), extent.max());
+    if !(lo.x.is_finite() && lo.y.is_finite() && hi.x.is_finite() && hi.y.is_finite())
+        || extent.width() <= 0.0
+        || extent.height() <= 0.0
+    {
+        return Err(ShadowError::BadExtent { min_x: lo.x, max_x: hi.x, min_y: lo.y, max_y: hi.y });
+    }
+    let Some(offset) = shadow_offset_per_m(azimuth_deg, altitude_deg) else { return Ok(Shadows::NoSun) };
+    let frame = extent.to_polygon();
+    let mut clipped = false;
+    let mut per_volume = Vec::with_capacity(volumes.len());
+    for v in volumes {
+        let s = volume_shadow(v, offset, plane_m);
+        let inside = s
+            .bounding_rect()
+            .is_none_or(|r| r.min().x >= lo.x && r.min().y >= lo.y && r.max().x <= hi.x && r.max().y <= hi.y);
+        let s = if inside {
+            s
+        } else {
+            clipped = true;
+            s.intersection(&frame)
+        };
+        per_volume.push((v.id.clone(), s));
+    }
+    let union = unary_union(per_volume.iter().map(|(_, s)| s));
+    Ok(Shadows::Sun { per_volume, union, clipped })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::site::Status;
+    use approx::assert_abs_diff_eq;
+    use geo::{Contains, Point};
+
+    fn block(id: &str, x0: f64, y0: f64, w: f64, d: f64, base: f64, top: f64) -> Volume {
+        Volume::from_vertices(
+            id,
+            Status::Existing,
+            &[(x0, y0), (x0 + w, y0), (x0 + w, y0 + d), (x0, y0 + d)],
+            base,
+            top,
+        )
+        .unwrap()
+    }
+
+    fn extent() -> Rect<f64> {
+        Rect::new(Coord { x: -1_000.0, y: -1_000.0 }, Coord { x: 1_000.0, y: 1_000.0 })
+    }
+
+    #[test]
+    fn thin_pole_shadow_length_and_direction() {
+        // Pole: h / tan(altitude), pointing to azimuth + 180° (common practice).
+        let pole = block("pole", -0.005, -0.005, 0.01, 0.01, 0.0, 10.0);
+        for (az, alt) in [(180.0, 30.0), (90.0, 60.0), (225.0, 15.0)] {
+            let s = volume_shadow(&pole, shadow_offset_per_m(az, alt).unwrap(), 0.0);
+            let r = s.bounding_rect().unwrap();
+            let len = 10.0 / f64::to_radians(alt).tan();
+            let dir = f64::to_radians(az + 180.0);
+            let tip = Coord { x: len * dir.sin(), y: len * dir.cos() };
+            assert!(
+                r.min().x - 0.02 <= tip.x
+                    && tip.x <= r.max().x + 0.02
+                    && r.min().y - 0.02 <= tip.y
+                    && tip.y <= r.max().y + 0.02,
+                "{az} {alt}"
+            );
+            let extent_len = ((r.width() - 0.01).powi(2) + (r.height() - 0.01).powi(2)).sqrt();
+            assert_abs_diff_eq!(extent_len, len, epsilon = 0.02);
+        }
+    }
+
+    #[test]
+    fn box_shadow_area_with_sun_due_south() {
+        // A w × d × h box, sun due south at altitude a: the shadow is the footprint stretched north by
+        // h / tan(a): area w·(d + h / tan a) (analytic).
+        let b = block("box", 0.0, 0.0, 10.0, 6.0, 0.0, 9.0);
+        let alt = 35.0_f64;
+        let s = volume_shadow(&b, shadow_offset_per_m(180.0, alt).unwrap(), 0.0);
+        assert_abs_diff_eq!(s.unsigned_area(), 10.0 * (6.0 + 9.0 / alt.to_radians().tan()), epsilon = 1e-6);
+        // With the sun in the south-west (azimuth φ = 225°) the shadow is the footprint swept by the
+        // vector h·cot(a)·(−sin φ, −cos φ): area w·d + h·cot(a)·(w·|cos φ| + d·|sin φ|) (analytic).
+        let az = 225.0_f64;
+        let s = volume_shadow(&b, shadow_offset_per_m(az, alt).unwrap(), 0.0);
+        let l = 9.0 / alt.to_radians().tan();
+        let want = 60.0 + l * (10.0 * az.to_radians().cos().abs() + 6.0 * az.to_radians().sin().abs());
+        assert_abs_diff_eq!(s.unsigned_area(), want, epsilon = 1e-6);
+    }
+
+    #[test]
+    fn l_shaped_footprint_shadow() {
+        // L of two arms 4 m wide (outer sides 10 m), 6 m tall, sun due south at 45°: the shadow is the L
+        // swept 6 m north (analytic).
+        let l = Volume::from_vertices(
+            "L",
+            Status::Existing,
+            &[(0.0, 0.0), (10.0, 0.0), (10.0, 4.0), (4.0, 4.0), (4.0, 10.0), (0.0, 10.0)],
+            0.0,
+            6.0,
+        )
+        .unwrap();
+        let s = volume_shadow(&l, shadow_offset_per_m(180.0, 45.0).unwrap(), 0.0);
+        // Sweeping the L by 6 m north covers x∈[0,4] for y∈[0,16] (64) and x∈[4,10] for y∈[0,10] (60).
+        assert_abs_diff_eq!(s.unsigned_area(), 64.0 + 60.0, epsilon = 1e-6);
+    }
+
+    #[test]
+    fn courtyard_fills_with_shadow_as_the_sun_lowers() {
+        // 30 × 30 block with a 10 × 10 courtyard, 9 m tall, sun due south.
+        let outer = LineString::from(vec![(0.0, 0.0), (30.0, 0.0), (30.0, 30.0), (0.0, 30.0), (0.0, 0.0)]);
+        let hole = LineString::from(vec![(10.0, 10.0), (20.0, 10.0), (20.0, 20.0), (10.0, 20.0), (10.0, 10.0)]);
+        let v = Volume::new("court", Status::Existing, Polygon::new(outer, vec![hole]), 0.0, 9.0).unwrap();
+        let lit = |alt: f64| {
+            let s = volume_shadow(&v, shadow_offset_per_m(180.0, alt).unwrap(), 0.0);
+            let court = Polygon::new(
+                LineString::from(vec![(10.0, 10.0), (20.0, 10.0), (20.0, 20.0), (10.0, 20.0), (10.0, 10.0)]),
+                vec![],
+            );
+            100.0 - court.intersection(&s).unsigned_area()
+        };
+        // The courtyard's south wall shades a strip 9/tan(alt) deep (analytic): 10 × (10 − 9 cot alt).
+        assert_abs_diff_eq!(lit(60.0), 10.0 * (10.0 - 9.0 / 60f64.to_radians().tan()), epsilon = 1e-6);
+        assert!(lit(60.0) > lit(50.0) && lit(50.0) > lit(45.0));
+        assert_abs_diff_eq!(lit(40.0), 0.0, epsilon = 1e-6); // 9·cot 40° = 10.7 m > 10 m
+    }
+
+    #[test]
+    fn raised_slab_casts_a_detached_shadow() {
+        // A bridge 10 × 4, underside 6 m, top 7 m; sun due south at 45°: shadow from y = 6 to y = 11,
+        // so the ground under the bridge (y 0…4) stays lit.
+        let v = block("bridge", 0.0, 0.0, 10.0, 4.0, 6.0, 7.0);
+        let s = volume_shadow(&v, shadow_offset_per_m(180.0, 45.0).unwrap(), 0.0);
+        assert!(!s.contains(&Point::new(5.0, 2.0)));
+        assert!(s.contains(&Point::new(5.0, 8.0)));
+        assert_abs_diff_eq!(s.unsigned_area(), 10.0 * (4.0 + 1.0), epsilon = 1e-6);
+    }
+
+    #[test]
+    fn plane_above_ground_sees_only_the_part_above_it() {
+        let v = block("b", 0.0, 0.0, 10.0, 10.0, 0.0, 6.0);
+        let o = shadow_offset_per_m(180.0, 45.0).unwrap();
+        assert_abs_diff_eq!(volume_shadow(&v, o, 4.0).unsigned_area(), 10.0 * 12.0, epsilon = 1e-6);
+        assert!(volume_shadow(&v, o, 6.0).0.is_empty());
+    }
+
+    #[test]
+    fn sun_down_and_low_sun() {
+        let v = vec![block("b", 0.0, 0.0, 10.0, 10.0, 0.0, 20.0)];
+        assert_eq!(cast_shadows(&v, 180.0, -2.0, 0.0, extent()).unwrap(), Shadows::NoSun);
+        let Shadows::Sun { clipped, union, .. } = cast_shadows(&v, 180.0, 0.5, 0.0, extent()).unwrap() else {
+            panic!()
+        };
+        assert!(clipped, "a 20 m block at 0.5° casts 2.3 km");
+        assert!(union.bounding_rect().unwrap().max().y <= 1_000.0 + 1e-9);
+        let Shadows::Sun { clipped, .. } = cast_shadows(&v, 180.0, 40.0, 0.0, extent()).unwrap() else { panic!() };
+        assert!(!clipped);
+        let bad = Rect::new(Coord { x: 0.0, y: 0.0 }, Coord { x: 0.0, y: 10.0 });
+        assert!(matches!(cast_shadows(&v, 180.0, 40.0, 0.0, bad), Err(ShadowError::BadExtent { .. })));
+    }
+}

@@ -1,0 +1,10 @@
+//! Shadows of massing on the ground: exact polygons, their union, and shadow lengths.
+//!
+//! The shadow of a solid on a plane is the union of the shadows of its faces (a ray from a ground point
+//! toward the sun that meets the solid meets its boundary). For an extruded footprint the faces are the
+//! top, the underside and one wall quadrilateral per edge of every ring, holes included, so a courtyard
+//! fills with the shadow of its own walls as the sun lowers. Unions are `geo`'s boolean operations.
+
+mod cast;
+
+pub use cast::{cast_shadows, shadow_length_per_m, shadow_offset_per_m, volume_shadow, ShadowError, Shadows};

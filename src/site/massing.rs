@@ -1,0 +1,147 @@
+//! Building massing: extruded footprints between a base and a top height, and walls.
+
+use geo::{Coord, LineString, Polygon, Validation};
+use serde::{Deserialize, Serialize};
+
+/// Whether a volume or area is there now or is proposed.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Status {
+    /// Standing today (the baseline).
+    Existing,
+    /// Part of the proposal.
+    Proposed,
+}
+
+/// A problem with one feature of a site, naming it by id.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SiteError {
+    /// A ring with fewer than three distinct vertices.
+    #[error("feature {feature:?}: {ring} has {count} distinct vertices; a polygon needs at least 3")]
+    TooFewVertices { feature: String, ring: String, count: usize },
+    /// A coordinate that is NaN or infinite.
+    #[error("feature {feature:?}: coordinate {index} of {ring} is not a finite number")]
+    NotFinite { feature: String, ring: String, index: usize },
+    /// A height below ground or not a number.
+    #[error("feature {feature:?}: {field} must be a finite height of 0 m or more, got {value}")]
+    BadHeight { feature: String, field: &'static str, value: f64 },
+    /// A top at or below the base.
+    #[error("feature {feature:?}: top_m ({top_m}) must be above base_m ({base_m})")]
+    TopNotAboveBase { feature: String, base_m: f64, top_m: f64 },
+    /// A self-intersecting or otherwise invalid footprint.
+    #[error("feature {feature:?}: footprint is not a valid polygon: {reason}")]
+    InvalidFootprint { feature: String, reason: String },
+}
+
+/// An extruded footprint between `base_m` and `top_m` above ground: a block, one tier of a setback
+/// building, or (with a base above zero) a bridge or an overhang.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Volume {
+    /// The feature's id, used in messages and results.
+    pub id: String,
+    /// Existing or proposed.
+    pub status: Status,
+    /// Footprint in the plan frame, metres; may be non-convex and have holes (courtyards).
+    pub footprint: Polygon<f64>,
+    /// Height of the underside above ground, metres.
+    pub base_m: f64,
+    /// Height of the top above ground, metres.
+    pub top_m: f64,
+}
+
+impl Volume {
+    /// A validated volume.
+    ///
+    /// # Errors
+    /// [`SiteError`] naming `id` for fewer than three distinct vertices in a ring, non-finite
+    /// coordinates, a negative base, a top not above the base, or a self-intersecting footprint.
+    pub fn new(id: &str, status: Status, footprint: Polygon<f64>, base_m: f64, top_m: f64) -> Result<Self, SiteError> {
+        let feature = || id.to_string();
+        check_ring(id, "the outer ring", footprint.exterior())?;
+        for (k, hole) in footprint.interiors().iter().enumerate() {
+            check_ring(id, &format!("hole {}", k + 1), hole)?;
+        }
+        for (field, value) in [("base_m", base_m), ("top_m", top_m)] {
+            if !value.is_finite() || value < 0.0 {
+                return Err(SiteError::BadHeight { feature: feature(), field, value });
+            }
+        }
+        if top_m <= base_m {
+            return Err(SiteError::TopNotAboveBase { feature: feature(), base_m, top_m });
+        }
+        if let Some(problem) = footprint.validation_errors().into_iter().next() {
+            return Err(SiteError::InvalidFootprint { feature: feature(), reason: problem.to_string() });
+        }
+        Ok(Volume { id: id.to_string(), status, footprint, base_m, top_m })
+    }
+
+    /// A volume from a list of `(x, y)` vertices (no holes), validated as [`Volume::new`].
+    pub fn from_vertices(
+        id: &str,
+        status: Status,
+        xy: &[(f64, f64)],
+        base_m: f64,
+        top_m: f64,
+    ) -> Result<Self, SiteError> {
+        let ring: LineString<f64> = xy.iter().map(|&(x, y)| Coord { x, y }).collect();
+        Volume::new(id, status, Polygon::new(ring, vec![]), base_m, top_m)
+    }
+}
+
+/// A wall or fence: a polyline with a height above ground.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Wall {
+    /// The feature's id.
+    pub id: String,
+    /// Existing or proposed.
+    pub status: Status,
+    /// The wall's line in the plan frame, metres.
+    pub line: LineString<f64>,
+    /// Height above ground, metres.
+    pub height_m: f64,
+}
+
+fn check_ring(id: &str, ring: &str, ls: &LineString<f64>) -> Result<(), SiteError> {
+    for (index, c) in ls.coords().enumerate() {
+        if !c.x.is_finite() || !c.y.is_finite() {
+            return Err(SiteError::NotFinite { feature: id.to_string(), ring: ring.to_string(), index });
+        }
+    }
+    let mut distinct: Vec<Coord<f64>> = Vec::new();
+    for c in ls.coords() {
+        if !distinct.iter().any(|d| (d.x - c.x).abs() < 1e-9 && (d.y - c.y).abs() < 1e-9) {
+            distinct.push(*c);
+        }
+    }
+    if distinct.len() < 3 {
+        return Err(SiteError::TooFewVertices {
+            feature: id.to_string(),
+            ring: ring.to_string(),
+            count: distinct.len(),
+        });
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn bad_volumes_are_named() {
+        let sq = [(0.0, 0.0), (10.0, 0.0), (10.0, 10.0), (0.0, 10.0)];
+        let e = Volume::from_vertices("tower-a", Status::Proposed, &sq, 5.0, 3.0).unwrap_err();
+        assert_eq!(e.to_string(), "feature \"tower-a\": top_m (3) must be above base_m (5)");
+        let e = Volume::from_vertices("b", Status::Existing, &sq, -1.0, 3.0).unwrap_err();
+        assert!(matches!(e, SiteError::BadHeight { field: "base_m", .. }));
+        let e = Volume::from_vertices("line", Status::Existing, &[(0.0, 0.0), (1.0, 1.0), (0.0, 0.0)], 0.0, 3.0)
+            .unwrap_err();
+        assert!(matches!(e, SiteError::TooFewVertices { count: 2, .. }), "{e}");
+        let bow = [(0.0, 0.0), (10.0, 10.0), (10.0, 0.0), (0.0, 10.0)];
+        let e = Volume::from_vertices("bow-tie", Status::Existing, &bow, 0.0, 3.0).unwrap_err();
+        assert!(matches!(e, SiteError::InvalidFootprint { .. }), "{e}");
+        let e = Volume::from_vertices("nan", Status::Existing, &[(0.0, 0.0), (f64::NAN, 1.0), (1.0, 0.0)], 0.0, 3.0)
+            .unwrap_err();
+        assert!(matches!(e, SiteError::NotFinite { index: 1, .. }), "{e}");
+    }
+}
