@@ -108,13 +108,13 @@ mod shadows {
                                      az in 0.0..360.0_f64, alt in 10.0..80.0_f64) {
             let vols: Vec<Volume> = xs.iter().map(|&(x, y, w, b, h)| block(x, y, w, w * 0.7, b, h)).collect();
             let extent = Rect::new(Coord { x: -2_000.0, y: -2_000.0 }, Coord { x: 2_000.0, y: 2_000.0 });
-            let Shadows::Sun { per_volume, union, clipped } = cast_shadows(&vols, az, alt, 0.0, extent).unwrap() else {
+            let Shadows::Sun { per_feature, union, clipped } = cast_shadows(&vols, &[], az, alt, 0.0, extent).unwrap() else {
                 return Err(TestCaseError::fail("sun is up"));
             };
             prop_assert!(!clipped);
-            let sum: f64 = per_volume.iter().map(|(_, s)| s.unsigned_area()).sum();
+            let sum: f64 = per_feature.iter().map(|(_, s)| s.unsigned_area()).sum();
             prop_assert!(union.unsigned_area() <= sum * (1.0 + 1e-7) + 1e-6, "union {} > sum {sum}", union.unsigned_area());
-            for (_, s) in &per_volume {
+            for (_, s) in &per_feature {
                 prop_assert!(s.difference(&union).unsigned_area() < 1e-7 * s.unsigned_area().max(1.0));
             }
         }

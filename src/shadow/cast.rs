@@ -3,7 +3,7 @@
 use geo::orient::{Direction, Orient};
 use geo::{unary_union, Area, BooleanOps, BoundingRect, Coord, LineString, MultiPolygon, Polygon, Rect, Translate};
 
-use crate::site::Volume;
+use crate::site::{Volume, Wall};
 
 /// Below this area a face's shadow is a sliver of an edge seen end-on and is left out, m².
 const SLIVER_M2: f64 = 1e-9;
@@ -76,15 +76,33 @@ pub fn volume_shadow(volume: &Volume, offset: Coord<f64>, plane_m: f64) -> Multi
     unary_union(&faces)
 }
 
-/// The shadows of a set of volumes at one sun position.
+/// The shadow of a wall or fence (a vertical strip along its line up to `height_m`) on the plane at
+/// `plane_m` above ground.
+pub fn wall_shadow(wall: &Wall, offset: Coord<f64>, plane_m: f64) -> MultiPolygon<f64> {
+    let h = wall.height_m - plane_m;
+    if h <= 0.0 {
+        return MultiPolygon::new(vec![]);
+    }
+    let t = Coord { x: offset.x * h, y: offset.y * h };
+    let quads: Vec<Polygon<f64>> = wall
+        .line
+        .lines()
+        .map(|e| Polygon::new(LineString::from(vec![e.start, e.end, e.end + t, e.start + t, e.start]), vec![]))
+        .filter(|q| q.unsigned_area() > SLIVER_M2)
+        .map(|q| q.orient(Direction::Default))
+        .collect();
+    unary_union(&quads)
+}
+
+/// The shadows of a set of volumes and walls at one sun position.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Shadows {
     /// The sun is not above the horizon: there is no direct sun, so no shadow is cast.
     NoSun,
     /// The sun is up.
     Sun {
-        /// Each volume's shadow, by id, in the order given, clipped to the extent.
-        per_volume: Vec<(String, MultiPolygon<f64>)>,
+        /// Each feature's shadow by id, volumes then walls in the order given, clipped to the extent.
+        per_feature: Vec<(String, MultiPolygon<f64>)>,
         /// The union of all shadows, clipped to the extent.
         union: MultiPolygon<f64>,
         /// Whether any shadow reached beyond the analysis extent and was cut at it.
@@ -92,13 +110,14 @@ pub enum Shadows {
     },
 }
 
-/// Casts the shadows of `volumes` onto the plane at `plane_m`, for the sun at `azimuth_deg` (plan frame)
-/// and `altitude_deg`, clipped to `extent` (low sun casts very long shadows).
+/// Casts the shadows of `volumes` and `walls` onto the plane at `plane_m`, for the sun at `azimuth_deg`
+/// (plan frame) and `altitude_deg`, clipped to `extent` (low sun casts very long shadows).
 ///
 /// # Errors
 /// [`ShadowError`] for a degenerate extent or non-finite angles.
 pub fn cast_shadows(
     volumes: &[Volume],
+    walls: &[Wall],
     azimuth_deg: f64,
     altitude_deg: f64,
     plane_m: f64,
@@ -119,9 +138,12 @@ pub fn cast_shadows(
     let Some(offset) = shadow_offset_per_m(azimuth_deg, altitude_deg) else { return Ok(Shadows::NoSun) };
     let frame = extent.to_polygon();
     let mut clipped = false;
-    let mut per_volume = Vec::with_capacity(volumes.len());
-    for v in volumes {
-        let s = volume_shadow(v, offset, plane_m);
+    let shadows = volumes
+        .iter()
+        .map(|v| (v.id.clone(), volume_shadow(v, offset, plane_m)))
+        .chain(walls.iter().map(|w| (w.id.clone(), wall_shadow(w, offset, plane_m))));
+    let mut per_feature = Vec::with_capacity(volumes.len() + walls.len());
+    for (id, s) in shadows {
         let inside = s
             .bounding_rect()
             .is_none_or(|r| r.min().x >= lo.x && r.min().y >= lo.y && r.max().x <= hi.x && r.max().y <= hi.y);
@@ -131,10 +153,10 @@ pub fn cast_shadows(
             clipped = true;
             s.intersection(&frame)
         };
-        per_volume.push((v.id.clone(), s));
+        per_feature.push((id, s));
     }
-    let union = unary_union(per_volume.iter().map(|(_, s)| s));
-    Ok(Shadows::Sun { per_volume, union, clipped })
+    let union = unary_union(per_feature.iter().map(|(_, s)| s));
+    Ok(Shadows::Sun { per_feature, union, clipped })
 }
 
 #[cfg(test)]
@@ -257,15 +279,30 @@ mod tests {
     #[test]
     fn sun_down_and_low_sun() {
         let v = vec![block("b", 0.0, 0.0, 10.0, 10.0, 0.0, 20.0)];
-        assert_eq!(cast_shadows(&v, 180.0, -2.0, 0.0, extent()).unwrap(), Shadows::NoSun);
-        let Shadows::Sun { clipped, union, .. } = cast_shadows(&v, 180.0, 0.5, 0.0, extent()).unwrap() else {
+        assert_eq!(cast_shadows(&v, &[], 180.0, -2.0, 0.0, extent()).unwrap(), Shadows::NoSun);
+        let Shadows::Sun { clipped, union, .. } = cast_shadows(&v, &[], 180.0, 0.5, 0.0, extent()).unwrap() else {
             panic!()
         };
         assert!(clipped, "a 20 m block at 0.5° casts 2.3 km");
         assert!(union.bounding_rect().unwrap().max().y <= 1_000.0 + 1e-9);
-        let Shadows::Sun { clipped, .. } = cast_shadows(&v, 180.0, 40.0, 0.0, extent()).unwrap() else { panic!() };
+        let Shadows::Sun { clipped, .. } = cast_shadows(&v, &[], 180.0, 40.0, 0.0, extent()).unwrap() else { panic!() };
         assert!(!clipped);
         let bad = Rect::new(Coord { x: 0.0, y: 0.0 }, Coord { x: 0.0, y: 10.0 });
-        assert!(matches!(cast_shadows(&v, 180.0, 40.0, 0.0, bad), Err(ShadowError::BadExtent { .. })));
+        assert!(matches!(cast_shadows(&v, &[], 180.0, 40.0, 0.0, bad), Err(ShadowError::BadExtent { .. })));
+    }
+
+    #[test]
+    fn wall_shadow_is_a_strip() {
+        // A 10 m fence 2 m high along x, sun due south at 45°: a 10 × 2 strip to the north (analytic).
+        let w = Wall {
+            id: "fence".into(),
+            status: Status::Existing,
+            line: LineString::from(vec![(0.0, 0.0), (10.0, 0.0)]),
+            height_m: 2.0,
+        };
+        let s = wall_shadow(&w, shadow_offset_per_m(180.0, 45.0).unwrap(), 0.0);
+        assert_abs_diff_eq!(s.unsigned_area(), 20.0, epsilon = 1e-9);
+        // With the sun due west, along the fence, it casts nothing.
+        assert!(wall_shadow(&w, shadow_offset_per_m(270.0, 45.0).unwrap(), 0.0).0.is_empty());
     }
 }

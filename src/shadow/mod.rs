@@ -6,5 +6,6 @@
 //! fills with the shadow of its own walls as the sun lowers. Unions are `geo`'s boolean operations.
 
 mod cast;
+mod ray;
 
 pub use cast::{cast_shadows, shadow_length_per_m, shadow_offset_per_m, volume_shadow, ShadowError, Shadows};
