@@ -1,4 +1,5 @@
-//! Shadows of massing on the ground: exact polygons, their union, and shadow lengths.
+//! Shadows of massing: exact ground polygons and their union, shadow lengths, and exact ray tests for
+//! points at height with the obstruction skyline they see.
 //!
 //! The shadow of a solid on a plane is the union of the shadows of its faces (a ray from a ground point
 //! toward the sun that meets the solid meets its boundary). For an extruded footprint the faces are the
@@ -8,4 +9,7 @@
 mod cast;
 mod ray;
 
-pub use cast::{cast_shadows, shadow_length_per_m, shadow_offset_per_m, volume_shadow, ShadowError, Shadows};
+pub use cast::{
+    cast_shadows, shadow_length_per_m, shadow_offset_per_m, volume_shadow, wall_shadow, ShadowError, Shadows,
+};
+pub use ray::{exposure, skyline, Exposure, ViewPoint};
