@@ -16,13 +16,13 @@ pub enum Status {
 /// A problem with one feature of a site, naming it by id.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 pub enum SiteError {
-    /// A ring with fewer than three distinct vertices.
-    #[error("feature {feature:?}: {ring} has {count} distinct vertices; a polygon needs at least 3")]
+    /// A ring with fewer than three distinct vertices (a line with fewer than two).
+    #[error("feature {feature:?}: {ring} has {count} distinct vertices, too few")]
     TooFewVertices { feature: String, ring: String, count: usize },
     /// A coordinate that is NaN or infinite.
     #[error("feature {feature:?}: coordinate {index} of {ring} is not a finite number")]
     NotFinite { feature: String, ring: String, index: usize },
-    /// A height below ground or not a number.
+    /// A height below ground (or a wall of no height) or not a number.
     #[error("feature {feature:?}: {field} must be a finite height of 0 m or more, got {value}")]
     BadHeight { feature: String, field: &'static str, value: f64 },
     /// A top at or below the base.
@@ -101,7 +101,33 @@ pub struct Wall {
     pub height_m: f64,
 }
 
-fn check_ring(id: &str, ring: &str, ls: &LineString<f64>) -> Result<(), SiteError> {
+impl Wall {
+    /// A validated wall: at least two distinct finite points and a height above 0 m.
+    ///
+    /// # Errors
+    /// [`SiteError`] naming `id`.
+    pub fn new(id: &str, status: Status, line: LineString<f64>, height_m: f64) -> Result<Self, SiteError> {
+        for (index, c) in line.coords().enumerate() {
+            if !c.x.is_finite() || !c.y.is_finite() {
+                return Err(SiteError::NotFinite { feature: id.to_string(), ring: "the line".into(), index });
+            }
+        }
+        let first = line.0.first().copied();
+        if line.0.len() < 2 || line.coords().all(|c| Some(*c) == first) {
+            return Err(SiteError::TooFewVertices {
+                feature: id.to_string(),
+                ring: "the line".into(),
+                count: usize::from(first.is_some()),
+            });
+        }
+        if !height_m.is_finite() || height_m <= 0.0 {
+            return Err(SiteError::BadHeight { feature: id.to_string(), field: "height_m", value: height_m });
+        }
+        Ok(Wall { id: id.to_string(), status, line, height_m })
+    }
+}
+
+pub(crate) fn check_ring(id: &str, ring: &str, ls: &LineString<f64>) -> Result<(), SiteError> {
     for (index, c) in ls.coords().enumerate() {
         if !c.x.is_finite() || !c.y.is_finite() {
             return Err(SiteError::NotFinite { feature: id.to_string(), ring: ring.to_string(), index });

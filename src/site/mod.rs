@@ -1,6 +1,8 @@
 //! The site model: massing volumes and walls in a local plan frame (x east, y north, metres, heights
-//! above local ground). File formats and the lots and areas come with the site files.
+//! above local ground), the lots and areas, and sunlot's site file.
 
+mod file;
 mod massing;
 
+pub use file::{Area, AreaKind, SiteFileError, SiteModel, SITE_FILE_VERSION};
 pub use massing::{SiteError, Status, Volume, Wall};

@@ -1,0 +1,367 @@
+//! The site file: sunlot's own versioned JSON in local plan metres (schema: `schemas/site-v1.schema.json`).
+//!
+//! ```json
+//! { "sunlot_site": 1, "name": "…",
+//!   "location": { "latitude_deg": 52.62, "longitude_deg": -1.87, "elevation_m": 118, "zone": "Europe/London" },
+//!   "plan_rotation_deg": 0,
+//!   "areas":   [ { "id": "garden-12", "kind": "garden", "status": "existing", "outline": [[x, y], …], "holes": [] } ],
+//!   "volumes": [ { "id": "block-a", "status": "proposed", "base_m": 0, "top_m": 12.5, "outline": [[x, y], …] } ],
+//!   "walls":   [ { "id": "fence-1", "status": "existing", "height_m": 1.8, "line": [[x, y], …] } ] }
+//! ```
+//! Plan x runs to the plan's right and y to its top, in metres; `plan_rotation_deg` is the angle,
+//! clockwise, from the plan's top to true north (0 when the plan is drawn to true north).
+
+use geo::{Coord, LineString, Polygon};
+use serde::{Deserialize, Serialize};
+
+use super::massing::{check_ring, SiteError, Status, Volume, Wall};
+use crate::solar::{InputError, Site};
+use crate::time::{TimeError, Zone};
+
+/// The file format version this build reads and writes.
+pub const SITE_FILE_VERSION: u32 = 1;
+
+/// Why a site file could not be read; names the feature or field.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SiteFileError {
+    /// Not JSON, or a field of the wrong type or missing.
+    #[error("site file: {0}")]
+    Json(String),
+    /// A version this build does not know.
+    #[error("site file: unknown format version {found:?}; this sunlot reads sunlot_site {SITE_FILE_VERSION}")]
+    UnknownVersion { found: String },
+    /// A bad latitude, longitude or elevation.
+    #[error("site file: location: {0}")]
+    Location(InputError),
+    /// A zone that is neither IANA nor an offset.
+    #[error("site file: location: {0}")]
+    Zone(TimeError),
+    /// A plan rotation that is not a finite number.
+    #[error("site file: plan_rotation_deg must be a finite number, got {0}")]
+    Rotation(f64),
+    /// Two features share an id.
+    #[error("site file: id {0:?} is used by more than one feature; ids must be unique")]
+    DuplicateId(String),
+    /// A bad feature.
+    #[error("site file: {0}")]
+    Feature(SiteError),
+}
+
+/// What an area is for; planning rules pick areas by kind.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum AreaKind {
+    /// A plot of land (the subject lot or a neighbour's).
+    Lot,
+    /// A garden.
+    Garden,
+    /// A terrace, balcony or roof terrace.
+    Terrace,
+    /// Any other amenity area (a playground, a square).
+    Amenity,
+    /// Anything else worth measuring.
+    Other,
+}
+
+/// A named ground area.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Area {
+    /// Unique id.
+    pub id: String,
+    /// Display name.
+    pub name: String,
+    /// What the area is.
+    pub kind: AreaKind,
+    /// Existing or proposed.
+    pub status: Status,
+    /// The outline in plan metres, holes allowed.
+    pub polygon: Polygon<f64>,
+}
+
+/// A site: where it is, how its plan is turned, and what stands on it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SiteModel {
+    /// Display name.
+    pub name: String,
+    /// Location on the Earth.
+    pub location: Site,
+    /// Zone for local times.
+    pub zone: Zone,
+    /// Angle, clockwise, from the plan's top to true north, degrees.
+    pub plan_rotation_deg: f64,
+    /// Lots, gardens, terraces and other areas.
+    pub areas: Vec<Area>,
+    /// Massing volumes, existing and proposed.
+    pub volumes: Vec<Volume>,
+    /// Walls and fences.
+    pub walls: Vec<Wall>,
+}
+
+impl SiteModel {
+    /// The sun's azimuth in the plan frame for a true azimuth, degrees 0–360.
+    pub fn plan_azimuth_deg(&self, true_azimuth_deg: f64) -> f64 {
+        (true_azimuth_deg + self.plan_rotation_deg).rem_euclid(360.0)
+    }
+
+    /// Reads a site file.
+    ///
+    /// # Errors
+    /// [`SiteFileError`] naming the field or the feature (by id) and the problem.
+    pub fn from_json(text: &str) -> Result<Self, SiteFileError> {
+        let raw: serde_json::Value = serde_json::from_str(text).map_err(|e| SiteFileError::Json(e.to_string()))?;
+        match raw.get("sunlot_site") {
+            Some(v) if v.as_u64() == Some(u64::from(SITE_FILE_VERSION)) => {}
+            Some(v) => return Err(SiteFileError::UnknownVersion { found: v.to_string() }),
+            None => return Err(SiteFileError::Json("missing field `sunlot_site` (the format version, 1)".into())),
+        }
+        let file: SiteFile = serde_json::from_value(raw).map_err(|e| SiteFileError::Json(e.to_string()))?;
+        file.into_model()
+    }
+
+    /// Writes the site file (pretty JSON); reading it back gives the same model.
+    pub fn to_json(&self) -> String {
+        let file = SiteFile::from_model(self);
+        serde_json::to_string_pretty(&file).unwrap_or_default()
+    }
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct SiteFile {
+    sunlot_site: u32,
+    #[serde(default)]
+    name: String,
+    location: LocationFile,
+    #[serde(default)]
+    plan_rotation_deg: f64,
+    #[serde(default)]
+    areas: Vec<AreaFile>,
+    #[serde(default)]
+    volumes: Vec<VolumeFile>,
+    #[serde(default)]
+    walls: Vec<WallFile>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct LocationFile {
+    latitude_deg: f64,
+    longitude_deg: f64,
+    #[serde(default)]
+    elevation_m: f64,
+    zone: String,
+}
+
+type Ring = Vec<[f64; 2]>;
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct AreaFile {
+    id: String,
+    #[serde(default)]
+    name: String,
+    kind: AreaKind,
+    status: Status,
+    outline: Ring,
+    #[serde(default)]
+    holes: Vec<Ring>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct VolumeFile {
+    id: String,
+    status: Status,
+    base_m: f64,
+    top_m: f64,
+    outline: Ring,
+    #[serde(default)]
+    holes: Vec<Ring>,
+}
+
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct WallFile {
+    id: String,
+    status: Status,
+    height_m: f64,
+    line: Ring,
+}
+
+fn line(r: &Ring) -> LineString<f64> {
+    r.iter().map(|&[x, y]| Coord { x, y }).collect()
+}
+
+fn polygon(outline: &Ring, holes: &[Ring]) -> Polygon<f64> {
+    Polygon::new(line(outline), holes.iter().map(line).collect())
+}
+
+/// A ring as written: the closing vertex is left out.
+fn ring_out(ls: &LineString<f64>) -> Ring {
+    let mut v: Ring = ls.coords().map(|c| [c.x, c.y]).collect();
+    if v.len() > 1 && v.first() == v.last() {
+        v.pop();
+    }
+    v
+}
+
+impl SiteFile {
+    fn into_model(self) -> Result<SiteModel, SiteFileError> {
+        let l = &self.location;
+        let location = Site::new(l.latitude_deg, l.longitude_deg, l.elevation_m).map_err(SiteFileError::Location)?;
+        let zone: Zone = l.zone.parse().map_err(SiteFileError::Zone)?;
+        if !self.plan_rotation_deg.is_finite() {
+            return Err(SiteFileError::Rotation(self.plan_rotation_deg));
+        }
+        let mut ids = std::collections::HashSet::new();
+        let all_ids = self
+            .areas
+            .iter()
+            .map(|a| &a.id)
+            .chain(self.volumes.iter().map(|v| &v.id))
+            .chain(self.walls.iter().map(|w| &w.id));
+        for id in all_ids {
+            if !ids.insert(id.clone()) {
+                return Err(SiteFileError::DuplicateId(id.clone()));
+            }
+        }
+        let areas = self
+            .areas
+            .iter()
+            .map(|a| {
+                let polygon = polygon(&a.outline, &a.holes);
+                check_ring(&a.id, "the outline", polygon.exterior()).map_err(SiteFileError::Feature)?;
+                for (k, h) in polygon.interiors().iter().enumerate() {
+                    check_ring(&a.id, &format!("hole {}", k + 1), h).map_err(SiteFileError::Feature)?;
+                }
+                if let Some(problem) = geo::Validation::validation_errors(&polygon).into_iter().next() {
+                    return Err(SiteFileError::Feature(SiteError::InvalidFootprint {
+                        feature: a.id.clone(),
+                        reason: problem.to_string(),
+                    }));
+                }
+                Ok(Area { id: a.id.clone(), name: a.name.clone(), kind: a.kind, status: a.status, polygon })
+            })
+            .collect::<Result<Vec<_>, _>>()?;
+        let volumes = self
+            .volumes
+            .iter()
+            .map(|v| {
+                Volume::new(&v.id, v.status, polygon(&v.outline, &v.holes), v.base_m, v.top_m)
+                    .map_err(SiteFileError::Feature)
+            })
+            .collect::<Result<Vec<_>, _>>()?;
+        let walls = self
+            .walls
+            .iter()
+            .map(|w| Wall::new(&w.id, w.status, line(&w.line), w.height_m).map_err(SiteFileError::Feature))
+            .collect::<Result<Vec<_>, _>>()?;
+        Ok(SiteModel {
+            name: self.name,
+            location,
+            zone,
+            plan_rotation_deg: self.plan_rotation_deg,
+            areas,
+            volumes,
+            walls,
+        })
+    }
+
+    fn from_model(m: &SiteModel) -> Self {
+        SiteFile {
+            sunlot_site: SITE_FILE_VERSION,
+            name: m.name.clone(),
+            location: LocationFile {
+                latitude_deg: m.location.latitude_deg,
+                longitude_deg: m.location.longitude_deg,
+                elevation_m: m.location.elevation_m,
+                zone: m.zone.to_string(),
+            },
+            plan_rotation_deg: m.plan_rotation_deg,
+            areas: m
+                .areas
+                .iter()
+                .map(|a| AreaFile {
+                    id: a.id.clone(),
+                    name: a.name.clone(),
+                    kind: a.kind,
+                    status: a.status,
+                    outline: ring_out(a.polygon.exterior()),
+                    holes: a.polygon.interiors().iter().map(ring_out).collect(),
+                })
+                .collect(),
+            volumes: m
+                .volumes
+                .iter()
+                .map(|v| VolumeFile {
+                    id: v.id.clone(),
+                    status: v.status,
+                    base_m: v.base_m,
+                    top_m: v.top_m,
+                    outline: ring_out(v.footprint.exterior()),
+                    holes: v.footprint.interiors().iter().map(ring_out).collect(),
+                })
+                .collect(),
+            walls: m
+                .walls
+                .iter()
+                .map(|w| WallFile {
+                    id: w.id.clone(),
+                    status: w.status,
+                    height_m: w.height_m,
+                    line: w.line.coords().map(|c| [c.x, c.y]).collect(),
+                })
+                .collect(),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    const SMALL: &str = r#"{
+      "sunlot_site": 1, "name": "test",
+      "location": { "latitude_deg": 52.0, "longitude_deg": -1.0, "elevation_m": 50, "zone": "Europe/London" },
+      "plan_rotation_deg": 12.5,
+      "areas": [ { "id": "garden", "kind": "garden", "status": "existing", "outline": [[0,0],[10,0],[10,10],[0,10]] } ],
+      "volumes": [ { "id": "house", "status": "existing", "base_m": 0, "top_m": 7.5,
+                     "outline": [[0,20],[10,20],[10,30],[0,30]], "holes": [] },
+                   { "id": "court", "status": "proposed", "base_m": 0, "top_m": 12,
+                     "outline": [[20,0],[50,0],[50,30],[20,30]], "holes": [[[30,10],[40,10],[40,20],[30,20]]] } ],
+      "walls": [ { "id": "fence", "status": "existing", "height_m": 1.8, "line": [[0,-1],[10,-1]] } ]
+    }"#;
+
+    #[test]
+    fn reads_and_round_trips_without_loss() {
+        let m = SiteModel::from_json(SMALL).unwrap();
+        assert_eq!((m.areas.len(), m.volumes.len(), m.walls.len()), (1, 2, 1));
+        assert_eq!(m.volumes[1].footprint.interiors().len(), 1);
+        let again = SiteModel::from_json(&m.to_json()).unwrap();
+        assert_eq!(again, m);
+        assert_eq!(m.plan_azimuth_deg(350.0), 2.5);
+    }
+
+    #[test]
+    fn errors_name_the_feature_and_field() {
+        let e = SiteModel::from_json(&SMALL.replace("\"top_m\": 7.5", "\"top_m\": -2")).unwrap_err();
+        assert_eq!(e.to_string(), "site file: feature \"house\": top_m must be a finite height of 0 m or more, got -2");
+        let e = SiteModel::from_json(&SMALL.replace("\"sunlot_site\": 1", "\"sunlot_site\": 7")).unwrap_err();
+        assert!(matches!(e, SiteFileError::UnknownVersion { .. }), "{e}");
+        let e = SiteModel::from_json(&SMALL.replace("\"id\": \"fence\"", "\"id\": \"house\"")).unwrap_err();
+        assert_eq!(e, SiteFileError::DuplicateId("house".into()));
+        let e = SiteModel::from_json(&SMALL.replace("Europe/London", "Moon/Tycho")).unwrap_err();
+        assert!(e.to_string().contains("Moon/Tycho"), "{e}");
+        let e =
+            SiteModel::from_json(&SMALL.replace("[[0,20],[10,20],[10,30],[0,30]]", "[[0,20],[10,30],[10,20],[0,30]]"))
+                .unwrap_err();
+        assert!(e.to_string().contains("\"house\": footprint is not a valid polygon"), "{e}");
+        let e = SiteModel::from_json(&SMALL.replace("\"height_m\": 1.8", "\"height_m\": 0")).unwrap_err();
+        assert!(e.to_string().contains("\"fence\""), "{e}");
+        let e = SiteModel::from_json(&SMALL.replace("\"kind\": \"garden\"", "\"kind\": \"moat\"")).unwrap_err();
+        assert!(e.to_string().contains("moat"), "{e}");
+        let e = SiteModel::from_json(&SMALL.replace("\"latitude_deg\": 52.0", "\"latitude_deg\": 95")).unwrap_err();
+        assert!(e.to_string().contains("latitude_deg must be between -90 and 90"), "{e}");
+        assert!(matches!(SiteModel::from_json("{"), Err(SiteFileError::Json(_))));
+    }
+}
