@@ -204,3 +204,46 @@ fn help_explains_units() {
         assert!(h.contains(needle), "help lacks {needle:?}:\n{h}");
     }
 }
+
+#[test]
+fn shadows_of_the_demo_site_as_table_and_geojson() {
+    let o = sunlot(&["shadows", "--demo", "--local", "2026-12-21T12:00", "--format", "json"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let rows: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let g9 = rows.as_array().unwrap().iter().find(|r| r["area"] == "garden-9").unwrap();
+    assert!(g9["proposed_m2"].as_f64().unwrap() > 200.0, "the proposal shades the garden to its north at winter noon");
+
+    let o = sunlot(&["shadows", "--demo", "--local", "2026-03-20T09:00", "--format", "geojson"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let fc: geojson::FeatureCollection = stdout(&o).parse::<geojson::GeoJson>().unwrap().try_into().unwrap();
+    let layers: Vec<String> =
+        fc.features.iter().map(|f| f.properties.as_ref().unwrap()["layer"].as_str().unwrap().to_string()).collect();
+    assert_eq!(layers.iter().filter(|l| *l == "feature_shadow").count(), 7); // 5 volumes + 2 fences
+    assert_eq!(layers.iter().filter(|l| *l == "shadow_union").count(), 3);
+    assert_eq!(layers.iter().filter(|l| *l == "area").count(), 4);
+
+    let night = sunlot(&["shadows", "--demo", "--local", "2026-12-21T22:00"], None);
+    assert!(night.status.success());
+    assert!(stdout(&night).contains("below the horizon"));
+}
+
+#[test]
+fn shadow_table_and_bad_site_files() {
+    let o = sunlot(&["shadow-table", "--demo", "--date", "2026-03-20", "--format", "csv"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let out = stdout(&o);
+    assert!(out.lines().next().unwrap().ends_with("tip_proposal-upper_m"));
+    assert_eq!(out.lines().count(), 13); // header + 07:00…18:00
+
+    let dir = std::env::temp_dir().join(format!("sunlot-cli-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let bad = dir.join("bad.json");
+    let site = sunlot::demo::DEMO_SITE_JSON.replace("\"top_m\": 15", "\"top_m\": 5");
+    std::fs::write(&bad, site).unwrap();
+    let o = sunlot(&["shadows", bad.to_str().unwrap(), "--local", "2026-03-20T12:00"], None);
+    assert!(!o.status.success());
+    assert!(stderr(&o).contains("feature \"proposal-upper\": top_m (5) must be above base_m (9)"), "{}", stderr(&o));
+    let o = sunlot(&["shadows", dir.join("missing.json").to_str().unwrap(), "--local", "2026-03-20T12:00"], None);
+    assert!(!o.status.success() && stderr(&o).contains("missing.json"));
+    std::fs::remove_dir_all(&dir).ok();
+}

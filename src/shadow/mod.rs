@@ -9,9 +9,11 @@
 mod cast;
 mod ray;
 mod study;
+mod table;
 
 pub use cast::{
     cast_shadows, shadow_length_per_m, shadow_offset_per_m, volume_shadow, wall_shadow, ShadowError, Shadows,
 };
 pub use ray::{exposure, skyline, Exposure, ViewPoint};
 pub use study::{analysis_extent, shadow_study, AreaShade, Study, StudyError, EXTENT_HEIGHTS, MIN_MARGIN_M};
+pub use table::{shadow_table, ShadowRow};

@@ -28,7 +28,7 @@ pub enum SiteFileError {
     #[error("site file: {0}")]
     Json(String),
     /// A version this build does not know.
-    #[error("site file: unknown format version {found:?}; this sunlot reads sunlot_site {SITE_FILE_VERSION}")]
+    #[error("site file: unknown format version {found}; this sunlot reads sunlot_site {SITE_FILE_VERSION}")]
     UnknownVersion { found: String },
     /// A bad latitude, longitude or elevation.
     #[error("site file: location: {0}")]

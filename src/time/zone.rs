@@ -90,6 +90,14 @@ impl Zone {
         self.local(instant).date_naive()
     }
 
+    /// The first instant of a local date: midnight, or where a daylight-saving change skips midnight,
+    /// the first whole hour that exists.
+    pub fn start_of_day(&self, date: NaiveDate) -> DateTime<Utc> {
+        (0..4)
+            .find_map(|h| self.resolve(date.and_hms_opt(h, 0, 0).expect("hours 0-3 are valid"), Fold::Earlier).ok())
+            .unwrap_or_else(|| date.and_time(chrono::NaiveTime::MIN).and_utc())
+    }
+
     /// Local midday of a date, as an instant (12:00 never falls in a daylight-saving gap in any zone in
     /// use; if it ever does, the instant one hour later is taken).
     pub fn midday(&self, date: NaiveDate) -> DateTime<Utc> {

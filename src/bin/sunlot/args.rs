@@ -3,7 +3,7 @@
 use chrono::{DateTime, NaiveDate, Utc};
 use clap::{Args, ValueEnum};
 use sunlot::solar::{Atmosphere, InputError, Site};
-use sunlot::time::{parse_instant, DeltaT, Fold, Zone};
+use sunlot::time::{parse_instant, DeltaT, Zone};
 
 /// The flag a core field name comes from, so messages name what the user typed.
 pub fn flag_for(field: &str) -> &str {
@@ -96,7 +96,7 @@ impl DeltaTArgs {
 
 /// Which instant a repeated local time (clocks going back) means.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum FoldArg {
+pub enum Fold {
     /// The first occurrence, before the clocks go back.
     Earlier,
     /// The second occurrence, after the clocks go back.
@@ -112,7 +112,7 @@ pub struct ZoneArgs {
     /// For a local time that occurs twice (clocks going back): which one is meant. Without it such a
     /// time is refused.
     #[arg(long, value_enum)]
-    pub fold: Option<FoldArg>,
+    pub fold: Option<Fold>,
 }
 
 impl ZoneArgs {
@@ -124,11 +124,11 @@ impl ZoneArgs {
         }
     }
 
-    pub fn fold(&self) -> Fold {
+    pub fn fold(&self) -> sunlot::time::Fold {
         match self.fold {
-            None => Fold::Reject,
-            Some(FoldArg::Earlier) => Fold::Earlier,
-            Some(FoldArg::Later) => Fold::Later,
+            None => sunlot::time::Fold::Reject,
+            Some(Fold::Earlier) => sunlot::time::Fold::Earlier,
+            Some(Fold::Later) => sunlot::time::Fold::Later,
         }
     }
 }
@@ -213,10 +213,5 @@ impl WhenArgs {
 /// Local midnight at the start of `date` and of the next day, as instants (where midnight is skipped
 /// by a daylight-saving change, the first hour that exists).
 pub fn day_bounds(zone: &Zone, date: NaiveDate) -> (DateTime<Utc>, DateTime<Utc>) {
-    let start_of = |d: NaiveDate| {
-        (0..4)
-            .find_map(|h| zone.resolve(d.and_hms_opt(h, 0, 0).expect("valid hour"), Fold::Earlier).ok())
-            .unwrap_or_else(|| d.and_hms_opt(0, 0, 0).expect("midnight").and_utc())
-    };
-    (start_of(date), start_of(date.succ_opt().unwrap_or(date)))
+    (zone.start_of_day(date), zone.start_of_day(date.succ_opt().unwrap_or(date)))
 }

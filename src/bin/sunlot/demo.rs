@@ -39,8 +39,8 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
     ];
     let mut days = day_table(&zone);
     days.title = format!("The sun's day on the equinoxes and solstices of {year}");
-    days.columns.insert(0, "occasion");
-    days.columns.insert(1, "instant");
+    days.columns.insert(0, "occasion".into());
+    days.columns.insert(1, "instant".into());
     for (name, t) in key {
         let ev = day_events(&site, zone.local_date(t), &zone, dt).map_err(|e| input_message(&e))?;
         let mut r = vec![Cell::text(name), Cell::text(zone.local(t).format("%Y-%m-%d %H:%M %Z").to_string())];

@@ -8,6 +8,7 @@ mod irradiance;
 mod output;
 mod position;
 mod seasons;
+mod shadows;
 
 use std::io::Write;
 use std::process::ExitCode;
@@ -34,6 +35,10 @@ enum Command {
     Seasons(seasons::SeasonsArgs),
     /// Clear-sky irradiance (Bird model) on the horizontal and on a tilted surface.
     Irradiance(irradiance::IrradianceArgs),
+    /// A site's shadows at a moment: polygons (GeoJSON) and the shade on each area.
+    Shadows(shadows::ShadowsArgs),
+    /// A site's shadow-length table through a day: sun angles, length per metre, each volume's tip.
+    ShadowTable(shadows::ShadowTableArgs),
     /// The sun at the built-in, invented demo site through the year's key dates.
     Demo(demo::DemoArgs),
 }
@@ -45,6 +50,8 @@ fn main() -> ExitCode {
         Command::Day(a) => day::run(a),
         Command::Seasons(a) => seasons::run(a),
         Command::Irradiance(a) => irradiance::run(a),
+        Command::Shadows(a) => shadows::run_shadows(a),
+        Command::ShadowTable(a) => shadows::run_shadow_table(a),
         Command::Demo(a) => demo::run(a),
     };
     match result {

@@ -75,7 +75,7 @@ impl Cell {
 #[derive(Debug, Default)]
 pub struct Table {
     pub title: String,
-    pub columns: Vec<&'static str>,
+    pub columns: Vec<String>,
     pub rows: Vec<Vec<Cell>>,
     pub notes: Vec<String>,
     /// JSON as one object rather than an array (for a single result).
@@ -83,14 +83,14 @@ pub struct Table {
 }
 
 impl Table {
-    pub fn new(title: impl Into<String>, columns: Vec<&'static str>) -> Self {
-        Table { title: title.into(), columns, ..Default::default() }
+    pub fn new(title: impl Into<String>, columns: Vec<&str>) -> Self {
+        Table { title: title.into(), columns: columns.into_iter().map(String::from).collect(), ..Default::default() }
     }
 
     /// Removes the named columns and their cells.
     pub fn drop_columns(&mut self, names: &[&str]) {
-        let keep: Vec<bool> = self.columns.iter().map(|c| !names.contains(c)).collect();
-        self.columns.retain(|c| !names.contains(c));
+        let keep: Vec<bool> = self.columns.iter().map(|c| !names.contains(&c.as_str())).collect();
+        self.columns.retain(|c| !names.contains(&c.as_str()));
         for r in &mut self.rows {
             let mut k = keep.iter();
             r.retain(|_| *k.next().unwrap_or(&true));
@@ -129,7 +129,7 @@ impl Table {
             let parts: Vec<String> = items.iter().zip(&widths).map(|(s, w)| format!("{s:>w$}")).collect();
             let _ = writeln!(out, "  {}", parts.join("  "));
         };
-        line(&mut out, self.columns.clone());
+        line(&mut out, self.columns.iter().map(String::as_str).collect());
         for r in &cells {
             line(&mut out, r.iter().map(String::as_str).collect());
         }

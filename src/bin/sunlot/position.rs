@@ -113,7 +113,7 @@ fn position_row(
     p: &SolarPosition,
     site: &Site,
     surface: Option<(f64, f64)>,
-    columns: &[&str],
+    columns: &[String],
 ) -> Vec<Cell> {
     let mut cells = vec![
         ("time", Cell::text(args::rfc3339(t, zone))),
@@ -135,7 +135,7 @@ fn position_row(
     if let Some((tilt, az)) = surface {
         cells.push(("incidence_deg", Cell::num(p.incidence_deg(tilt, az), 4)));
     }
-    cells.into_iter().filter(|(c, _)| columns.contains(c)).map(|(_, v)| v).collect()
+    cells.into_iter().filter(|(c, _)| columns.iter().any(|k| k == c)).map(|(_, v)| v).collect()
 }
 
 /// A day table's fixed inputs.
@@ -150,9 +150,9 @@ struct Day<'a> {
 
 fn day_table(d: &Day, step_min: u32, steps: &[DateTime<Utc>], night: bool) -> Result<Table, String> {
     let mut table = position_table(d.site, d.zone, d.air, d.surface);
-    table
-        .columns
-        .retain(|c| !matches!(*c, "latitude_deg" | "longitude_deg" | "elevation_m" | "zone" | "delta_t_s" | "sun_up"));
+    table.columns.retain(|c| {
+        !matches!(c.as_str(), "latitude_deg" | "longitude_deg" | "elevation_m" | "zone" | "delta_t_s" | "sun_up")
+    });
     table.title = format!(
         "Sun through {} ({}), every {step_min} min{}",
         d.date,

@@ -1,0 +1,234 @@
+//! `sunlot shadows` and `sunlot shadow-table`: a site's shadows at a moment, and the shadow-length
+//! table through a day.
+
+use std::path::PathBuf;
+
+use clap::{Args, ValueEnum};
+use geo::{Coord, MapCoords, MultiPolygon};
+use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
+use serde_json::json;
+use sunlot::shadow::{shadow_study, shadow_table, Study};
+use sunlot::site::{SiteModel, Status};
+
+use crate::args::{self, input_message, DeltaTArgs, Fold};
+use crate::output::{Cell, Format, Table};
+
+/// The site to study: a file, or the demo.
+#[derive(Debug, Clone, Args)]
+pub struct SiteFileArgs {
+    /// A sunlot site file (JSON, see schemas/site-v1.schema.json).
+    #[arg(value_name = "SITE", required_unless_present = "demo")]
+    pub path: Option<PathBuf>,
+    /// Use the built-in, invented demo site (demo-site/hollin-vale.site.json).
+    #[arg(long, conflicts_with = "path")]
+    pub demo: bool,
+}
+
+impl SiteFileArgs {
+    pub fn load(&self) -> Result<SiteModel, String> {
+        if self.demo {
+            return Ok(sunlot::demo::demo());
+        }
+        let path = self.path.as_ref().ok_or("give a site file, or --demo")?;
+        let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;
+        SiteModel::from_json(&text).map_err(|e| format!("{}: {e}", path.display()))
+    }
+}
+
+/// How `shadows` writes its result.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ShadowFormat {
+    /// The shade on each area, as an aligned table.
+    Table,
+    /// The shade on each area, as JSON.
+    Json,
+    /// The shade on each area, as CSV.
+    Csv,
+    /// The shadow polygons and the areas with their figures, as a GeoJSON FeatureCollection in the
+    /// site's plan frame (metres).
+    Geojson,
+}
+
+#[derive(Debug, Args)]
+pub struct ShadowsArgs {
+    #[command(flatten)]
+    pub site: SiteFileArgs,
+    /// The moment, RFC 3339 with an offset.
+    #[arg(long, conflicts_with = "local")]
+    pub time: Option<String>,
+    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in the site's zone.
+    #[arg(long, required_unless_present = "time")]
+    pub local: Option<String>,
+    /// For a local time that occurs twice (clocks going back): which one is meant.
+    #[arg(long, value_enum)]
+    pub fold: Option<Fold>,
+    #[command(flatten)]
+    pub delta_t: DeltaTArgs,
+    /// Output.
+    #[arg(long, value_enum, default_value_t = ShadowFormat::Table)]
+    pub format: ShadowFormat,
+}
+
+pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
+    let model = a.site.load()?;
+    let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: a.fold };
+    let (t, zone) =
+        args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
+    let study = shadow_study(&model, t, a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
+    let when = args::rfc3339(t, &zone);
+    let Study::Sun { sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent } = study
+    else {
+        return Ok(match a.format {
+            ShadowFormat::Geojson => {
+                serde_json::to_string_pretty(&FeatureCollection::new(vec![])).unwrap_or_default() + "\n"
+            }
+            _ => format!("At {when} the sun is below the horizon at {}: no direct sun, no shadows.\n", model.name),
+        });
+    };
+    if a.format == ShadowFormat::Geojson {
+        let mut features = Vec::new();
+        let mut add = |geom: GeometryValue, props: serde_json::Value| {
+            let properties: Option<JsonObject> = props.as_object().cloned();
+            features.push(Feature { geometry: Some(Geometry::new(geom)), properties, ..Default::default() });
+        };
+        // Micrometres are plenty: the boolean operations leave nanometre noise in the last digits.
+        let um = |mp: &MultiPolygon<f64>| {
+            mp.map_coords(|c| Coord { x: (c.x * 1e6).round() / 1e6, y: (c.y * 1e6).round() / 1e6 })
+        };
+        for (id, status, s) in &per_feature {
+            add(
+                GeometryValue::from(&um(s)),
+                json!({"layer": "feature_shadow", "source": id, "status": status_name(*status)}),
+            );
+        }
+        for (group, s) in [("existing", &existing), ("proposed", &proposed), ("combined", &combined)] {
+            add(GeometryValue::from(&um(s)), json!({"layer": "shadow_union", "group": group}));
+        }
+        for (a, m) in areas.iter().zip(&model.areas) {
+            add(
+                GeometryValue::from(&m.polygon),
+                json!({"layer": "area", "id": a.id, "name": a.name, "area_m2": a.area_m2,
+                       "shaded_existing_m2": a.existing_m2, "shaded_proposed_m2": a.proposed_m2,
+                       "shaded_combined_m2": a.combined_m2}),
+            );
+        }
+        let mut fc = FeatureCollection::new(features);
+        let mut members = JsonObject::new();
+        members.insert(
+            "sunlot".into(),
+            json!({"coordinates": "local plan metres (x right, y up the plan), not WGS84",
+                   "plan_rotation_deg": model.plan_rotation_deg, "time": when,
+                   "sun_altitude_deg": sun.altitude_deg, "sun_azimuth_deg": sun.azimuth_deg,
+                   "sun_plan_azimuth_deg": plan_azimuth_deg, "clipped_to_extent": clipped,
+                   "extent_m": [extent.min().x, extent.min().y, extent.max().x, extent.max().y]}),
+        );
+        fc.foreign_members = Some(members);
+        return Ok(serde_json::to_string_pretty(&fc).map_err(|e| e.to_string())? + "\n");
+    }
+    let mut t = Table::new(
+        format!("Shade on the areas of {} at {when}", model.name),
+        vec![
+            "area",
+            "name",
+            "area_m2",
+            "existing_m2",
+            "existing_pct",
+            "proposed_m2",
+            "proposed_pct",
+            "combined_m2",
+            "combined_pct",
+        ],
+    );
+    for a in &areas {
+        t.rows.push(vec![
+            Cell::text(&a.id),
+            Cell::text(&a.name),
+            Cell::num(a.area_m2, 1),
+            Cell::num(a.existing_m2, 1),
+            Cell::num(100.0 * a.fraction(a.existing_m2), 1),
+            Cell::num(a.proposed_m2, 1),
+            Cell::num(100.0 * a.fraction(a.proposed_m2), 1),
+            Cell::num(a.combined_m2, 1),
+            Cell::num(100.0 * a.fraction(a.combined_m2), 1),
+        ]);
+    }
+    t.notes.push(format!(
+        "Sun altitude {:.2}°, azimuth {:.2}° from true north; shadows on flat ground.",
+        sun.altitude_deg, sun.azimuth_deg
+    ));
+    if clipped {
+        t.notes.push("Low sun: some shadows reach past the analysis extent and are cut there.".into());
+    }
+    t.notes.push("Indicative; local planning codes and a licensed professional's assessment govern.".into());
+    let format = match a.format {
+        ShadowFormat::Json => Format::Json,
+        ShadowFormat::Csv => Format::Csv,
+        _ => Format::Table,
+    };
+    Ok(t.render(format))
+}
+
+fn status_name(s: Status) -> &'static str {
+    match s {
+        Status::Existing => "existing",
+        Status::Proposed => "proposed",
+    }
+}
+
+#[derive(Debug, Args)]
+pub struct ShadowTableArgs {
+    #[command(flatten)]
+    pub site: SiteFileArgs,
+    /// The local date, YYYY-MM-DD.
+    #[arg(long)]
+    pub date: String,
+    /// Step, minutes from local midnight (1 to 720).
+    #[arg(long, default_value_t = 60)]
+    pub step_min: u32,
+    #[command(flatten)]
+    pub delta_t: DeltaTArgs,
+    /// Output: an aligned table, JSON, or CSV.
+    #[arg(long, value_enum, default_value_t = Format::Table)]
+    pub format: Format,
+}
+
+pub fn run_shadow_table(a: &ShadowTableArgs) -> Result<String, String> {
+    let model = a.site.load()?;
+    let date = args::date(&a.date, "--date")?;
+    let rows = shadow_table(&model, date, a.step_min, a.delta_t.delta_t()?)
+        .map_err(|e| format!("--{}", input_message(&e).replace('_', "-")))?;
+    let mut cols = vec![
+        "time".to_string(),
+        "altitude_deg".into(),
+        "azimuth_deg".into(),
+        "shadow_per_m_height_m".into(),
+        "shadow_direction_deg".into(),
+    ];
+    cols.extend(model.volumes.iter().map(|v| format!("tip_{}_m", v.id)));
+    let mut t =
+        Table::new(format!("Shadow lengths at {} on {date} ({}), sunrise to sunset", model.name, model.zone), vec![]);
+    t.columns = cols;
+    for r in &rows {
+        let mut row = vec![
+            Cell::text(if a.format == Format::Table {
+                model.zone.local(r.time).format("%H:%M").to_string()
+            } else {
+                args::rfc3339(r.time, &model.zone)
+            }),
+            Cell::num(r.altitude_deg, 2),
+            Cell::num(r.azimuth_deg, 2),
+            Cell::num(r.length_per_m, 3),
+            Cell::num(r.direction_deg, 1),
+        ];
+        row.extend(r.tips_m.iter().map(|(_, m)| Cell::num(*m, 1)));
+        t.rows.push(row);
+    }
+    t.notes.push(
+        "Flat ground; length per metre of height = 1 / tan(altitude); direction clockwise from true north.".into(),
+    );
+    t.notes.push("tip_<volume>_m: distance from the volume's face to the tip of the shadow of its top.".into());
+    if rows.is_empty() {
+        t.notes.insert(0, "The sun does not rise on this date.".into());
+    }
+    Ok(t.render(a.format))
+}
