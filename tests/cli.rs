@@ -247,3 +247,44 @@ fn shadow_table_and_bad_site_files() {
     assert!(!o.status.success() && stderr(&o).contains("missing.json"));
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn geojson_sites_read_and_write_wgs84() {
+    let o = sunlot(&["convert", "--demo", "--to", "geojson"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let dir = std::env::temp_dir().join(format!("sunlot-gj-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("demo.geojson");
+    std::fs::write(&path, stdout(&o)).unwrap();
+    let plan = sunlot(&["shadows", "--demo", "--local", "2026-12-21T12:00", "--format", "csv"], None);
+    let geo = sunlot(&["shadows", path.to_str().unwrap(), "--local", "2026-12-21T12:00", "--format", "csv"], None);
+    assert!(geo.status.success(), "{}", stderr(&geo));
+    // The same site through GeoJSON gives the same figures (to 0.1 m², the table's precision).
+    let col = |text: &str| -> Vec<f64> {
+        text.lines().skip(1).map(|l| l.split(',').nth(7).unwrap().parse().unwrap()).collect()
+    };
+    for (a, b) in col(&stdout(&plan)).iter().zip(col(&stdout(&geo))) {
+        assert!((a - b).abs() < 0.1, "{a} vs {b}");
+    }
+    let gj = sunlot(&["shadows", path.to_str().unwrap(), "--local", "2026-12-21T12:00", "--format", "geojson"], None);
+    let fc: serde_json::Value = serde_json::from_str(&stdout(&gj)).unwrap();
+    let first = &fc["features"][0]["geometry"]["coordinates"][0][0][0];
+    assert!(
+        (first[0].as_f64().unwrap() + 1.87).abs() < 0.01 && (first[1].as_f64().unwrap() - 52.62).abs() < 0.01,
+        "{first}"
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn point_in_sun_and_skyline() {
+    let o =
+        sunlot(&["point", "--demo", "--at", "14,48.5,1.5", "--local", "2026-12-21T12:00", "--format", "json"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(v[0]["direct_sun"], "no", "the proposal stands between the point and the winter noon sun");
+    let o = sunlot(&["point", "--demo", "--at", "14,48.5,1.5", "--skyline-step-deg", "1", "--format", "csv"], None);
+    assert_eq!(stdout(&o).lines().count(), 361);
+    let o = sunlot(&["point", "--demo", "--at", "14,48.5", "--local", "2026-12-21T12:00"], None);
+    assert!(!o.status.success() && stderr(&o).contains("--at"), "{}", stderr(&o));
+}

@@ -78,6 +78,23 @@ pub struct Area {
     pub polygon: Polygon<f64>,
 }
 
+impl Area {
+    /// A validated area.
+    ///
+    /// # Errors
+    /// [`SiteError`] naming `id` for too few vertices, non-finite coordinates or an invalid outline.
+    pub fn new(id: &str, name: &str, kind: AreaKind, status: Status, polygon: Polygon<f64>) -> Result<Self, SiteError> {
+        check_ring(id, "the outline", polygon.exterior())?;
+        for (k, h) in polygon.interiors().iter().enumerate() {
+            check_ring(id, &format!("hole {}", k + 1), h)?;
+        }
+        if let Some(problem) = geo::Validation::validation_errors(&polygon).into_iter().next() {
+            return Err(SiteError::InvalidFootprint { feature: id.to_string(), reason: problem.to_string() });
+        }
+        Ok(Area { id: id.to_string(), name: name.to_string(), kind, status, polygon })
+    }
+}
+
 /// A site: where it is, how its plan is turned, and what stands on it.
 #[derive(Debug, Clone, PartialEq)]
 pub struct SiteModel {
@@ -229,18 +246,8 @@ impl SiteFile {
             .areas
             .iter()
             .map(|a| {
-                let polygon = polygon(&a.outline, &a.holes);
-                check_ring(&a.id, "the outline", polygon.exterior()).map_err(SiteFileError::Feature)?;
-                for (k, h) in polygon.interiors().iter().enumerate() {
-                    check_ring(&a.id, &format!("hole {}", k + 1), h).map_err(SiteFileError::Feature)?;
-                }
-                if let Some(problem) = geo::Validation::validation_errors(&polygon).into_iter().next() {
-                    return Err(SiteFileError::Feature(SiteError::InvalidFootprint {
-                        feature: a.id.clone(),
-                        reason: problem.to_string(),
-                    }));
-                }
-                Ok(Area { id: a.id.clone(), name: a.name.clone(), kind: a.kind, status: a.status, polygon })
+                Area::new(&a.id, &a.name, a.kind, a.status, polygon(&a.outline, &a.holes))
+                    .map_err(SiteFileError::Feature)
             })
             .collect::<Result<Vec<_>, _>>()?;
         let volumes = self

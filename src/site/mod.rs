@@ -2,7 +2,11 @@
 //! above local ground), the lots and areas, and sunlot's site file.
 
 mod file;
+mod frame;
+mod geojson_io;
 mod massing;
 
 pub use file::{Area, AreaKind, SiteFileError, SiteModel, SITE_FILE_VERSION};
+pub use frame::LocalFrame;
+pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};
 pub use massing::{SiteError, Status, Volume, Wall};

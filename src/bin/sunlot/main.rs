@@ -6,6 +6,7 @@ mod day;
 mod demo;
 mod irradiance;
 mod output;
+mod point;
 mod position;
 mod seasons;
 mod shadows;
@@ -39,6 +40,10 @@ enum Command {
     Shadows(shadows::ShadowsArgs),
     /// A site's shadow-length table through a day: sun angles, length per metre, each volume's tip.
     ShadowTable(shadows::ShadowTableArgs),
+    /// Convert a site between sunlot's site file and GeoJSON.
+    Convert(shadows::ConvertArgs),
+    /// Whether a point of a site (a window, a balcony) is in direct sun, and the skyline it sees.
+    Point(point::PointArgs),
     /// The sun at the built-in, invented demo site through the year's key dates.
     Demo(demo::DemoArgs),
 }
@@ -52,6 +57,8 @@ fn main() -> ExitCode {
         Command::Irradiance(a) => irradiance::run(a),
         Command::Shadows(a) => shadows::run_shadows(a),
         Command::ShadowTable(a) => shadows::run_shadow_table(a),
+        Command::Convert(a) => shadows::run_convert(a),
+        Command::Point(a) => point::run(a),
         Command::Demo(a) => demo::run(a),
     };
     match result {

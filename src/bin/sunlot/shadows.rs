@@ -16,7 +16,8 @@ use crate::output::{Cell, Format, Table};
 /// The site to study: a file, or the demo.
 #[derive(Debug, Clone, Args)]
 pub struct SiteFileArgs {
-    /// A sunlot site file (JSON, see schemas/site-v1.schema.json).
+    /// A sunlot site file (JSON, see schemas/site-v1.schema.json) or a GeoJSON FeatureCollection
+    /// (WGS84; see README for the feature properties).
     #[arg(value_name = "SITE", required_unless_present = "demo")]
     pub path: Option<PathBuf>,
     /// Use the built-in, invented demo site (demo-site/hollin-vale.site.json).
@@ -24,14 +25,28 @@ pub struct SiteFileArgs {
     pub demo: bool,
 }
 
+/// A loaded site, and whether it came from GeoJSON (results then go out in WGS84 too).
+pub struct Loaded {
+    pub model: SiteModel,
+    pub from_geojson: bool,
+}
+
 impl SiteFileArgs {
-    pub fn load(&self) -> Result<SiteModel, String> {
+    pub fn load(&self) -> Result<Loaded, String> {
         if self.demo {
-            return Ok(sunlot::demo::demo());
+            return Ok(Loaded { model: sunlot::demo::demo(), from_geojson: false });
         }
         let path = self.path.as_ref().ok_or("give a site file, or --demo")?;
         let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;
-        SiteModel::from_json(&text).map_err(|e| format!("{}: {e}", path.display()))
+        let is_geojson = serde_json::from_str::<serde_json::Value>(&text)
+            .ok()
+            .is_some_and(|v| v.get("type").and_then(|t| t.as_str()) == Some("FeatureCollection"));
+        let model = if is_geojson {
+            SiteModel::from_geojson(&text).map_err(|e| format!("{}: {e}", path.display()))?
+        } else {
+            SiteModel::from_json(&text).map_err(|e| format!("{}: {e}", path.display()))?
+        };
+        Ok(Loaded { model, from_geojson: is_geojson })
     }
 }
 
@@ -44,8 +59,8 @@ pub enum ShadowFormat {
     Json,
     /// The shade on each area, as CSV.
     Csv,
-    /// The shadow polygons and the areas with their figures, as a GeoJSON FeatureCollection in the
-    /// site's plan frame (metres).
+    /// The shadow polygons and the areas with their figures, as a GeoJSON FeatureCollection: in WGS84
+    /// when the site came from GeoJSON, else in the site's plan frame (metres).
     Geojson,
 }
 
@@ -70,7 +85,7 @@ pub struct ShadowsArgs {
 }
 
 pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
-    let model = a.site.load()?;
+    let Loaded { model, from_geojson } = a.site.load()?;
     let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: a.fold };
     let (t, zone) =
         args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
@@ -91,22 +106,28 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
             let properties: Option<JsonObject> = props.as_object().cloned();
             features.push(Feature { geometry: Some(Geometry::new(geom)), properties, ..Default::default() });
         };
-        // Micrometres are plenty: the boolean operations leave nanometre noise in the last digits.
-        let um = |mp: &MultiPolygon<f64>| {
-            mp.map_coords(|c| Coord { x: (c.x * 1e6).round() / 1e6, y: (c.y * 1e6).round() / 1e6 })
+        // Plan metres to the micrometre (the boolean operations leave nanometre noise in the last
+        // digits), or WGS84 degrees for a site that came from GeoJSON.
+        let frame = model.frame();
+        let out = |mp: &MultiPolygon<f64>| {
+            if from_geojson {
+                mp.map_coords(|c| model.plan_to_wgs84(&frame, c))
+            } else {
+                mp.map_coords(|c| Coord { x: (c.x * 1e6).round() / 1e6, y: (c.y * 1e6).round() / 1e6 })
+            }
         };
         for (id, status, s) in &per_feature {
             add(
-                GeometryValue::from(&um(s)),
+                GeometryValue::from(&out(s)),
                 json!({"layer": "feature_shadow", "source": id, "status": status_name(*status)}),
             );
         }
         for (group, s) in [("existing", &existing), ("proposed", &proposed), ("combined", &combined)] {
-            add(GeometryValue::from(&um(s)), json!({"layer": "shadow_union", "group": group}));
+            add(GeometryValue::from(&out(s)), json!({"layer": "shadow_union", "group": group}));
         }
         for (a, m) in areas.iter().zip(&model.areas) {
             add(
-                GeometryValue::from(&m.polygon),
+                GeometryValue::from(&out(&MultiPolygon::new(vec![m.polygon.clone()]))),
                 json!({"layer": "area", "id": a.id, "name": a.name, "area_m2": a.area_m2,
                        "shaded_existing_m2": a.existing_m2, "shaded_proposed_m2": a.proposed_m2,
                        "shaded_combined_m2": a.combined_m2}),
@@ -116,7 +137,7 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
         let mut members = JsonObject::new();
         members.insert(
             "sunlot".into(),
-            json!({"coordinates": "local plan metres (x right, y up the plan), not WGS84",
+            json!({"coordinates": if from_geojson { "WGS84 longitude, latitude" } else { "local plan metres (x right, y up the plan), not WGS84" },
                    "plan_rotation_deg": model.plan_rotation_deg, "time": when,
                    "sun_altitude_deg": sun.altitude_deg, "sun_azimuth_deg": sun.azimuth_deg,
                    "sun_plan_azimuth_deg": plan_azimuth_deg, "clipped_to_extent": clipped,
@@ -193,7 +214,7 @@ pub struct ShadowTableArgs {
 }
 
 pub fn run_shadow_table(a: &ShadowTableArgs) -> Result<String, String> {
-    let model = a.site.load()?;
+    let model = a.site.load()?.model;
     let date = args::date(&a.date, "--date")?;
     let rows = shadow_table(&model, date, a.step_min, a.delta_t.delta_t()?)
         .map_err(|e| format!("--{}", input_message(&e).replace('_', "-")))?;
@@ -231,4 +252,30 @@ pub fn run_shadow_table(a: &ShadowTableArgs) -> Result<String, String> {
         t.notes.insert(0, "The sun does not rise on this date.".into());
     }
     Ok(t.render(a.format))
+}
+
+/// What `convert` writes.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum SiteFormat {
+    /// sunlot's site file (plan metres).
+    Site,
+    /// GeoJSON FeatureCollection (WGS84).
+    Geojson,
+}
+
+#[derive(Debug, Args)]
+pub struct ConvertArgs {
+    #[command(flatten)]
+    pub site: SiteFileArgs,
+    /// Format to write on standard output.
+    #[arg(long, value_enum)]
+    pub to: SiteFormat,
+}
+
+pub fn run_convert(a: &ConvertArgs) -> Result<String, String> {
+    let model = a.site.load()?.model;
+    Ok(match a.to {
+        SiteFormat::Site => model.to_json(),
+        SiteFormat::Geojson => model.to_geojson(),
+    } + "\n")
 }

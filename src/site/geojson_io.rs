@@ -1,0 +1,395 @@
+//! Sites as GeoJSON (RFC 7946: WGS84 longitude and latitude), converted to and from the local frame.
+//!
+//! A site is a FeatureCollection with a foreign member `"sunlot": {"zone": "Europe/London",
+//! "elevation_m": 118, "origin": [lon, lat], "name": "…"}` (`origin` defaults to the centre of the
+//! features' bounding box; `elevation_m` to 0). Each feature says what it is in its properties — see
+//! [`PROPERTY_NAMES`]. Volumes and areas are Polygons or MultiPolygons (each part its own feature, id
+//! suffixed `#2`, `#3`, …); walls are LineStrings or MultiLineStrings. Imported sites use the east-north
+//! frame about the origin as their plan (plan rotation 0).
+
+use geo::{Coord, LineString, MapCoords, Polygon};
+use geojson::{Feature, FeatureCollection, GeoJson, Geometry, GeometryValue, JsonObject};
+use serde_json::{json, Value};
+
+use super::file::{Area, AreaKind, SiteModel};
+use super::frame::LocalFrame;
+use super::massing::{SiteError, Status, Volume, Wall};
+use crate::solar::{InputError, Site};
+use crate::time::{TimeError, Zone};
+
+/// The feature properties sunlot reads and writes, with their meaning.
+pub const PROPERTY_NAMES: &[(&str, &str)] = &[
+    ("sunlot", "what the feature is: \"volume\", \"area\" or \"wall\" (features without it are ignored)"),
+    ("id", "unique id (else the feature's own id, else feature-N)"),
+    ("name", "display name"),
+    ("status", "\"existing\" or \"proposed\" (default existing)"),
+    ("base_m", "volume: underside above ground, metres (default 0)"),
+    ("top_m", "volume: top above ground, metres"),
+    ("height_m", "wall: height above ground, metres"),
+    ("kind", "area: \"lot\", \"garden\", \"terrace\", \"amenity\" or \"other\" (default other)"),
+];
+
+/// Why GeoJSON could not be read as a site; names the feature (by id or index) and the problem.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum GeoJsonError {
+    /// Not GeoJSON, or not a FeatureCollection.
+    #[error("GeoJSON: {0}")]
+    Format(String),
+    /// A feature whose geometry type cannot stand for what it says it is.
+    #[error("GeoJSON feature {feature}: a {what} must be {expected}, got {found}")]
+    UnsupportedGeometry { feature: String, what: String, expected: &'static str, found: String },
+    /// A property of the wrong type or value.
+    #[error("GeoJSON feature {feature}: property {property:?} {problem}")]
+    Property { feature: String, property: &'static str, problem: String },
+    /// The site's location.
+    #[error("GeoJSON: sunlot.{0}")]
+    Location(String),
+    /// A feature that fails the site model's checks.
+    #[error("GeoJSON: {0}")]
+    Feature(#[from] SiteError),
+}
+
+fn geometry_name(g: &GeometryValue) -> String {
+    match g {
+        GeometryValue::Point { .. } => "Point",
+        GeometryValue::MultiPoint { .. } => "MultiPoint",
+        GeometryValue::LineString { .. } => "LineString",
+        GeometryValue::MultiLineString { .. } => "MultiLineString",
+        GeometryValue::Polygon { .. } => "Polygon",
+        GeometryValue::MultiPolygon { .. } => "MultiPolygon",
+        GeometryValue::GeometryCollection { .. } => "GeometryCollection",
+    }
+    .to_string()
+}
+
+impl SiteModel {
+    /// Reads a site from GeoJSON.
+    ///
+    /// # Errors
+    /// [`GeoJsonError`] naming the feature and the problem; no feature is silently dropped.
+    pub fn from_geojson(text: &str) -> Result<Self, GeoJsonError> {
+        let gj: GeoJson = text.parse().map_err(|e: geojson::Error| GeoJsonError::Format(e.to_string()))?;
+        let GeoJson::FeatureCollection(fc) = gj else {
+            return Err(GeoJsonError::Format("a site must be a FeatureCollection".into()));
+        };
+        let meta = fc.foreign_members.as_ref().and_then(|m| m.get("sunlot")).cloned().unwrap_or(Value::Null);
+        let zone: Zone = meta
+            .get("zone")
+            .and_then(Value::as_str)
+            .ok_or_else(|| GeoJsonError::Location("zone is missing (an IANA name such as Europe/London)".into()))?
+            .parse()
+            .map_err(|e: TimeError| GeoJsonError::Location(e.to_string()))?;
+        let elevation_m = meta.get("elevation_m").and_then(Value::as_f64).unwrap_or(0.0);
+        let origin = match meta.get("origin").and_then(Value::as_array) {
+            Some(o) if o.len() == 2 && o.iter().all(Value::is_number) => {
+                (o[0].as_f64().unwrap_or(f64::NAN), o[1].as_f64().unwrap_or(f64::NAN))
+            }
+            Some(_) => return Err(GeoJsonError::Location("origin must be [longitude, latitude]".into())),
+            None => bbox_centre(&fc).ok_or_else(|| GeoJsonError::Format("the collection has no coordinates".into()))?,
+        };
+        let location = Site::new(origin.1, origin.0, elevation_m)
+            .map_err(|e: InputError| GeoJsonError::Location(e.to_string()))?;
+        let frame = LocalFrame::new(origin.0, origin.1, elevation_m);
+        let name = meta.get("name").and_then(Value::as_str).unwrap_or_default().to_string();
+
+        let mut model =
+            SiteModel { name, location, zone, plan_rotation_deg: 0.0, areas: vec![], volumes: vec![], walls: vec![] };
+        let mut ids = std::collections::HashSet::new();
+        for (index, f) in fc.features.iter().enumerate() {
+            let props = f.properties.clone().unwrap_or_default();
+            let Some(what) = props.get("sunlot").and_then(Value::as_str).map(str::to_string) else { continue };
+            let base_id = props
+                .get("id")
+                .and_then(Value::as_str)
+                .map(str::to_string)
+                .or_else(|| {
+                    f.id.as_ref().map(|i| match i {
+                        geojson::feature::Id::String(s) => s.clone(),
+                        geojson::feature::Id::Number(n) => n.to_string(),
+                    })
+                })
+                .unwrap_or_else(|| format!("feature-{index}"));
+            let label = format!("{base_id:?} (#{index})");
+            let prop = Props { props: &props, feature: &label };
+            let status = prop.status()?;
+            let geom = f.geometry.as_ref().map(|g| &g.value);
+            let parts_of =
+                |expected: &'static str, polygonal: bool| -> Result<Vec<Vec<Vec<Coord<f64>>>>, GeoJsonError> {
+                    let to_local = |p: &geojson::Position| {
+                        let (e, n) = frame.to_local(p[0], p[1]);
+                        Coord { x: e, y: n }
+                    };
+                    let ring = |r: &Vec<geojson::Position>| r.iter().map(to_local).collect::<Vec<_>>();
+                    match (geom, polygonal) {
+                        (Some(GeometryValue::Polygon { coordinates }), true) => {
+                            Ok(vec![coordinates.iter().map(ring).collect()])
+                        }
+                        (Some(GeometryValue::MultiPolygon { coordinates }), true) => {
+                            Ok(coordinates.iter().map(|p| p.iter().map(ring).collect()).collect())
+                        }
+                        (Some(GeometryValue::LineString { coordinates }), false) => Ok(vec![vec![ring(coordinates)]]),
+                        (Some(GeometryValue::MultiLineString { coordinates }), false) => {
+                            Ok(coordinates.iter().map(|l| vec![ring(l)]).collect())
+                        }
+                        (g, _) => Err(GeoJsonError::UnsupportedGeometry {
+                            feature: label.clone(),
+                            what: what.clone(),
+                            expected,
+                            found: g.map_or("no geometry".to_string(), geometry_name),
+                        }),
+                    }
+                };
+            let parts = match what.as_str() {
+                "volume" | "area" => parts_of("a Polygon or MultiPolygon", true)?,
+                "wall" => parts_of("a LineString or MultiLineString", false)?,
+                other => {
+                    return Err(GeoJsonError::Property {
+                        feature: label,
+                        property: "sunlot",
+                        problem: format!("must be \"volume\", \"area\" or \"wall\", got {other:?}"),
+                    })
+                }
+            };
+            for (k, rings) in parts.into_iter().enumerate() {
+                let id = if k == 0 { base_id.clone() } else { format!("{base_id}#{}", k + 1) };
+                if !ids.insert(id.clone()) {
+                    return Err(GeoJsonError::Property {
+                        feature: label,
+                        property: "id",
+                        problem: format!("{id:?} is used by more than one feature"),
+                    });
+                }
+                let polygon = || {
+                    let mut it = rings.iter().map(|r| LineString::from(r.clone()));
+                    let outer = it.next().unwrap_or_else(|| LineString::new(vec![]));
+                    Polygon::new(outer, it.collect())
+                };
+                match what.as_str() {
+                    "volume" => {
+                        let base = prop.number("base_m")?.unwrap_or(0.0);
+                        let top = prop.number("top_m")?.ok_or_else(|| prop.missing("top_m"))?;
+                        model.volumes.push(Volume::new(&id, status, polygon(), base, top)?);
+                    }
+                    "area" => {
+                        model.areas.push(Area::new(&id, &prop.text("name"), prop.kind()?, status, polygon())?);
+                    }
+                    _ => {
+                        let h = prop.number("height_m")?.ok_or_else(|| prop.missing("height_m"))?;
+                        model.walls.push(Wall::new(&id, status, LineString::from(rings[0].clone()), h)?);
+                    }
+                }
+            }
+        }
+        Ok(model)
+    }
+
+    /// Writes the site as GeoJSON in WGS84 about its location, with the properties of [`PROPERTY_NAMES`].
+    pub fn to_geojson(&self) -> String {
+        let frame = self.frame();
+        let mut features = Vec::new();
+        let mut push = |geom: GeometryValue, props: Value| {
+            features.push(Feature {
+                geometry: Some(Geometry::new(geom)),
+                properties: props.as_object().cloned(),
+                ..Default::default()
+            });
+        };
+        let status = |s: Status| if s == Status::Existing { "existing" } else { "proposed" };
+        for v in &self.volumes {
+            push(
+                GeometryValue::from(&self.polygon_to_wgs84(&frame, &v.footprint)),
+                json!({"sunlot": "volume", "id": v.id, "status": status(v.status), "base_m": v.base_m, "top_m": v.top_m}),
+            );
+        }
+        for a in &self.areas {
+            let kind = serde_json::to_value(a.kind).unwrap_or(Value::Null);
+            push(
+                GeometryValue::from(&self.polygon_to_wgs84(&frame, &a.polygon)),
+                json!({"sunlot": "area", "id": a.id, "name": a.name, "status": status(a.status), "kind": kind}),
+            );
+        }
+        for w in &self.walls {
+            let line = w.line.map_coords(|c| self.plan_to_wgs84(&frame, c));
+            push(
+                GeometryValue::from(&line),
+                json!({"sunlot": "wall", "id": w.id, "status": status(w.status), "height_m": w.height_m}),
+            );
+        }
+        let mut fc = FeatureCollection::new(features);
+        let mut members = JsonObject::new();
+        members.insert(
+            "sunlot".into(),
+            json!({"name": self.name, "zone": self.zone.to_string(), "elevation_m": self.location.elevation_m,
+                   "origin": [self.location.longitude_deg, self.location.latitude_deg]}),
+        );
+        fc.foreign_members = Some(members);
+        serde_json::to_string_pretty(&fc).unwrap_or_default()
+    }
+
+    /// The local frame about the site's location (ground plane at its elevation).
+    pub fn frame(&self) -> LocalFrame {
+        LocalFrame::new(self.location.longitude_deg, self.location.latitude_deg, self.location.elevation_m)
+    }
+
+    /// A plan point as (longitude, latitude), turning the plan by its rotation to true north first.
+    pub fn plan_to_wgs84(&self, frame: &LocalFrame, c: Coord<f64>) -> Coord<f64> {
+        let (s, k) = self.plan_rotation_deg.to_radians().sin_cos();
+        let (e, n) = (c.x * k - c.y * s, c.x * s + c.y * k);
+        let (lon, lat) = frame.to_wgs84(e, n);
+        Coord { x: lon, y: lat }
+    }
+
+    /// A plan polygon in WGS84.
+    pub fn polygon_to_wgs84(&self, frame: &LocalFrame, p: &Polygon<f64>) -> Polygon<f64> {
+        p.map_coords(|c| self.plan_to_wgs84(frame, c))
+    }
+}
+
+fn bbox_centre(fc: &FeatureCollection) -> Option<(f64, f64)> {
+    let (mut lo, mut hi) = ((f64::INFINITY, f64::INFINITY), (f64::NEG_INFINITY, f64::NEG_INFINITY));
+    let mut visit = |p: &geojson::Position| {
+        lo = (lo.0.min(p[0]), lo.1.min(p[1]));
+        hi = (hi.0.max(p[0]), hi.1.max(p[1]));
+    };
+    for f in &fc.features {
+        match f.geometry.as_ref().map(|g| &g.value) {
+            Some(GeometryValue::Polygon { coordinates }) => coordinates.iter().flatten().for_each(&mut visit),
+            Some(GeometryValue::MultiPolygon { coordinates }) => {
+                coordinates.iter().flatten().flatten().for_each(&mut visit)
+            }
+            Some(GeometryValue::LineString { coordinates }) => coordinates.iter().for_each(&mut visit),
+            Some(GeometryValue::MultiLineString { coordinates }) => coordinates.iter().flatten().for_each(&mut visit),
+            _ => {}
+        }
+    }
+    lo.0.is_finite().then(|| ((lo.0 + hi.0) / 2.0, (lo.1 + hi.1) / 2.0))
+}
+
+struct Props<'a> {
+    props: &'a JsonObject,
+    feature: &'a str,
+}
+
+impl Props<'_> {
+    fn number(&self, key: &'static str) -> Result<Option<f64>, GeoJsonError> {
+        match self.props.get(key) {
+            None | Some(Value::Null) => Ok(None),
+            Some(v) => v.as_f64().map(Some).ok_or_else(|| GeoJsonError::Property {
+                feature: self.feature.to_string(),
+                property: key,
+                problem: format!("must be a number of metres, got {v}"),
+            }),
+        }
+    }
+
+    fn missing(&self, key: &'static str) -> GeoJsonError {
+        GeoJsonError::Property { feature: self.feature.to_string(), property: key, problem: "is missing".into() }
+    }
+
+    fn text(&self, key: &str) -> String {
+        self.props.get(key).and_then(Value::as_str).unwrap_or_default().to_string()
+    }
+
+    fn status(&self) -> Result<Status, GeoJsonError> {
+        match self.props.get("status").and_then(Value::as_str) {
+            None | Some("existing") => Ok(Status::Existing),
+            Some("proposed") => Ok(Status::Proposed),
+            Some(other) => Err(GeoJsonError::Property {
+                feature: self.feature.to_string(),
+                property: "status",
+                problem: format!("must be \"existing\" or \"proposed\", got {other:?}"),
+            }),
+        }
+    }
+
+    fn kind(&self) -> Result<AreaKind, GeoJsonError> {
+        match self.props.get("kind") {
+            None => Ok(AreaKind::Other),
+            Some(v) => serde_json::from_value(v.clone()).map_err(|_| GeoJsonError::Property {
+                feature: self.feature.to_string(),
+                property: "kind",
+                problem: format!("must be lot, garden, terrace, amenity or other, got {v}"),
+            }),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use approx::assert_abs_diff_eq;
+
+    #[test]
+    fn geojson_round_trip_keeps_coordinates_within_a_millimetre() {
+        let site = crate::demo::demo();
+        let text = site.to_geojson();
+        let back = SiteModel::from_geojson(&text).unwrap();
+        assert_eq!(back.volumes.len(), site.volumes.len());
+        assert_eq!(back.areas.len(), site.areas.len());
+        assert_eq!(back.walls.len(), site.walls.len());
+        for (a, b) in site.volumes.iter().zip(&back.volumes) {
+            assert_eq!(a.id, b.id);
+            assert_eq!((a.base_m, a.top_m, a.status), (b.base_m, b.top_m, b.status));
+            for (p, q) in a.footprint.exterior().coords().zip(b.footprint.exterior().coords()) {
+                assert_abs_diff_eq!(p.x, q.x, epsilon = 1e-3);
+                assert_abs_diff_eq!(p.y, q.y, epsilon = 1e-3);
+            }
+        }
+        // And GeoJSON → model → GeoJSON keeps longitudes and latitudes (1 mm ≈ 9e-9°).
+        let again = SiteModel::from_geojson(&back.to_geojson()).unwrap();
+        for (a, b) in back.volumes.iter().zip(&again.volumes) {
+            for (p, q) in a.footprint.exterior().coords().zip(b.footprint.exterior().coords()) {
+                assert_abs_diff_eq!(p.x, q.x, epsilon = 1e-6);
+                assert_abs_diff_eq!(p.y, q.y, epsilon = 1e-6);
+            }
+        }
+    }
+
+    #[test]
+    fn rotated_plans_land_on_true_north() {
+        // A plan turned so that true north is 90° clockwise from its top: plan "up" is true west.
+        let mut site = crate::demo::demo();
+        site.plan_rotation_deg = 90.0;
+        let f = site.frame();
+        let c = site.plan_to_wgs84(&f, Coord { x: 0.0, y: 100.0 });
+        let (e, n) = f.to_local(c.x, c.y);
+        assert_abs_diff_eq!(e, -100.0, epsilon = 1e-6);
+        assert_abs_diff_eq!(n, 0.0, epsilon = 1e-6);
+    }
+
+    #[test]
+    fn unsupported_geometry_and_bad_properties_are_named() {
+        let doc = |geom: &str, props: &str| {
+            format!(
+                r#"{{"type":"FeatureCollection","sunlot":{{"zone":"Europe/London"}},"features":[
+                {{"type":"Feature","id":"ok","geometry":{{"type":"Polygon","coordinates":[[[-1.87,52.62],[-1.8698,52.62],[-1.8698,52.6202],[-1.87,52.62]]]}},"properties":{{"sunlot":"volume","top_m":6}}}},
+                {{"type":"Feature","geometry":{geom},"properties":{props}}}]}}"#
+            )
+        };
+        let point = r#"{"type":"Point","coordinates":[-1.87,52.62]}"#;
+        let e = SiteModel::from_geojson(&doc(point, r#"{"sunlot":"volume","id":"mast","top_m":20}"#)).unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            "GeoJSON feature \"mast\" (#1): a volume must be a Polygon or MultiPolygon, got Point"
+        );
+        let poly =
+            r#"{"type":"Polygon","coordinates":[[[-1.871,52.62],[-1.8705,52.62],[-1.8705,52.6205],[-1.871,52.62]]]}"#;
+        let e = SiteModel::from_geojson(&doc(poly, r#"{"sunlot":"volume","top_m":"tall"}"#)).unwrap_err();
+        assert!(e.to_string().contains("feature-1") && e.to_string().contains("top_m"), "{e}");
+        let e = SiteModel::from_geojson(&doc(poly, r#"{"sunlot":"volume"}"#)).unwrap_err();
+        assert!(e.to_string().contains("\"top_m\" is missing"), "{e}");
+        let e = SiteModel::from_geojson(&doc(poly, r#"{"sunlot":"tower","top_m":3}"#)).unwrap_err();
+        assert!(e.to_string().contains("\"sunlot\" must be"), "{e}");
+        let e = SiteModel::from_geojson(&doc(poly, r#"{"sunlot":"volume","top_m":3,"status":"maybe"}"#)).unwrap_err();
+        assert!(e.to_string().contains("status"), "{e}");
+        let e = SiteModel::from_geojson(&doc(poly, r#"{"sunlot":"volume","id":"ok","top_m":3}"#)).unwrap_err();
+        assert!(e.to_string().contains("more than one"), "{e}");
+        // Unrelated features (no "sunlot" property) are left alone, and the good one is read.
+        let m = SiteModel::from_geojson(&doc(point, r#"{"note":"a tree"}"#)).unwrap();
+        assert_eq!(m.volumes.len(), 1);
+        let e = SiteModel::from_geojson(r#"{"type":"Point","coordinates":[0,0]}"#).unwrap_err();
+        assert!(e.to_string().contains("FeatureCollection"), "{e}");
+        let e = SiteModel::from_geojson(r#"{"type":"FeatureCollection","features":[]}"#).unwrap_err();
+        assert!(e.to_string().contains("zone is missing"), "{e}");
+    }
+}
