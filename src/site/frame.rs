@@ -78,7 +78,7 @@ impl LocalFrame {
         [e, n, u]
     }
 
-    fn from_enu(&self, e: f64, n: f64, u: f64) -> [f64; 3] {
+    fn enu_to_ecef(&self, e: f64, n: f64, u: f64) -> [f64; 3] {
         let o = self.origin_ecef;
         [
             o[0] - self.sin_lon * e - self.sin_lat * self.cos_lon * n + self.cos_lat * self.cos_lon * u,
@@ -98,7 +98,7 @@ impl LocalFrame {
         let mut u = -(east_m * east_m + north_m * north_m) / (2.0 * A_M);
         let mut out = (self.origin_lon_deg, self.origin_lat_deg);
         for _ in 0..4 {
-            let (lon, lat, h) = geodetic(self.from_enu(east_m, north_m, u));
+            let (lon, lat, h) = geodetic(self.enu_to_ecef(east_m, north_m, u));
             out = (lon, lat);
             // Move along the local up until the point is on the ground plane's height.
             u -= h - self.height_m;
