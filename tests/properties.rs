@@ -120,3 +120,82 @@ mod shadows {
         }
     }
 }
+
+mod invariance {
+    use geo::{Coord, Point, Polygon, Rotate, Translate};
+    use proptest::prelude::*;
+    use sunlot::shadow::{shadow_study, Study};
+    use sunlot::site::{Area, AreaKind, SiteModel, Status, Volume};
+    use sunlot::time::DeltaT;
+
+    fn site(blocks: &[(f64, f64, f64, f64)], rotation: f64) -> SiteModel {
+        let mut m = sunlot::demo::demo();
+        m.plan_rotation_deg = rotation;
+        m.walls.clear();
+        m.volumes = blocks
+            .iter()
+            .enumerate()
+            .map(|(i, &(x, y, w, h))| {
+                let xy = [(x, y), (x + w, y), (x + w, y + 0.6 * w), (x, y + 0.6 * w)];
+                Volume::from_vertices(
+                    &format!("v{i}"),
+                    if i % 2 == 0 { Status::Existing } else { Status::Proposed },
+                    &xy,
+                    0.0,
+                    h,
+                )
+                .unwrap()
+            })
+            .collect();
+        let ring = vec![(-30.0, -30.0), (30.0, -30.0), (30.0, 30.0), (-30.0, 30.0), (-30.0, -30.0)];
+        m.areas =
+            vec![Area::new("yard", "", AreaKind::Garden, Status::Existing, Polygon::new(ring.into(), vec![])).unwrap()];
+        m
+    }
+
+    fn figures(m: &SiteModel) -> Vec<f64> {
+        let t = chrono::DateTime::parse_from_rfc3339("2026-06-21T10:00:00Z").unwrap().to_utc();
+        match shadow_study(m, t, DeltaT::EspenakMeeus).unwrap() {
+            Study::Sun { areas, .. } => {
+                areas.iter().flat_map(|a| [a.existing_m2, a.proposed_m2, a.combined_m2]).collect()
+            }
+            Study::NoSun { .. } => vec![],
+        }
+    }
+
+    fn close(a: &[f64], b: &[f64]) -> bool {
+        a.len() == b.len() && a.iter().zip(b).all(|(x, y)| (x - y).abs() <= 1e-6 * x.abs().max(1.0))
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(60))]
+
+        /// Turning the whole plan and its rotation to true north together changes no figure.
+        #[test]
+        fn rotating_site_and_plan_rotation_together_changes_nothing(
+            blocks in prop::collection::vec((-25.0..20.0_f64, -25.0..20.0_f64, 3.0..10.0_f64, 2.0..20.0_f64), 1..4),
+            theta in -180.0..180.0_f64) {
+            let m = site(&blocks, 10.0);
+            let mut turned = m.clone();
+            // geo rotates counter-clockwise for positive angles; the plan turns clockwise by theta.
+            let c = Point::new(0.0, 0.0);
+            for v in &mut turned.volumes { v.footprint = v.footprint.rotate_around_point(-theta, c); }
+            for a in &mut turned.areas { a.polygon = a.polygon.rotate_around_point(-theta, c); }
+            turned.plan_rotation_deg = m.plan_rotation_deg + theta;
+            prop_assert!(close(&figures(&m), &figures(&turned)), "{:?} vs {:?}", figures(&m), figures(&turned));
+        }
+
+        /// Moving the whole plan changes no figure.
+        #[test]
+        fn translating_changes_nothing(
+            blocks in prop::collection::vec((-25.0..20.0_f64, -25.0..20.0_f64, 3.0..10.0_f64, 2.0..20.0_f64), 1..4),
+            dx in -500.0..500.0_f64, dy in -500.0..500.0_f64) {
+            let m = site(&blocks, 0.0);
+            let mut moved = m.clone();
+            let d = Coord { x: dx, y: dy };
+            for v in &mut moved.volumes { v.footprint = v.footprint.translate(d.x, d.y); }
+            for a in &mut moved.areas { a.polygon = a.polygon.translate(d.x, d.y); }
+            prop_assert!(close(&figures(&m), &figures(&moved)));
+        }
+    }
+}

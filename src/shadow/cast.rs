@@ -61,16 +61,25 @@ pub fn volume_shadow(volume: &Volume, offset: Coord<f64>, plane_m: f64) -> Multi
     let mut faces: Vec<Polygon<f64>> = Vec::new();
     faces.push(volume.footprint.translate(b.x, b.y).orient(Direction::Default));
     faces.push(volume.footprint.translate(t.x, t.y).orient(Direction::Default));
-    let rings = std::iter::once(volume.footprint.exterior()).chain(volume.footprint.interiors());
-    for ring in rings {
-        for edge in ring.lines() {
-            let quad = Polygon::new(
-                LineString::from(vec![edge.start + b, edge.end + b, edge.end + t, edge.start + t, edge.start + b]),
-                vec![],
-            );
-            if quad.unsigned_area() > SLIVER_M2 {
-                faces.push(quad.orient(Direction::Default));
-            }
+    // A point is in the shadow when the segment from it toward the sun meets the solid; if neither end
+    // lies in the top or underside shadow, the segment leaves the solid through a wall that faces away
+    // from the sun. So only walls whose outward normal points along the shadow offset are needed.
+    // With the exterior counter-clockwise and holes clockwise the solid is left of every edge and the
+    // outward normal of an edge (dx, dy) is (dy, −dx).
+    let along = Coord { x: t.x - b.x, y: t.y - b.y };
+    let oriented = volume.footprint.orient(Direction::Default);
+    let rings = std::iter::once(oriented.exterior()).chain(oriented.interiors());
+    for edge in rings.flat_map(|r| r.lines()) {
+        let d = edge.delta();
+        if d.y * along.x - d.x * along.y <= 0.0 {
+            continue;
+        }
+        let quad = Polygon::new(
+            LineString::from(vec![edge.start + b, edge.end + b, edge.end + t, edge.start + t, edge.start + b]),
+            vec![],
+        );
+        if quad.unsigned_area() > SLIVER_M2 {
+            faces.push(quad.orient(Direction::Default));
         }
     }
     unary_union(&faces)
