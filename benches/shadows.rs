@@ -15,7 +15,10 @@ mod native {
         let town = super::grid_town::grid();
         let extent = Rect::new(Coord { x: -10_000.0, y: -10_000.0 }, Coord { x: 10_000.0, y: 10_000.0 });
         c.bench_function("shadow_union_200_volumes", |b| {
-            b.iter(|| cast_shadows(black_box(&town), &[], 200.0, 25.0, 0.0, extent).unwrap())
+            b.iter(|| {
+                cast_shadows(black_box(&town), &[], 200.0, 25.0, &sunlot::shadow::Receiver::flat_ground(), extent)
+                    .unwrap()
+            })
         });
         let o = shadow_offset_per_m(200.0, 25.0).unwrap();
         c.bench_function("one_volume_shadow", |b| b.iter(|| volume_shadow(black_box(&town[0]), o, 0.0)));

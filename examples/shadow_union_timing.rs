@@ -48,7 +48,9 @@ fn time(volumes: &[Volume]) -> (f64, f64) {
     let mut area = 0.0;
     for _ in 0..30 {
         let t = Instant::now();
-        if let Ok(Shadows::Sun { union, .. }) = cast_shadows(volumes, &[], 200.0, 25.0, 0.0, extent) {
+        if let Ok(Shadows::Sun { union, .. }) =
+            cast_shadows(volumes, &[], 200.0, 25.0, &sunlot::shadow::Receiver::flat_ground(), extent)
+        {
             area = union.unsigned_area();
         }
         times.push(t.elapsed().as_secs_f64());

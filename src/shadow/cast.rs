@@ -3,6 +3,7 @@
 use geo::orient::{Direction, Orient};
 use geo::{unary_union, Area, BooleanOps, BoundingRect, Coord, LineString, MultiPolygon, Polygon, Rect, Translate};
 
+use super::ground::{volume_shadow_on, wall_shadow_on, Receiver};
 use crate::site::{Volume, Wall};
 
 /// Below this area a face's shadow is a sliver of an edge seen end-on and is left out, m².
@@ -108,6 +109,8 @@ pub fn wall_shadow(wall: &Wall, offset: Coord<f64>, plane_m: f64) -> MultiPolygo
 pub enum Shadows {
     /// The sun is not above the horizon: there is no direct sun, so no shadow is cast.
     NoSun,
+    /// The sun is up but behind the sloping ground: all of the ground is in its own shade.
+    GroundFacesAway,
     /// The sun is up.
     Sun {
         /// Each feature's shadow by id, volumes then walls in the order given, clipped to the extent.
@@ -119,8 +122,9 @@ pub enum Shadows {
     },
 }
 
-/// Casts the shadows of `volumes` and `walls` onto the plane at `plane_m`, for the sun at `azimuth_deg`
-/// (plan frame) and `altitude_deg`, clipped to `extent` (low sun casts very long shadows).
+/// Casts the shadows of `volumes` and `walls` onto the receiving plane (the ground, flat or sloping, or
+/// a plane parallel to it), for the sun at `azimuth_deg` (plan frame) and `altitude_deg`, clipped to
+/// `extent` (low sun casts very long shadows).
 ///
 /// # Errors
 /// [`ShadowError`] for a degenerate extent or non-finite angles.
@@ -129,10 +133,16 @@ pub fn cast_shadows(
     walls: &[Wall],
     azimuth_deg: f64,
     altitude_deg: f64,
-    plane_m: f64,
+    receiver: &Receiver,
     extent: Rect<f64>,
 ) -> Result<Shadows, ShadowError> {
-    for (field, value) in [("azimuth_deg", azimuth_deg), ("altitude_deg", altitude_deg), ("plane_m", plane_m)] {
+    let k = receiver.gradient;
+    for (field, value) in [
+        ("azimuth_deg", azimuth_deg),
+        ("altitude_deg", altitude_deg),
+        ("height_m", receiver.height_m),
+        ("gradient", k.x + k.y),
+    ] {
         if !value.is_finite() {
             return Err(ShadowError::NotFinite { field, value });
         }
@@ -145,12 +155,16 @@ pub fn cast_shadows(
         return Err(ShadowError::BadExtent { min_x: lo.x, max_x: hi.x, min_y: lo.y, max_y: hi.y });
     }
     let Some(offset) = shadow_offset_per_m(azimuth_deg, altitude_deg) else { return Ok(Shadows::NoSun) };
+    if !receiver.faces_sun(offset) {
+        return Ok(Shadows::GroundFacesAway);
+    }
+    let none = || MultiPolygon::new(vec![]);
     let frame = extent.to_polygon();
     let mut clipped = false;
     let shadows = volumes
         .iter()
-        .map(|v| (v.id.clone(), volume_shadow(v, offset, plane_m)))
-        .chain(walls.iter().map(|w| (w.id.clone(), wall_shadow(w, offset, plane_m))));
+        .map(|v| (v.id.clone(), volume_shadow_on(v, offset, receiver).unwrap_or_else(none)))
+        .chain(walls.iter().map(|w| (w.id.clone(), wall_shadow_on(w, offset, receiver).unwrap_or_else(none))));
     let mut per_feature = Vec::with_capacity(volumes.len() + walls.len());
     for (id, s) in shadows {
         let inside = s
@@ -288,16 +302,25 @@ mod tests {
     #[test]
     fn sun_down_and_low_sun() {
         let v = vec![block("b", 0.0, 0.0, 10.0, 10.0, 0.0, 20.0)];
-        assert_eq!(cast_shadows(&v, &[], 180.0, -2.0, 0.0, extent()).unwrap(), Shadows::NoSun);
-        let Shadows::Sun { clipped, union, .. } = cast_shadows(&v, &[], 180.0, 0.5, 0.0, extent()).unwrap() else {
+        assert_eq!(cast_shadows(&v, &[], 180.0, -2.0, &Receiver::flat_ground(), extent()).unwrap(), Shadows::NoSun);
+        let Shadows::Sun { clipped, union, .. } =
+            cast_shadows(&v, &[], 180.0, 0.5, &Receiver::flat_ground(), extent()).unwrap()
+        else {
             panic!()
         };
         assert!(clipped, "a 20 m block at 0.5° casts 2.3 km");
         assert!(union.bounding_rect().unwrap().max().y <= 1_000.0 + 1e-9);
-        let Shadows::Sun { clipped, .. } = cast_shadows(&v, &[], 180.0, 40.0, 0.0, extent()).unwrap() else { panic!() };
+        let Shadows::Sun { clipped, .. } =
+            cast_shadows(&v, &[], 180.0, 40.0, &Receiver::flat_ground(), extent()).unwrap()
+        else {
+            panic!()
+        };
         assert!(!clipped);
         let bad = Rect::new(Coord { x: 0.0, y: 0.0 }, Coord { x: 0.0, y: 10.0 });
-        assert!(matches!(cast_shadows(&v, &[], 180.0, 40.0, 0.0, bad), Err(ShadowError::BadExtent { .. })));
+        assert!(matches!(
+            cast_shadows(&v, &[], 180.0, 40.0, &Receiver::flat_ground(), bad),
+            Err(ShadowError::BadExtent { .. })
+        ));
     }
 
     #[test]

@@ -9,7 +9,8 @@
 use geo::{Contains, Coord, Line, Point, Polygon};
 use serde::Serialize;
 
-use super::cast::ShadowError;
+use super::cast::{shadow_offset_per_m, ShadowError};
+use super::ground::{volume_levels_m, Receiver};
 use crate::site::{Volume, Wall};
 
 /// A stretch shorter than this counts as touching, not crossing, metres.
@@ -102,6 +103,7 @@ pub fn exposure(
     point: ViewPoint,
     volumes: &[Volume],
     walls: &[Wall],
+    ground: &Receiver,
     azimuth_deg: f64,
     altitude_deg: f64,
 ) -> Result<Exposure, ShadowError> {
@@ -122,12 +124,17 @@ pub fn exposure(
     let rise = altitude_deg.to_radians().tan(); // metres up per metre along
     let origin = Coord { x: point.x_m, y: point.y_m };
     let dir = toward(azimuth_deg);
+    if shadow_offset_per_m(azimuth_deg, altitude_deg).is_some_and(|o| !ground.faces_sun(o)) {
+        return Ok(Exposure::Shaded { by: "ground".into() });
+    }
+    let z0 = ground.ground_m(origin) + point.z_m;
     for v in volumes {
-        let d_hi = (v.top_m - point.z_m) / rise;
+        let (zb, zt) = volume_levels_m(v, ground);
+        let d_hi = (zt - z0) / rise;
         if d_hi <= 0.0 {
             continue; // the ray is already above the top
         }
-        let d_lo = ((v.base_m - point.z_m) / rise).max(0.0);
+        let d_lo = ((zb - z0) / rise).max(0.0);
         if inside_stretches(&v.footprint, origin, dir, d_hi).iter().any(|&(a, b)| b.min(d_hi) - a.max(d_lo) > TOUCH_M) {
             return Ok(Exposure::Shaded { by: v.id.clone() });
         }
@@ -135,7 +142,7 @@ pub fn exposure(
     for w in walls {
         for seg in w.line.lines() {
             if let Some(d) = crossing(&seg, origin, dir) {
-                if point.z_m + d * rise < w.height_m {
+                if z0 + d * rise < ground.ground_m(origin + dir * d) + w.height_m {
                     return Ok(Exposure::Shaded { by: w.id.clone() });
                 }
             }
@@ -155,6 +162,7 @@ pub fn skyline(
     point: ViewPoint,
     volumes: &[Volume],
     walls: &[Wall],
+    ground: &Receiver,
     step_deg: f64,
     reach_m: f64,
 ) -> Result<Vec<(f64, f64)>, ShadowError> {
@@ -167,22 +175,28 @@ pub fn skyline(
         }
     }
     let origin = Coord { x: point.x_m, y: point.y_m };
+    let z0 = ground.ground_m(origin) + point.z_m;
+    let levels: Vec<(f64, f64)> = volumes.iter().map(|v| volume_levels_m(v, ground)).collect();
     let n = (360.0 / step_deg).round() as usize;
     let mut out = Vec::with_capacity(n);
     for k in 0..n {
         let az = k as f64 * step_deg;
         let dir = toward(az);
-        let mut best = 0.0_f64;
-        for v in volumes.iter().filter(|v| v.top_m > point.z_m) {
+        // Sloping ground rises above the horizontal uphill: atan(k · direction).
+        let uphill = ground.gradient.x * dir.x + ground.gradient.y * dir.y;
+        let mut best = uphill.atan().to_degrees().max(0.0);
+        for (v, &(_, zt)) in volumes.iter().zip(&levels).filter(|(_, l)| l.1 > z0) {
             if let Some(&(near, _)) = inside_stretches(&v.footprint, origin, dir, reach_m).first() {
-                let alt = (v.top_m - point.z_m).atan2(near).to_degrees();
-                best = best.max(alt);
+                best = best.max((zt - z0).atan2(near).to_degrees());
             }
         }
-        for w in walls.iter().filter(|w| w.height_m > point.z_m) {
+        for w in walls {
             for seg in w.line.lines() {
                 if let Some(d) = crossing(&seg, origin, dir).filter(|&d| d <= reach_m) {
-                    best = best.max((w.height_m - point.z_m).atan2(d).to_degrees());
+                    let top = ground.ground_m(origin + dir * d) + w.height_m;
+                    if top > z0 {
+                        best = best.max((top - z0).atan2(d).to_degrees());
+                    }
                 }
             }
         }
@@ -197,6 +211,22 @@ mod tests {
     use crate::site::Status;
     use approx::assert_abs_diff_eq;
     use geo::LineString;
+
+    fn flat() -> Receiver {
+        Receiver::flat_ground()
+    }
+
+    #[test]
+    fn slopes_rise_in_the_skyline_and_can_hide_the_sun() {
+        // Ground rising 10° to the north (faces south): the skyline due north is at 10°, due south 0°.
+        let g = Receiver::on(&crate::site::Ground { slope_deg: 10.0, aspect_deg: 180.0 }, 0.0, 0.0);
+        let s = skyline(ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 1.5 }, &[], &[], &g, 90.0, 1_000.0).unwrap();
+        assert_abs_diff_eq!(s[0].1, 10.0, epsilon = 1e-9);
+        assert_eq!(s[2].1, 0.0);
+        let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 1.5 };
+        assert_eq!(exposure(p, &[], &[], &g, 0.0, 9.0).unwrap(), Exposure::Shaded { by: "ground".into() });
+        assert_eq!(exposure(p, &[], &[], &g, 0.0, 11.0).unwrap(), Exposure::Sunlit);
+    }
 
     fn block(x0: f64, y0: f64, w: f64, d: f64, base: f64, top: f64) -> Volume {
         Volume::from_vertices(
@@ -215,14 +245,14 @@ mod tests {
         // blocked while tan a < 10 / 10, i.e. below 45° (analytic).
         let v = vec![block(-20.0, 10.0, 40.0, 10.0, 0.0, 10.0)];
         let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 };
-        assert_eq!(exposure(p, &v, &[], 0.0, 44.9).unwrap(), Exposure::Shaded { by: "block".into() });
-        assert_eq!(exposure(p, &v, &[], 0.0, 45.1).unwrap(), Exposure::Sunlit);
-        assert_eq!(exposure(p, &v, &[], 180.0, 10.0).unwrap(), Exposure::Sunlit);
-        assert_eq!(exposure(p, &v, &[], 0.0, -1.0).unwrap(), Exposure::NoSun);
+        assert_eq!(exposure(p, &v, &[], &flat(), 0.0, 44.9).unwrap(), Exposure::Shaded { by: "block".into() });
+        assert_eq!(exposure(p, &v, &[], &flat(), 0.0, 45.1).unwrap(), Exposure::Sunlit);
+        assert_eq!(exposure(p, &v, &[], &flat(), 180.0, 10.0).unwrap(), Exposure::Sunlit);
+        assert_eq!(exposure(p, &v, &[], &flat(), 0.0, -1.0).unwrap(), Exposure::NoSun);
         // A window 5 m up needs only tan a > 5 / 10.
         let w = ViewPoint { z_m: 5.0, ..p };
-        assert_eq!(exposure(w, &v, &[], 0.0, 27.0).unwrap(), Exposure::Sunlit);
-        assert!(matches!(exposure(w, &v, &[], 0.0, 26.0).unwrap(), Exposure::Shaded { .. }));
+        assert_eq!(exposure(w, &v, &[], &flat(), 0.0, 27.0).unwrap(), Exposure::Sunlit);
+        assert!(matches!(exposure(w, &v, &[], &flat(), 0.0, 26.0).unwrap(), Exposure::Shaded { .. }));
     }
 
     #[test]
@@ -230,8 +260,8 @@ mod tests {
         // Slab 6–7 m up, from y = 10 to 14: the ray at 20° reaches 6 m only after 16.5 m, beyond it.
         let v = vec![block(-20.0, 10.0, 40.0, 4.0, 6.0, 7.0)];
         let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 };
-        assert_eq!(exposure(p, &v, &[], 0.0, 20.0).unwrap(), Exposure::Sunlit);
-        assert!(matches!(exposure(p, &v, &[], 0.0, 32.0).unwrap(), Exposure::Shaded { .. }));
+        assert_eq!(exposure(p, &v, &[], &flat(), 0.0, 20.0).unwrap(), Exposure::Sunlit);
+        assert!(matches!(exposure(p, &v, &[], &flat(), 0.0, 32.0).unwrap(), Exposure::Shaded { .. }));
         // 6.2–8.7 m over y 10–14
     }
 
@@ -239,8 +269,8 @@ mod tests {
     fn a_point_on_a_facade_faces_away_from_its_own_wall() {
         let v = vec![block(0.0, 0.0, 10.0, 10.0, 0.0, 20.0)];
         let sill = ViewPoint { x_m: 5.0, y_m: 0.0, z_m: 1.0 }; // on the south wall
-        assert_eq!(exposure(sill, &v, &[], 180.0, 30.0).unwrap(), Exposure::Sunlit);
-        assert!(matches!(exposure(sill, &v, &[], 0.0, 30.0).unwrap(), Exposure::Shaded { .. }));
+        assert_eq!(exposure(sill, &v, &[], &flat(), 180.0, 30.0).unwrap(), Exposure::Sunlit);
+        assert!(matches!(exposure(sill, &v, &[], &flat(), 0.0, 30.0).unwrap(), Exposure::Shaded { .. }));
     }
 
     #[test]
@@ -252,14 +282,17 @@ mod tests {
             height_m: 2.0,
         };
         let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 };
-        assert!(matches!(exposure(p, &[], std::slice::from_ref(&wall), 0.0, 40.0).unwrap(), Exposure::Shaded { .. }));
-        assert_eq!(exposure(p, &[], &[wall], 0.0, 46.0).unwrap(), Exposure::Sunlit);
+        assert!(matches!(
+            exposure(p, &[], std::slice::from_ref(&wall), &flat(), 0.0, 40.0).unwrap(),
+            Exposure::Shaded { .. }
+        ));
+        assert_eq!(exposure(p, &[], &[wall], &flat(), 0.0, 46.0).unwrap(), Exposure::Sunlit);
     }
 
     #[test]
     fn skyline_of_a_block_to_the_north() {
         let v = vec![block(-10.0, 10.0, 20.0, 10.0, 0.0, 10.0)];
-        let s = skyline(ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 }, &v, &[], 1.0, 1_000.0).unwrap();
+        let s = skyline(ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 }, &v, &[], &flat(), 1.0, 1_000.0).unwrap();
         assert_eq!(s.len(), 360);
         assert_abs_diff_eq!(s[0].1, 45.0, epsilon = 1e-9); // due north: atan(10 / 10)
                                                            // At 30° east of north the ray meets the south face at 10 / cos 30° (analytic).

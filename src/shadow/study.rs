@@ -6,6 +6,7 @@ use geo::{Area as _, BooleanOps, BoundingRect, Coord, MultiPolygon, Rect};
 use serde::Serialize;
 
 use super::cast::{cast_shadows, ShadowError, Shadows};
+use super::ground::Receiver;
 use crate::site::{SiteModel, Status};
 use crate::solar::{solar_position, Atmosphere, InputError, SolarPosition};
 use crate::time::DeltaT;
@@ -49,6 +50,8 @@ impl AreaShade {
 pub enum Study {
     /// The sun is not above the horizon at that moment.
     NoSun { sun: SolarPosition },
+    /// The sun is up but behind the sloping ground: the whole site is in the slope's own shade.
+    SunBehindGround { sun: SolarPosition },
     /// The sun is up.
     Sun {
         /// The sun's position (true azimuth).
@@ -110,7 +113,8 @@ pub fn analysis_extent(model: &SiteModel) -> Option<Rect<f64>> {
     Some(Rect::new(lo - Coord { x: m, y: m }, hi + Coord { x: m, y: m }))
 }
 
-/// Shadows of the site at `instant`, on the ground, with each area's shade.
+/// Shadows of the site at `instant` on its ground (flat or sloping), with each area's shade. Areas are
+/// measured in plan (horizontal projection), as site plans give them.
 ///
 /// # Errors
 /// [`StudyError`] when the site has nothing to cast or the moment is out of range.
@@ -120,11 +124,13 @@ pub fn shadow_study(model: &SiteModel, instant: DateTime<Utc>, delta_t: DeltaT) 
         .filter(|_| !(model.volumes.is_empty() && model.walls.is_empty()))
         .ok_or(StudyError::NothingToCast)?;
     let plan_az = model.plan_azimuth_deg(sun.azimuth_deg);
-    let Shadows::Sun { per_feature, clipped, .. } =
-        cast_shadows(&model.volumes, &model.walls, plan_az, sun.altitude_deg, 0.0, extent)?
-    else {
-        return Ok(Study::NoSun { sun });
-    };
+    let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
+    let (per_feature, clipped) =
+        match cast_shadows(&model.volumes, &model.walls, plan_az, sun.altitude_deg, &receiver, extent)? {
+            Shadows::NoSun => return Ok(Study::NoSun { sun }),
+            Shadows::GroundFacesAway => return Ok(Study::SunBehindGround { sun }),
+            Shadows::Sun { per_feature, clipped, .. } => (per_feature, clipped),
+        };
     let statuses = model.volumes.iter().map(|v| v.status).chain(model.walls.iter().map(|w| w.status));
     let per_feature: Vec<(String, Status, MultiPolygon<f64>)> =
         per_feature.into_iter().zip(statuses).map(|((id, s), st)| (id, st, s)).collect();

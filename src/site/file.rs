@@ -3,18 +3,20 @@
 //! ```json
 //! { "sunlot_site": 1, "name": "…",
 //!   "location": { "latitude_deg": 52.62, "longitude_deg": -1.87, "elevation_m": 118, "zone": "Europe/London" },
-//!   "plan_rotation_deg": 0,
+//!   "plan_rotation_deg": 0, "ground": { "slope_deg": 0, "aspect_deg": 180 },
 //!   "areas":   [ { "id": "garden-12", "kind": "garden", "status": "existing", "outline": [[x, y], …], "holes": [] } ],
 //!   "volumes": [ { "id": "block-a", "status": "proposed", "base_m": 0, "top_m": 12.5, "outline": [[x, y], …] } ],
 //!   "walls":   [ { "id": "fence-1", "status": "existing", "height_m": 1.8, "line": [[x, y], …] } ] }
 //! ```
 //! Plan x runs to the plan's right and y to its top, in metres; `plan_rotation_deg` is the angle,
-//! clockwise, from the plan's top to true north (0 when the plan is drawn to true north).
+//! clockwise, from the plan's top to true north (0 when the plan is drawn to true north). `ground` is
+//! optional (flat): `aspect_deg` is the direction the slope faces, downhill, from true north.
 
 use geo::{Coord, LineString, Polygon};
 use serde::{Deserialize, Serialize};
 
 use super::massing::{check_ring, SiteError, Status, Volume, Wall};
+use super::terrain::Ground;
 use crate::solar::{InputError, Site};
 use crate::time::{TimeError, Zone};
 
@@ -36,6 +38,9 @@ pub enum SiteFileError {
     /// A zone that is neither IANA nor an offset.
     #[error("site file: location: {0}")]
     Zone(TimeError),
+    /// A bad ground slope.
+    #[error("site file: {0}")]
+    Ground(String),
     /// A plan rotation that is not a finite number.
     #[error("site file: plan_rotation_deg must be a finite number, got {0}")]
     Rotation(f64),
@@ -106,6 +111,8 @@ pub struct SiteModel {
     pub zone: Zone,
     /// Angle, clockwise, from the plan's top to true north, degrees.
     pub plan_rotation_deg: f64,
+    /// The ground's slope (flat by default).
+    pub ground: Ground,
     /// Lots, gardens, terraces and other areas.
     pub areas: Vec<Area>,
     /// Massing volumes, existing and proposed.
@@ -151,6 +158,8 @@ struct SiteFile {
     location: LocationFile,
     #[serde(default)]
     plan_rotation_deg: f64,
+    #[serde(default, skip_serializing_if = "is_flat")]
+    ground: Ground,
     #[serde(default)]
     areas: Vec<AreaFile>,
     #[serde(default)]
@@ -170,6 +179,10 @@ struct LocationFile {
 }
 
 type Ring = Vec<[f64; 2]>;
+
+fn is_flat(g: &Ground) -> bool {
+    g.slope_deg == 0.0
+}
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -230,6 +243,7 @@ impl SiteFile {
         if !self.plan_rotation_deg.is_finite() {
             return Err(SiteFileError::Rotation(self.plan_rotation_deg));
         }
+        let ground = self.ground.validated().map_err(SiteFileError::Ground)?;
         let mut ids = std::collections::HashSet::new();
         let all_ids = self
             .areas
@@ -268,6 +282,7 @@ impl SiteFile {
             location,
             zone,
             plan_rotation_deg: self.plan_rotation_deg,
+            ground,
             areas,
             volumes,
             walls,
@@ -285,6 +300,7 @@ impl SiteFile {
                 zone: m.zone.to_string(),
             },
             plan_rotation_deg: m.plan_rotation_deg,
+            ground: m.ground,
             areas: m
                 .areas
                 .iter()
@@ -330,7 +346,7 @@ mod tests {
     const SMALL: &str = r#"{
       "sunlot_site": 1, "name": "test",
       "location": { "latitude_deg": 52.0, "longitude_deg": -1.0, "elevation_m": 50, "zone": "Europe/London" },
-      "plan_rotation_deg": 12.5,
+      "plan_rotation_deg": 12.5, "ground": { "slope_deg": 4, "aspect_deg": 200 },
       "areas": [ { "id": "garden", "kind": "garden", "status": "existing", "outline": [[0,0],[10,0],[10,10],[0,10]] } ],
       "volumes": [ { "id": "house", "status": "existing", "base_m": 0, "top_m": 7.5,
                      "outline": [[0,20],[10,20],[10,30],[0,30]], "holes": [] },

@@ -1,7 +1,8 @@
 //! Sites as GeoJSON (RFC 7946: WGS84 longitude and latitude), converted to and from the local frame.
 //!
 //! A site is a FeatureCollection with a foreign member `"sunlot": {"zone": "Europe/London",
-//! "elevation_m": 118, "origin": [lon, lat], "name": "…"}` (`origin` defaults to the centre of the
+//! "elevation_m": 118, "origin": [lon, lat], "name": "…", "ground": {"slope_deg": 0, "aspect_deg": 0}}`
+//! (`ground` defaults to flat, `origin` to the centre of the
 //! features' bounding box; `elevation_m` to 0). Each feature says what it is in its properties — see
 //! [`PROPERTY_NAMES`]. Volumes and areas are Polygons or MultiPolygons (each part its own feature, id
 //! suffixed `#2`, `#3`, …); walls are LineStrings or MultiLineStrings. Imported sites use the east-north
@@ -14,6 +15,7 @@ use serde_json::{json, Value};
 use super::file::{Area, AreaKind, SiteModel};
 use super::frame::LocalFrame;
 use super::massing::{SiteError, Status, Volume, Wall};
+use super::terrain::Ground;
 use crate::solar::{InputError, Site};
 use crate::time::{TimeError, Zone};
 
@@ -91,9 +93,23 @@ impl SiteModel {
             .map_err(|e: InputError| GeoJsonError::Location(e.to_string()))?;
         let frame = LocalFrame::new(origin.0, origin.1, elevation_m);
         let name = meta.get("name").and_then(Value::as_str).unwrap_or_default().to_string();
-
-        let mut model =
-            SiteModel { name, location, zone, plan_rotation_deg: 0.0, areas: vec![], volumes: vec![], walls: vec![] };
+        let ground: Ground = match meta.get("ground") {
+            None | Some(Value::Null) => Ground::flat(),
+            Some(g) => serde_json::from_value::<Ground>(g.clone())
+                .map_err(|e| GeoJsonError::Location(format!("ground: {e}")))?
+                .validated()
+                .map_err(GeoJsonError::Location)?,
+        };
+        let mut model = SiteModel {
+            name,
+            location,
+            zone,
+            plan_rotation_deg: 0.0,
+            ground,
+            areas: vec![],
+            volumes: vec![],
+            walls: vec![],
+        };
         let mut ids = std::collections::HashSet::new();
         for (index, f) in fc.features.iter().enumerate() {
             let props = f.properties.clone().unwrap_or_default();
@@ -220,7 +236,7 @@ impl SiteModel {
         members.insert(
             "sunlot".into(),
             json!({"name": self.name, "zone": self.zone.to_string(), "elevation_m": self.location.elevation_m,
-                   "origin": [self.location.longitude_deg, self.location.latitude_deg]}),
+                   "origin": [self.location.longitude_deg, self.location.latitude_deg], "ground": self.ground}),
         );
         fc.foreign_members = Some(members);
         serde_json::to_string_pretty(&fc).unwrap_or_default()

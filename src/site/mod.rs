@@ -5,8 +5,10 @@ mod file;
 mod frame;
 mod geojson_io;
 mod massing;
+mod terrain;
 
 pub use file::{Area, AreaKind, SiteFileError, SiteModel, SITE_FILE_VERSION};
 pub use frame::LocalFrame;
 pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};
 pub use massing::{SiteError, Status, Volume, Wall};
+pub use terrain::Ground;

@@ -1,7 +1,7 @@
 //! `sunlot point`: direct sun at a point of a site, at a moment or through a day, and its skyline.
 
 use clap::Args;
-use sunlot::shadow::{exposure, skyline, Exposure, ViewPoint};
+use sunlot::shadow::{exposure, skyline, Exposure, Receiver, ViewPoint};
 use sunlot::solar::{Atmosphere, Ephemeris};
 
 use crate::args::{self, input_message, DeltaTArgs, Fold, When, WhenArgs, ZoneArgs};
@@ -49,8 +49,15 @@ pub fn run(a: &PointArgs) -> Result<String, String> {
     let p = parse_point(&a.at)?;
     if let Some(step) = a.skyline_step_deg {
         let reach = sunlot::shadow::analysis_extent(&model).map_or(1_000.0, |r| r.width().hypot(r.height()));
-        let sky =
-            skyline(p, &model.volumes, &model.walls, step, reach).map_err(|e| format!("--skyline-step-deg: {e}"))?;
+        let sky = skyline(
+            p,
+            &model.volumes,
+            &model.walls,
+            &Receiver::on(&model.ground, model.plan_rotation_deg, 0.0),
+            step,
+            reach,
+        )
+        .map_err(|e| format!("--skyline-step-deg: {e}"))?;
         let mut t = Table::new(
             format!("Skyline from ({}, {}, {} m) at {}", p.x_m, p.y_m, p.z_m, model.name),
             vec!["azimuth_deg", "obstruction_altitude_deg"],
@@ -77,11 +84,19 @@ pub fn run(a: &PointArgs) -> Result<String, String> {
     let mut eph = Ephemeris::new();
     let delta_t = a.delta_t.delta_t()?;
     let mut sunlit_steps = 0_u32;
+    let ground = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
     for at in instants {
         let sun =
             eph.sun_at(at, delta_t).map_err(|e| input_message(&e))?.observe(&model.location, &Atmosphere::default());
-        let e = exposure(p, &model.volumes, &model.walls, model.plan_azimuth_deg(sun.azimuth_deg), sun.altitude_deg)
-            .map_err(|e| e.to_string())?;
+        let e = exposure(
+            p,
+            &model.volumes,
+            &model.walls,
+            &ground,
+            model.plan_azimuth_deg(sun.azimuth_deg),
+            sun.altitude_deg,
+        )
+        .map_err(|e| e.to_string())?;
         let (lit, by) = match e {
             Exposure::NoSun if step_min.is_some() => continue,
             Exposure::NoSun => ("sun down", String::new()),

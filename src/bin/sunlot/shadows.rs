@@ -91,14 +91,23 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
         args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
     let study = shadow_study(&model, t, a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
     let when = args::rfc3339(t, &zone);
-    let Study::Sun { sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent } = study
-    else {
-        return Ok(match a.format {
-            ShadowFormat::Geojson => {
-                serde_json::to_string_pretty(&FeatureCollection::new(vec![])).unwrap_or_default() + "\n"
-            }
-            _ => format!("At {when} the sun is below the horizon at {}: no direct sun, no shadows.\n", model.name),
-        });
+    let (sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent) = match study {
+        Study::Sun { sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent } => {
+            (sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent)
+        }
+        other => {
+            let why = if matches!(other, Study::NoSun { .. }) {
+                "the sun is below the horizon: no direct sun, no shadows"
+            } else {
+                "the sun is behind the sloping ground: the whole site is in the slope's own shade"
+            };
+            return Ok(match a.format {
+                ShadowFormat::Geojson => {
+                    serde_json::to_string_pretty(&FeatureCollection::new(vec![])).unwrap_or_default() + "\n"
+                }
+                _ => format!("At {when} at {}, {why}.\n", model.name),
+            });
+        }
     };
     if a.format == ShadowFormat::Geojson {
         let mut features = Vec::new();
