@@ -218,13 +218,17 @@ fn shadows_of_the_demo_site_as_table_and_geojson() {
     let fc: geojson::FeatureCollection = stdout(&o).parse::<geojson::GeoJson>().unwrap().try_into().unwrap();
     let layers: Vec<String> =
         fc.features.iter().map(|f| f.properties.as_ref().unwrap()["layer"].as_str().unwrap().to_string()).collect();
-    assert_eq!(layers.iter().filter(|l| *l == "feature_shadow").count(), 7); // 5 volumes + 2 fences
+    assert_eq!(layers.iter().filter(|l| *l == "feature_shadow").count(), 10); // 5 volumes + 5 fences
     assert_eq!(layers.iter().filter(|l| *l == "shadow_union").count(), 3);
-    assert_eq!(layers.iter().filter(|l| *l == "area").count(), 4);
+    assert_eq!(layers.iter().filter(|l| *l == "area").count(), 7);
 
-    let night = sunlot(&["shadows", "--demo", "--local", "2026-12-21T22:00"], None);
+    let night = sunlot(&["shadows", "--demo", "--local", "2026-12-21T22:00", "--format", "table"], None);
     assert!(night.status.success());
     assert!(stdout(&night).contains("below the horizon"));
+    let night = sunlot(&["shadows", "--demo", "--local", "2026-12-21T22:00"], None);
+    let v: serde_json::Value = serde_json::from_str(&stdout(&night)).unwrap();
+    assert_eq!(v["features"].as_array().unwrap().len(), 0);
+    assert!(v["sunlot"]["sun"].as_str().unwrap().contains("below the horizon"));
 }
 
 #[test]

@@ -21,7 +21,7 @@ use crate::time::{TimeError, Zone};
 
 /// The feature properties sunlot reads and writes, with their meaning.
 pub const PROPERTY_NAMES: &[(&str, &str)] = &[
-    ("sunlot", "what the feature is: \"volume\", \"area\" or \"wall\" (features without it are ignored)"),
+    ("sunlot", "what the feature is: \"volume\", \"area\" or \"wall\" (required on every feature)"),
     ("id", "unique id (else the feature's own id, else feature-N)"),
     ("name", "display name"),
     ("status", "\"existing\" or \"proposed\" (default existing)"),
@@ -113,7 +113,13 @@ impl SiteModel {
         let mut ids = std::collections::HashSet::new();
         for (index, f) in fc.features.iter().enumerate() {
             let props = f.properties.clone().unwrap_or_default();
-            let Some(what) = props.get("sunlot").and_then(Value::as_str).map(str::to_string) else { continue };
+            let Some(what) = props.get("sunlot").and_then(Value::as_str).map(str::to_string) else {
+                return Err(GeoJsonError::Property {
+                    feature: format!("#{index}"),
+                    property: "sunlot",
+                    problem: "is missing: say whether the feature is a \"volume\", an \"area\" or a \"wall\"".into(),
+                });
+            };
             let base_id = props
                 .get("id")
                 .and_then(Value::as_str)
@@ -400,9 +406,9 @@ mod tests {
         assert!(e.to_string().contains("status"), "{e}");
         let e = SiteModel::from_geojson(&doc(poly, r#"{"sunlot":"volume","id":"ok","top_m":3}"#)).unwrap_err();
         assert!(e.to_string().contains("more than one"), "{e}");
-        // Unrelated features (no "sunlot" property) are left alone, and the good one is read.
-        let m = SiteModel::from_geojson(&doc(point, r#"{"note":"a tree"}"#)).unwrap();
-        assert_eq!(m.volumes.len(), 1);
+        // A feature that does not say what it is is refused, not dropped.
+        let e = SiteModel::from_geojson(&doc(point, r#"{"note":"a tree"}"#)).unwrap_err();
+        assert!(e.to_string().contains("#1") && e.to_string().contains("\"sunlot\" is missing"), "{e}");
         let e = SiteModel::from_geojson(r#"{"type":"Point","coordinates":[0,0]}"#).unwrap_err();
         assert!(e.to_string().contains("FeatureCollection"), "{e}");
         let e = SiteModel::from_geojson(r#"{"type":"FeatureCollection","features":[]}"#).unwrap_err();

@@ -80,7 +80,7 @@ pub struct ShadowsArgs {
     #[command(flatten)]
     pub delta_t: DeltaTArgs,
     /// Output.
-    #[arg(long, value_enum, default_value_t = ShadowFormat::Table)]
+    #[arg(long, value_enum, default_value_t = ShadowFormat::Geojson)]
     pub format: ShadowFormat,
 }
 
@@ -103,7 +103,11 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
             };
             return Ok(match a.format {
                 ShadowFormat::Geojson => {
-                    serde_json::to_string_pretty(&FeatureCollection::new(vec![])).unwrap_or_default() + "\n"
+                    let mut fc = FeatureCollection::new(vec![]);
+                    let mut members = JsonObject::new();
+                    members.insert("sunlot".into(), json!({"time": when, "sun": why}));
+                    fc.foreign_members = Some(members);
+                    serde_json::to_string_pretty(&fc).unwrap_or_default() + "\n"
                 }
                 _ => format!("At {when} at {}, {why}.\n", model.name),
             });
