@@ -186,8 +186,13 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
             Cell::num(100.0 * a.fraction(a.combined_m2), 1),
         ]);
     }
+    let ground = if model.ground.slope_deg > 0.0 {
+        format!("on ground sloping {}° and facing {}°; areas in plan", model.ground.slope_deg, model.ground.aspect_deg)
+    } else {
+        "on flat ground".to_string()
+    };
     t.notes.push(format!(
-        "Sun altitude {:.2}°, azimuth {:.2}° from true north; shadows on flat ground.",
+        "Sun altitude {:.2}°, azimuth {:.2}° from true north; shadows {ground}.",
         sun.altitude_deg, sun.azimuth_deg
     ));
     if clipped {
