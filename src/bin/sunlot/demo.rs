@@ -3,6 +3,7 @@
 use chrono::Datelike;
 use clap::Args;
 use sunlot::demo::{demo, demo_site, demo_zone};
+use sunlot::shadow::{shadow_study, Study};
 use sunlot::solar::{day_events, season_instants, Atmosphere, SunAtInstant};
 use sunlot::time::DeltaT;
 
@@ -78,6 +79,38 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         out += &table.render(Format::Table);
         out.push('\n');
     }
+    let model = demo();
+    let date = zone.local_date(seasons.march_equinox);
+    let mut shade = Table::new(
+        format!("Share of each area in shadow on {date} (March equinox): existing → with the proposal"),
+        vec!["area", "09:00", "12:00", "15:00"],
+    );
+    let mut cells: Vec<Vec<Cell>> = model.areas.iter().map(|a| vec![Cell::text(&a.id)]).collect();
+    for hour in [9, 12, 15] {
+        let wall = date.and_hms_opt(hour, 0, 0).ok_or("bad hour")?;
+        let t = zone.resolve(wall, sunlot::time::Fold::Earlier).map_err(|e| e.to_string())?;
+        let study = shadow_study(&model, t, dt).map_err(|e| e.to_string())?;
+        for (row, a) in cells.iter_mut().zip(&model.areas) {
+            let text = match &study {
+                Study::Sun { areas, .. } => areas
+                    .iter()
+                    .find(|s| s.id == a.id)
+                    .map(|s| {
+                        format!("{:.0}% → {:.0}%", 100.0 * s.fraction(s.existing_m2), 100.0 * s.fraction(s.combined_m2))
+                    })
+                    .unwrap_or_default(),
+                _ => "no sun".into(),
+            };
+            row.push(Cell::text(text));
+        }
+    }
+    shade.rows = cells;
+    shade.notes.push(
+        "From demo-site/hollin-vale.site.json; try: sunlot shadows --demo --local 2026-03-20T12:00 --format table"
+            .into(),
+    );
+    out += &shade.render(Format::Table);
+    out.push('\n');
     out += "Indicative results from the NREL SPA; the site is invented. Local planning codes and a licensed\nprofessional's assessment govern any planning decision.\n";
     Ok(out)
 }
