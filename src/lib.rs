@@ -19,10 +19,12 @@
 //! - [`sky`]: clear-sky irradiance (Bird), air mass (Kasten–Young), tilted surfaces.
 //! - [`site`]: the site model: massing volumes and walls in the plan frame.
 //! - [`shadow`]: exact shadow polygons of the massing and their union.
+//! - [`exposure`]: analysis grids, exact rasterising, hours of direct sun per cell.
 //! - [`demo`]: the invented demo scenario.
 //! - `web` (wasm32 only): the JavaScript facade.
 
 pub mod demo;
+pub mod exposure;
 pub mod shadow;
 pub mod site;
 pub mod sky;
