@@ -292,3 +292,28 @@ fn point_in_sun_and_skyline() {
     let o = sunlot(&["point", "--demo", "--at", "14,48.5", "--local", "2026-12-21T12:00"], None);
     assert!(!o.status.success() && stderr(&o).contains("--at"), "{}", stderr(&o));
 }
+
+#[test]
+fn sun_hours_summary_and_cells() {
+    let o = sunlot(&["hours", "--demo", "--area", "garden-16", "--date", "2026-03-20", "--format", "json"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(v["cells"], 784); // 7 m × 28 m at 0.5 m
+    let open = v["open_site_h"].as_f64().unwrap();
+    assert!((open - 12.17).abs() < 0.1, "equinox day length at 52.6° N is about 12 h 10 min: {open}");
+    assert!(v["max_h"].as_f64().unwrap() <= open + 1e-9 && v["min_h"].as_f64().unwrap() >= 0.0);
+    let o = sunlot(
+        &["hours", "--demo", "--area", "garden-16", "--date", "2026-03-20", "--cell-m", "1", "--format", "csv"],
+        None,
+    );
+    assert_eq!(stdout(&o).lines().count(), 1 + 7 * 28);
+    for (args, want) in [
+        (vec!["hours", "--demo", "--date", "2026-03-20", "--window", "15:00-09:00"], "inverted"),
+        (vec!["hours", "--demo", "--date", "2026-03-20", "--cell-m", "0.001"], "cell_m must be at least 0.01"),
+        (vec!["hours", "--demo", "--date", "2026-03-20", "--area", "moat"], "no area \"moat\""),
+        (vec!["hours", "--demo", "--date", "2026-03-20", "--to", "2026-03-01"], "before the first"),
+    ] {
+        let o = sunlot(&args, None);
+        assert!(!o.status.success() && stderr(&o).contains(want), "{args:?}: {}", stderr(&o));
+    }
+}

@@ -4,6 +4,7 @@ mod args;
 mod batch;
 mod day;
 mod demo;
+mod hours;
 mod irradiance;
 mod output;
 mod point;
@@ -40,6 +41,8 @@ enum Command {
     Shadows(shadows::ShadowsArgs),
     /// A site's shadow-length table through a day: sun angles, length per metre, each volume's tip.
     ShadowTable(shadows::ShadowTableArgs),
+    /// Hours of direct sun per cell over a site's areas, for a date or a range, in a daily window.
+    Hours(hours::HoursArgs),
     /// Convert a site between sunlot's site file and GeoJSON.
     Convert(shadows::ConvertArgs),
     /// Whether a point of a site (a window, a balcony) is in direct sun, and the skyline it sees.
@@ -57,6 +60,7 @@ fn main() -> ExitCode {
         Command::Irradiance(a) => irradiance::run(a),
         Command::Shadows(a) => shadows::run_shadows(a),
         Command::ShadowTable(a) => shadows::run_shadow_table(a),
+        Command::Hours(a) => hours::run(a),
         Command::Convert(a) => shadows::run_convert(a),
         Command::Point(a) => point::run(a),
         Command::Demo(a) => demo::run(a),
