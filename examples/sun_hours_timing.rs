@@ -29,6 +29,7 @@ fn main() {
             step_min: 5,
             plane_m: 0.0,
             delta_t: DeltaT::EspenakMeeus,
+            massing: sunlot::exposure::Massing::WithProposed,
         };
         let mut times = Vec::new();
         let mut steps = 0;

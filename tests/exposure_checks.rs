@@ -26,6 +26,7 @@ fn cell_sun_hours_match_point_ray_tests_within_one_step() {
         step_min: 10,
         plane_m: 0.0,
         delta_t: DeltaT::EspenakMeeus,
+        massing: sunlot::exposure::Massing::WithProposed,
     };
     let map = sun_hours(&req, |_| true).unwrap();
 

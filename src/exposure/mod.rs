@@ -7,4 +7,4 @@ mod sun_hours;
 
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use raster::{polygon_row_spans, RowSpans};
-pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, Window};
+pub use sun_hours::{sun_hours, Massing, SunHours, SunHoursRequest, Window};

@@ -17,7 +17,7 @@ use geo::MultiPolygon;
 use super::grid::{ExposureError, Grid};
 use super::raster::RowSpans;
 use crate::shadow::{analysis_extent, shadow_offset_per_m, volume_shadow_on, wall_shadow_on, Receiver};
-use crate::site::SiteModel;
+use crate::site::{SiteModel, Status};
 use crate::solar::{day_events, Atmosphere, Crossing, Ephemeris};
 use crate::time::{DeltaT, Fold};
 
@@ -31,6 +31,15 @@ pub enum Window {
     Daylight,
     /// Between two local clock times, e.g. 09:00–15:00.
     Clock { from: NaiveTime, to: NaiveTime },
+}
+
+/// Which massing casts shadows.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Massing {
+    /// The existing volumes and walls alone (before).
+    Existing,
+    /// Existing and proposed together (after).
+    WithProposed,
 }
 
 /// What to compute.
@@ -52,6 +61,8 @@ pub struct SunHoursRequest<'a> {
     pub plane_m: f64,
     /// ΔT.
     pub delta_t: DeltaT,
+    /// Which massing casts shadows.
+    pub massing: Massing,
 }
 
 /// Hours of direct sun per cell.
@@ -158,10 +169,11 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
                     }
                 }
             };
-            for v in &model.volumes {
+            let counts = |s: Status| req.massing == Massing::WithProposed || s == Status::Existing;
+            for v in model.volumes.iter().filter(|v| counts(v.status)) {
                 add(volume_shadow_on(v, o, &receiver));
             }
-            for w in &model.walls {
+            for w in model.walls.iter().filter(|w| counts(w.status)) {
                 add(wall_shadow_on(w, o, &receiver));
             }
             for row in 0..g.rows {
@@ -193,7 +205,7 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
 mod tests {
     use super::*;
     use crate::exposure::DEFAULT_MAX_CELLS;
-    use crate::site::{Area, AreaKind, Status, Wall};
+    use crate::site::{Area, AreaKind, Wall};
     use geo::{LineString, Polygon};
 
     fn open_site(lat: f64) -> SiteModel {
@@ -216,6 +228,7 @@ mod tests {
             step_min: 5,
             plane_m: 0.0,
             delta_t: DeltaT::EspenakMeeus,
+            massing: Massing::WithProposed,
         }
     }
 

@@ -34,6 +34,12 @@ pub struct HoursArgs {
     /// Height of the receiving plane above the ground, metres (a terrace, a first-floor sill).
     #[arg(long, default_value_t = 0.0)]
     pub plane_m: f64,
+    /// Compare each area's sun before (existing massing) and after (with the proposal), area by area.
+    #[arg(long)]
+    pub before_after: bool,
+    /// With --before-after: the hours of sun a cell must get to count as sunlit enough.
+    #[arg(long, default_value_t = 2.0)]
+    pub min_hours: f64,
     /// Most cells allowed.
     #[arg(long, default_value_t = DEFAULT_MAX_CELLS)]
     pub max_cells: usize,
@@ -53,6 +59,9 @@ fn window(text: &str) -> Result<Window, String> {
 
 pub fn run(a: &HoursArgs) -> Result<String, String> {
     let model = a.site.load()?.model;
+    if a.before_after {
+        return before_after(a, &model);
+    }
     let polys: Vec<_> = match &a.area {
         Some(id) => vec![model
             .areas
@@ -82,6 +91,7 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
         step_min: a.step_min,
         plane_m: a.plane_m,
         delta_t: a.delta_t.delta_t()?,
+        massing: sunlot::exposure::Massing::WithProposed,
     };
     let map = sun_hours(&req, |_| true).map_err(|e| e.to_string())?;
     if a.format == Format::Csv {
@@ -116,5 +126,71 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
     t.single = true;
     t.notes.push(format!("{}-minute steps; a step counts when its midpoint is between sunrise and sunset; cells sampled at their centres.", a.step_min));
     t.notes.push("Indicative; local planning codes and a licensed professional's assessment govern.".into());
+    Ok(t.render(a.format))
+}
+
+/// Each area's sun before and after the proposal.
+fn before_after(a: &HoursArgs, model: &sunlot::site::SiteModel) -> Result<String, String> {
+    use sunlot::exposure::Massing;
+    if !(a.min_hours.is_finite() && a.min_hours >= 0.0) {
+        return Err(format!("--min-hours must be 0 or more, got {}", a.min_hours));
+    }
+    let first = args::date(&a.date, "--date")?;
+    let last = match &a.to {
+        Some(t) => args::date(t, "--to")?,
+        None => first,
+    };
+    let window = a.window.as_deref().map(window).transpose()?.unwrap_or(Window::Daylight);
+    let areas: Vec<_> = model.areas.iter().filter(|x| a.area.as_ref().is_none_or(|id| &x.id == id)).collect();
+    if areas.is_empty() {
+        return Err(match &a.area {
+            Some(id) => format!("--area: the site has no area {id:?}"),
+            None => "the site has no areas to compare".into(),
+        });
+    }
+    let h = a.min_hours;
+    let mut t = Table::new(
+        format!("Sun before and after the proposal, {first} to {last}: share of each area with at least {h} h of direct sun"),
+        vec!["area", "name", "before_pct", "after_pct", "after_over_before", "mean_before_h", "mean_after_h", "mean_lost_h"],
+    );
+    for area in areas {
+        let grid = Grid::over_polygon(&area.polygon, a.cell_m, a.max_cells).map_err(|e| format!("--cell-m: {e}"))?;
+        let run = |massing| {
+            let req = SunHoursRequest {
+                model,
+                grid: &grid,
+                first,
+                last,
+                window,
+                step_min: a.step_min,
+                plane_m: a.plane_m,
+                delta_t: a.delta_t.delta_t()?,
+                massing,
+            };
+            sun_hours(&req, |_| true).map_err(|e| e.to_string())
+        };
+        let (before, after) = (run(Massing::Existing)?, run(Massing::WithProposed)?);
+        let vals = |m: &sunlot::exposure::SunHours| m.hours.iter().flatten().copied().collect::<Vec<f64>>();
+        let (b, af) = (vals(&before), vals(&after));
+        let n = b.len().max(1) as f64;
+        let share = |v: &[f64]| 100.0 * v.iter().filter(|&&x| x >= h).count() as f64 / n;
+        let mean = |v: &[f64]| v.iter().sum::<f64>() / n;
+        let (sb, sa) = (share(&b), share(&af));
+        t.rows.push(vec![
+            Cell::text(&area.id),
+            Cell::text(&area.name),
+            Cell::num(sb, 1),
+            Cell::num(sa, 1),
+            if sb > 0.0 { Cell::num(sa / sb, 2) } else { Cell::Empty },
+            Cell::num(mean(&b), 2),
+            Cell::num(mean(&af), 2),
+            Cell::num(mean(&b) - mean(&af), 2),
+        ]);
+    }
+    t.notes.push(format!(
+        "{} m cells, {}-minute steps; before = existing massing, after = existing and proposed.",
+        a.cell_m, a.step_min
+    ));
+    t.notes.push("Indicative, clear sky; local planning codes and a licensed professional's assessment govern.".into());
     Ok(t.render(a.format))
 }
