@@ -320,7 +320,10 @@ fn sun_hours_summary_and_cells() {
 
 #[test]
 fn before_after_report_per_area() {
-    let o = sunlot(&["hours", "--demo", "--date", "2026-03-20", "--before-after", "--cell-m", "1", "--format", "json"], None);
+    let o = sunlot(
+        &["hours", "--demo", "--date", "2026-03-20", "--before-after", "--cell-m", "1", "--format", "json"],
+        None,
+    );
     assert!(o.status.success(), "{}", stderr(&o));
     let rows: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
     let rows = rows.as_array().unwrap();
@@ -331,5 +334,9 @@ fn before_after_report_per_area() {
         assert!(r["mean_lost_h"].as_f64().unwrap() >= -1e-9, "{r}");
     }
     let g9 = rows.iter().find(|r| r["area"] == "garden-9").unwrap();
-    assert_eq!(g9["mean_lost_h"].as_f64().unwrap(), 0.0, "at the equinox the proposal's shadow stops short of the garden across the lane");
+    assert_eq!(
+        g9["mean_lost_h"].as_f64().unwrap(),
+        0.0,
+        "at the equinox the proposal's shadow stops short of the garden across the lane"
+    );
 }

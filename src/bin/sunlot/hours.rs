@@ -3,7 +3,8 @@
 use chrono::NaiveTime;
 use clap::Args;
 use geo::MultiPolygon;
-use sunlot::exposure::{sun_hours, Grid, SunHoursRequest, Window, DEFAULT_MAX_CELLS};
+use sunlot::exposure::{sun_hours, Grid, Massing, SunHours, SunHoursRequest, Window, DEFAULT_MAX_CELLS};
+use sunlot::site::SiteModel;
 
 use crate::args::{self, DeltaTArgs};
 use crate::output::{Cell, Format, Table};
@@ -76,24 +77,9 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
         return Err("the site has no areas to map; add one or give --area".into());
     }
     let grid = Grid::over(&MultiPolygon::new(polys), a.cell_m, a.max_cells).map_err(|e| format!("--cell-m: {e}"))?;
+    let map = map_of(a, &model, &grid, Massing::WithProposed)?;
     let first = args::date(&a.date, "--date")?;
-    let last = match &a.to {
-        Some(t) => args::date(t, "--to")?,
-        None => first,
-    };
-    let window = a.window.as_deref().map(window).transpose()?.unwrap_or(Window::Daylight);
-    let req = SunHoursRequest {
-        model: &model,
-        grid: &grid,
-        first,
-        last,
-        window,
-        step_min: a.step_min,
-        plane_m: a.plane_m,
-        delta_t: a.delta_t.delta_t()?,
-        massing: sunlot::exposure::Massing::WithProposed,
-    };
-    let map = sun_hours(&req, |_| true).map_err(|e| e.to_string())?;
+    let last = a.to.as_deref().map_or(Ok(first), |t| args::date(t, "--to"))?;
     if a.format == Format::Csv {
         let mut t = Table::new("", vec!["x_m", "y_m", "sun_hours"]);
         for row in 0..grid.rows {
@@ -130,17 +116,12 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
 }
 
 /// Each area's sun before and after the proposal.
-fn before_after(a: &HoursArgs, model: &sunlot::site::SiteModel) -> Result<String, String> {
-    use sunlot::exposure::Massing;
+fn before_after(a: &HoursArgs, model: &SiteModel) -> Result<String, String> {
     if !(a.min_hours.is_finite() && a.min_hours >= 0.0) {
         return Err(format!("--min-hours must be 0 or more, got {}", a.min_hours));
     }
     let first = args::date(&a.date, "--date")?;
-    let last = match &a.to {
-        Some(t) => args::date(t, "--to")?,
-        None => first,
-    };
-    let window = a.window.as_deref().map(window).transpose()?.unwrap_or(Window::Daylight);
+    let last = a.to.as_deref().map_or(Ok(first), |t| args::date(t, "--to"))?;
     let areas: Vec<_> = model.areas.iter().filter(|x| a.area.as_ref().is_none_or(|id| &x.id == id)).collect();
     if areas.is_empty() {
         return Err(match &a.area {
@@ -155,22 +136,9 @@ fn before_after(a: &HoursArgs, model: &sunlot::site::SiteModel) -> Result<String
     );
     for area in areas {
         let grid = Grid::over_polygon(&area.polygon, a.cell_m, a.max_cells).map_err(|e| format!("--cell-m: {e}"))?;
-        let run = |massing| {
-            let req = SunHoursRequest {
-                model,
-                grid: &grid,
-                first,
-                last,
-                window,
-                step_min: a.step_min,
-                plane_m: a.plane_m,
-                delta_t: a.delta_t.delta_t()?,
-                massing,
-            };
-            sun_hours(&req, |_| true).map_err(|e| e.to_string())
-        };
-        let (before, after) = (run(Massing::Existing)?, run(Massing::WithProposed)?);
-        let vals = |m: &sunlot::exposure::SunHours| m.hours.iter().flatten().copied().collect::<Vec<f64>>();
+        let (before, after) =
+            (map_of(a, model, &grid, Massing::Existing)?, map_of(a, model, &grid, Massing::WithProposed)?);
+        let vals = |m: &SunHours| m.hours.iter().flatten().copied().collect::<Vec<f64>>();
         let (b, af) = (vals(&before), vals(&after));
         let n = b.len().max(1) as f64;
         let share = |v: &[f64]| 100.0 * v.iter().filter(|&&x| x >= h).count() as f64 / n;
@@ -193,4 +161,26 @@ fn before_after(a: &HoursArgs, model: &sunlot::site::SiteModel) -> Result<String
     ));
     t.notes.push("Indicative, clear sky; local planning codes and a licensed professional's assessment govern.".into());
     Ok(t.render(a.format))
+}
+
+/// Runs the sun-hours map of `grid` for the period and options of `a`.
+fn map_of(a: &HoursArgs, model: &SiteModel, grid: &Grid, massing: Massing) -> Result<SunHours, String> {
+    let first = args::date(&a.date, "--date")?;
+    let last = match &a.to {
+        Some(t) => args::date(t, "--to")?,
+        None => first,
+    };
+    let window = a.window.as_deref().map(window).transpose()?.unwrap_or(Window::Daylight);
+    let req = SunHoursRequest {
+        model,
+        grid,
+        first,
+        last,
+        window,
+        step_min: a.step_min,
+        plane_m: a.plane_m,
+        delta_t: a.delta_t.delta_t()?,
+        massing,
+    };
+    sun_hours(&req, |_| true).map_err(|e| e.to_string())
 }
