@@ -12,7 +12,7 @@
 //! analysis extent allows.
 
 use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
-use geo::MultiPolygon;
+use geo::{Coord, MultiPolygon};
 
 use super::grid::{ExposureError, Grid};
 use super::raster::RowSpans;
@@ -20,6 +20,9 @@ use crate::shadow::{analysis_extent, shadow_offset_per_m, volume_shadow_on, wall
 use crate::site::{SiteModel, Status};
 use crate::solar::{day_events, Atmosphere, Crossing, Ephemeris};
 use crate::time::{DeltaT, Fold};
+
+/// Steps of a day are split over this many threads (the machines we target have two cores; one in wasm).
+const THREADS: usize = 2;
 
 /// Lowest altitude at which shadows are cast, degrees (see the module's method).
 const MIN_CAST_ALTITUDE_DEG: f64 = 0.01;
@@ -76,6 +79,52 @@ pub struct SunHours {
     pub steps: usize,
 }
 
+/// What every step of a run shares.
+struct Cast<'a> {
+    req: &'a SunHoursRequest<'a>,
+    receiver: Receiver,
+    extent: Option<geo::Rect<f64>>,
+}
+
+impl Cast<'_> {
+    /// Adds each step's shaded time to the per-row difference array `shaded` (rows × (cols + 1)).
+    fn accumulate(&self, steps: &[(Coord<f64>, f64)], shaded: &mut [f64]) {
+        let g = self.req.grid;
+        let model = self.req.model;
+        let stride = g.cols + 1;
+        let frame = self.extent.map(|e| e.to_polygon());
+        let mut spans = RowSpans::new(g);
+        let counts = |s: Status| self.req.massing == Massing::WithProposed || s == Status::Existing;
+        for &(o, dt) in steps {
+            spans.clear();
+            let mut add = |mp: Option<MultiPolygon<f64>>| {
+                for p in mp.iter().flat_map(|m| m.0.iter()) {
+                    match &frame {
+                        Some(f) if !geo::Contains::contains(f, p) => {
+                            for q in geo::BooleanOps::intersection(p, f).0.iter() {
+                                spans.add_polygon(g, q);
+                            }
+                        }
+                        _ => spans.add_polygon(g, p),
+                    }
+                }
+            };
+            for v in model.volumes.iter().filter(|v| counts(v.status)) {
+                add(volume_shadow_on(v, o, &self.receiver));
+            }
+            for w in model.walls.iter().filter(|w| counts(w.status)) {
+                add(wall_shadow_on(w, o, &self.receiver));
+            }
+            for row in 0..g.rows {
+                for (a, b) in spans.merged(row) {
+                    shaded[row * stride + a] += dt;
+                    shaded[row * stride + b] -= dt;
+                }
+            }
+        }
+    }
+}
+
 fn window_bounds(req: &SunHoursRequest, date: NaiveDate) -> Result<(DateTime<Utc>, DateTime<Utc>), ExposureError> {
     let zone = &req.model.zone;
     match req.window {
@@ -118,16 +167,19 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
     let extent = analysis_extent(model);
     let air = Atmosphere::default();
     let mut eph = Ephemeris::new();
-    let mut spans = RowSpans::new(g);
     let stride = g.cols + 1;
-    let mut shaded = vec![0.0_f64; g.rows * stride];
+    let threads = if cfg!(target_arch = "wasm32") { 1 } else { THREADS };
+    let mut shaded = vec![vec![0.0_f64; g.rows * stride]; threads];
     let (mut open_s, mut steps) = (0.0_f64, 0_usize);
     let step = Duration::minutes(i64::from(req.step_min));
+    let cast = Cast { req, receiver, extent };
 
     for k in 0..days {
         let date = req.first + Duration::days(k);
         let (start, end) = window_bounds(req, date)?;
         let ev = day_events(&model.location, date, &model.zone, req.delta_t)?;
+        // The day's sun-up steps: shadow offset per metre and length in seconds.
+        let mut day: Vec<(Coord<f64>, f64)> = Vec::new();
         let mut t0 = start;
         while t0 < end {
             let t1 = (t0 + step).min(end);
@@ -145,48 +197,32 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
             let sun = eph.sun_at(mid, req.delta_t)?.observe(&model.location, &air);
             let az = model.plan_azimuth_deg(sun.azimuth_deg);
             let Some(o) = shadow_offset_per_m(az, sun.altitude_deg.max(MIN_CAST_ALTITUDE_DEG)) else { continue };
-            if !receiver.faces_sun(o) {
-                continue; // behind the slope: no direct sun anywhere
+            if receiver.faces_sun(o) {
+                day.push((o, dt)); // behind the slope there is no direct sun anywhere
             }
-            open_s += dt;
-            steps += 1;
-            spans.clear();
-            let mut add = |mp: Option<MultiPolygon<f64>>| {
-                for p in mp.iter().flat_map(|m| m.0.iter()) {
-                    let clipped;
-                    let p = match extent {
-                        Some(e) if !geo::Contains::contains(&e.to_polygon(), p) => {
-                            clipped = geo::BooleanOps::intersection(p, &e.to_polygon());
-                            &clipped
-                        }
-                        _ => {
-                            spans.add_polygon(g, p);
-                            continue;
-                        }
-                    };
-                    for q in &p.0 {
-                        spans.add_polygon(g, q);
-                    }
+        }
+        open_s += day.iter().map(|s| s.1).sum::<f64>();
+        steps += day.len();
+        let chunk = day.len().div_ceil(threads).max(1);
+        if threads == 1 {
+            cast.accumulate(&day, &mut shaded[0]);
+        } else {
+            std::thread::scope(|s| {
+                for (part, buf) in day.chunks(chunk).zip(shaded.iter_mut()) {
+                    let cast = &cast;
+                    s.spawn(move || cast.accumulate(part, buf));
                 }
-            };
-            let counts = |s: Status| req.massing == Massing::WithProposed || s == Status::Existing;
-            for v in model.volumes.iter().filter(|v| counts(v.status)) {
-                add(volume_shadow_on(v, o, &receiver));
-            }
-            for w in model.walls.iter().filter(|w| counts(w.status)) {
-                add(wall_shadow_on(w, o, &receiver));
-            }
-            for row in 0..g.rows {
-                for (a, b) in spans.merged(row) {
-                    shaded[row * stride + a] += dt;
-                    shaded[row * stride + b] -= dt;
-                }
-            }
+            });
         }
         if !progress((k + 1) as f64 / days as f64) {
             return Err(ExposureError::Period("cancelled".into()));
         }
     }
+    let (first, rest) = shaded.split_at_mut(1);
+    for other in rest {
+        first[0].iter_mut().zip(other.iter()).for_each(|(a, b)| *a += b);
+    }
+    let shaded = &first[0];
 
     let mut hours = vec![None; g.rows * g.cols];
     for row in 0..g.rows {
