@@ -15,6 +15,9 @@ pub enum ShadowError {
     /// The analysis extent has no area or is not finite.
     #[error("the analysis extent must be a finite rectangle with an area, got {min_x}…{max_x} × {min_y}…{max_y} m")]
     BadExtent { min_x: f64, max_x: f64, min_y: f64, max_y: f64 },
+    /// A number outside its range.
+    #[error("{field} must be between {min} and {max}, got {value}")]
+    OutOfRange { field: &'static str, value: f64, min: f64, max: f64 },
     /// An angle that is not a finite number.
     #[error("{field} must be a finite number, got {value}")]
     NotFinite { field: &'static str, value: f64 },

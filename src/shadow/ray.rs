@@ -157,7 +157,7 @@ pub fn exposure(
 /// sun-path diagram; use [`exposure`] for the exact answer at one moment.
 ///
 /// # Errors
-/// [`ShadowError::NotFinite`] for bad numbers, or a step outside 0.01…90°.
+/// [`ShadowError::NotFinite`] for bad numbers; [`ShadowError::OutOfRange`] for a step outside 0.01…90°.
 pub fn skyline(
     point: ViewPoint,
     volumes: &[Volume],
@@ -167,7 +167,7 @@ pub fn skyline(
     reach_m: f64,
 ) -> Result<Vec<(f64, f64)>, ShadowError> {
     if !(0.01..=90.0).contains(&step_deg) {
-        return Err(ShadowError::NotFinite { field: "step_deg", value: step_deg });
+        return Err(ShadowError::OutOfRange { field: "step_deg", value: step_deg, min: 0.01, max: 90.0 });
     }
     for (field, value) in [("x_m", point.x_m), ("y_m", point.y_m), ("z_m", point.z_m), ("reach_m", reach_m)] {
         if !value.is_finite() {

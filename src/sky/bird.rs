@@ -55,16 +55,7 @@ impl BirdAtmosphere {
     /// # Errors
     /// [`InputError`] naming the field.
     pub fn validated(self) -> Result<Self, InputError> {
-        use crate::solar::InputError as E;
-        let c = |field, v: f64, lo: f64, hi: f64| -> Result<f64, E> {
-            if !v.is_finite() {
-                Err(E::NotFinite { field, value: v })
-            } else if v < lo || v > hi {
-                Err(E::OutOfRange { field, value: v, min: lo, max: hi })
-            } else {
-                Ok(v)
-            }
-        };
+        let c = crate::solar::check_range;
         c("aod_380", self.aod_380, 0.0, 5.0)?;
         c("aod_500", self.aod_500, 0.0, 5.0)?;
         c("precipitable_water_cm", self.precipitable_water_cm, 0.0, 15.0)?;

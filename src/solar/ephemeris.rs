@@ -1,8 +1,8 @@
-//! The sun's time-only terms for many instants, computed once per hour and interpolated.
+//! The sun's time-only terms for many instants, computed every three hours and interpolated.
 //!
 //! The SPA's costly terms ([`SlowTerms`]: 258 periodic terms) change slowly: the fastest of them, a
 //! nutation term of about 5.6 days' period and 0.0001° amplitude, and the Earth's orbital motion, are
-//! reproduced by four-point (cubic) Lagrange interpolation on a one-hour grid in TT to far better than
+//! reproduced by four-point (cubic) Lagrange interpolation on a three-hour grid in TT to far better than
 //! 1e-9° (the error bound is 9h⁴/384·max|f⁗|; `tests` check 1e-9° over two centuries). Everything
 //! else — sidereal time, obliquity, aberration, right ascension, declination — is computed exactly per
 //! instant. Batch work on many distinct instants (CSV rows, sun-hours steps) shares the hourly nodes.
@@ -19,7 +19,7 @@ use crate::time::DeltaT;
 /// Grid step of the interpolation nodes, days (three hours).
 const STEP_DAYS: f64 = 3.0 / 24.0;
 
-/// Nodes kept before the cache is emptied, so memory stays bounded (a year of hours is 8,784).
+/// Nodes kept before the cache is emptied, so memory stays bounded (two years of three-hour nodes is 5,856).
 const MAX_NODES: usize = 20_000;
 
 /// A cache of hourly [`SlowTerms`] nodes.

@@ -106,8 +106,8 @@ pub fn rise_transit_set_ut(date: NaiveDate, site: &Site, delta_t_s: f64, h0_deg:
 /// [`InputError`] for a date outside the SPA's years or a non-finite ΔT.
 pub fn day_events(site: &Site, date: NaiveDate, zone: &Zone, delta_t: DeltaT) -> Result<DayEvents, InputError> {
     let midday = zone.midday(date);
-    let check = super::SunAtInstant::new(midday, delta_t)?;
-    let delta_t_s = check.observe(site, &super::Atmosphere::default()).delta_t_s;
+    // Checks the year and ΔT; ΔT at local midday serves the whole day.
+    let (_, delta_t_s) = super::SunAtInstant::checked_inputs(midday, delta_t)?;
 
     // The transit that falls on the local date, nearest local midday: searched in the UT days around
     // it, since a transit close to midnight belongs to the neighbouring UT day's procedure.

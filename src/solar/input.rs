@@ -27,6 +27,15 @@ pub(crate) fn check(field: &'static str, value: f64, min: f64, max: f64) -> Resu
     Ok(value)
 }
 
+/// The ΔT values accepted, seconds: the Espenak–Meeus long-term parabola gives about 46,700 s at −2000
+/// and 55,900 s at 6000, the ends of the SPA's years; the bounds leave room for user values around them.
+pub(crate) const DELTA_T_RANGE_S: (f64, f64) = (-8_000.0, 100_000.0);
+
+/// Checks a ΔT in seconds against [`DELTA_T_RANGE_S`].
+pub(crate) fn check_delta_t(seconds: f64) -> Result<f64, InputError> {
+    check("delta_t_s", seconds, DELTA_T_RANGE_S.0, DELTA_T_RANGE_S.1)
+}
+
 /// A point on the Earth where the sun is observed.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub struct Site {

@@ -102,7 +102,7 @@ impl SunAtInstant {
         if !(-2000..=6000).contains(&year) {
             return Err(InputError::YearOutOfRange { year });
         }
-        let delta_t_s = super::input::check("delta_t_s", delta_t.seconds_at(instant), -8_000.0, 100_000.0)?;
+        let delta_t_s = super::input::check_delta_t(delta_t.seconds_at(instant))?;
         Ok((julian_day(instant), delta_t_s))
     }
 

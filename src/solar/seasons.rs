@@ -54,7 +54,7 @@ pub fn season_instants(year: i32, delta_t: DeltaT) -> Result<Seasons, InputError
     let at = |target: f64| {
         let jde = season_jde(year, target);
         let tt = instant_from_julian_day(jde).ok_or(InputError::YearOutOfRange { year })?;
-        let dt = super::input::check("delta_t_s", delta_t.seconds_at(tt), -8_000.0, 100_000.0)?;
+        let dt = super::input::check_delta_t(delta_t.seconds_at(tt))?;
         instant_from_julian_day(jde - dt / 86_400.0).ok_or(InputError::YearOutOfRange { year })
     };
     Ok(Seasons {

@@ -5,7 +5,7 @@
 //! input column is written back, followed by `zenith_deg,altitude_deg,azimuth_deg`. The whole input is
 //! checked before anything is written, so a bad row never leaves half a file; the message names the
 //! row (1 = first data row), its line and the column. The costly time-only terms of the algorithm are
-//! computed once per hour of the rows' instants and shared by all rows ([`Ephemeris`]).
+//! computed once per three hours of the rows' instants and shared by all rows ([`Ephemeris`]).
 
 use std::fmt::Write as _;
 use std::io::Read;

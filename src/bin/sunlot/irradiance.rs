@@ -86,7 +86,7 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
     let (date, zone, step_min, steps) = match a.when.resolve(&a.zone, a.site.demo)? {
         When::Moment(t, zone) => {
             table.title = format!("Clear-sky irradiance at {} ({zone})", args::rfc3339(t, &zone));
-            table.rows.push(row(&s, t, &zone)?);
+            table.rows.push(row(&s, t, &zone)?.0);
             table.single = true;
             return Ok(table.render(a.format));
         }
@@ -97,12 +97,9 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
     let step_h = f64::from(step_min) / 60.0;
     let (mut ghi_wh, mut poa_wh) = (0.0, 0.0);
     for t in steps {
-        let r = row(&s, t, &zone)?;
-        let value = |c: &Cell| if let Cell::Num { value, .. } = c { *value } else { 0.0 };
-        ghi_wh += value(&r[8]) * step_h;
-        if s.surface.is_some() {
-            poa_wh += value(&r[13]) * step_h;
-        }
+        let (r, ghi_w_m2, surface_w_m2) = row(&s, t, &zone)?;
+        ghi_wh += ghi_w_m2 * step_h;
+        poa_wh += surface_w_m2 * step_h;
         table.rows.push(r);
     }
     table.notes.insert(
@@ -151,7 +148,8 @@ fn table(s: &Setup) -> Table {
     t
 }
 
-fn row(s: &Setup, t: DateTime<Utc>, zone: &Zone) -> Result<Vec<Cell>, String> {
+/// One time's cells, with the global horizontal and the surface total (0 without a surface), W/m².
+fn row(s: &Setup, t: DateTime<Utc>, zone: &Zone) -> Result<(Vec<Cell>, f64, f64), String> {
     let p = SunAtInstant::new(t, s.delta_t).map_err(|e| input_message(&e))?.observe(&s.site, &s.air);
     let e0 = extraterrestrial_normal_w_m2(t.ordinal());
     let sky = bird_clear_sky(p.zenith_deg, e0, &s.bird);
@@ -166,8 +164,10 @@ fn row(s: &Setup, t: DateTime<Utc>, zone: &Zone) -> Result<Vec<Cell>, String> {
         Cell::num(sky.dhi_w_m2, 1),
         Cell::num(sky.ghi_w_m2, 1),
     ];
+    let mut surface_total = 0.0;
     if let Some(f) = s.surface {
         let poa = plane_of_array(&sky, &p, &f);
+        surface_total = poa.total_w_m2;
         r.extend([
             Cell::num(poa.incidence_deg, 3),
             Cell::num(poa.beam_w_m2, 1),
@@ -176,5 +176,5 @@ fn row(s: &Setup, t: DateTime<Utc>, zone: &Zone) -> Result<Vec<Cell>, String> {
             Cell::num(poa.total_w_m2, 1),
         ]);
     }
-    Ok(r)
+    Ok((r, sky.ghi_w_m2, surface_total))
 }
