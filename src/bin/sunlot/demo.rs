@@ -85,7 +85,8 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         format!("Share of each area in shadow on {date} (March equinox): existing → with the proposal"),
         vec!["area", "09:00", "12:00", "15:00"],
     );
-    let mut cells: Vec<Vec<Cell>> = model.areas.iter().map(|a| vec![Cell::text(&a.id)]).collect();
+    let mut cells: Vec<Vec<Cell>> =
+        model.areas.iter().map(|a| vec![Cell::text(if a.name.is_empty() { &a.id } else { &a.name })]).collect();
     for hour in [9, 12, 15] {
         let wall = date.and_hms_opt(hour, 0, 0).ok_or("bad hour")?;
         let t = zone.resolve(wall, sunlot::time::Fold::Earlier).map_err(|e| e.to_string())?;
