@@ -6,7 +6,7 @@ use std::time::Instant;
 
 use chrono::NaiveDate;
 use geo::{LineString, Polygon};
-use sunlot::exposure::{sun_hours, Grid, SunHoursRequest, Window, DEFAULT_MAX_CELLS};
+use sunlot::exposure::{sun_hours, Grid, Period, SunHoursRequest, DEFAULT_MAX_CELLS};
 use sunlot::time::DeltaT;
 
 fn main() {
@@ -23,10 +23,7 @@ fn main() {
         let req = SunHoursRequest {
             model: &m,
             grid: &g,
-            first: date,
-            last: date,
-            window: Window::Daylight,
-            step_min: 5,
+            period: Period::day(date, 5),
             plane_m: 0.0,
             delta_t: DeltaT::EspenakMeeus,
             massing: sunlot::exposure::Massing::WithProposed,

@@ -6,7 +6,7 @@
 //! shadow edge.
 
 use chrono::{Duration, NaiveDate};
-use sunlot::exposure::{sun_hours, Grid, SunHoursRequest, Window, DEFAULT_MAX_CELLS};
+use sunlot::exposure::{sun_hours, Grid, Period, SunHoursRequest, DEFAULT_MAX_CELLS};
 use sunlot::shadow::{exposure, Exposure, Receiver, ViewPoint};
 use sunlot::solar::{day_events, Atmosphere, Crossing, Ephemeris};
 use sunlot::time::DeltaT;
@@ -20,10 +20,7 @@ fn cell_sun_hours_match_point_ray_tests_within_one_step() {
     let req = SunHoursRequest {
         model: &m,
         grid: &g,
-        first: date,
-        last: date,
-        window: Window::Daylight,
-        step_min: 10,
+        period: Period::day(date, 10),
         plane_m: 0.0,
         delta_t: DeltaT::EspenakMeeus,
         massing: sunlot::exposure::Massing::WithProposed,

@@ -28,10 +28,18 @@ pub enum ExposureError {
 }
 
 /// Square cells over the bounding box of an area; cells whose centre is outside the area are marked.
+///
+/// Cells lie on a lattice anchored at `origin`; a grid covers the lattice's columns `col0..col0 + cols`
+/// and rows `row0..row0 + rows` (a whole grid has both at 0, a tile of it does not), so the centre of
+/// a cell is computed the same way in a tile as in the whole grid.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Grid {
-    /// Lower-left corner of cell (0, 0), plan metres.
+    /// Lower-left corner of the lattice's cell (0, 0), plan metres.
     pub origin: Coord<f64>,
+    /// First lattice column of this grid.
+    pub col0: usize,
+    /// First lattice row of this grid.
+    pub row0: usize,
     /// Cell side, metres.
     pub cell_m: f64,
     /// Cells per row (x).
@@ -62,7 +70,7 @@ impl Grid {
             return Err(ExposureError::TooManyCells { cells: cells.min(usize::MAX as f64) as usize, limit: max_cells });
         }
         let (cols, rows) = (cols as usize, rows as usize);
-        let mut g = Grid { origin: r.min(), cell_m, cols, rows, inside: vec![false; cols * rows] };
+        let mut g = Grid { origin: r.min(), col0: 0, row0: 0, cell_m, cols, rows, inside: vec![false; cols * rows] };
         let mut spans = RowSpans::new(&g);
         for p in &area.0 {
             spans.add_polygon(&g, p);
@@ -80,11 +88,52 @@ impl Grid {
         Grid::over(&MultiPolygon::new(vec![area.clone()]), cell_m, max_cells)
     }
 
-    /// The centre of cell (`col`, `row`), plan metres.
+    /// The centre of cell (`col`, `row`) of this grid, plan metres.
     pub fn centre(&self, col: usize, row: usize) -> Coord<f64> {
         Coord {
-            x: self.origin.x + (col as f64 + 0.5) * self.cell_m,
-            y: self.origin.y + (row as f64 + 0.5) * self.cell_m,
+            x: self.origin.x + ((self.col0 + col) as f64 + 0.5) * self.cell_m,
+            y: self.origin.y + ((self.row0 + row) as f64 + 0.5) * self.cell_m,
+        }
+    }
+
+    /// The plan rectangle the grid's cells cover, metres.
+    pub fn bounds(&self) -> geo::Rect<f64> {
+        let c = self.cell_m;
+        let lo = Coord { x: self.origin.x + self.col0 as f64 * c, y: self.origin.y + self.row0 as f64 * c };
+        geo::Rect::new(lo, Coord { x: lo.x + self.cols as f64 * c, y: lo.y + self.rows as f64 * c })
+    }
+
+    /// Cuts the grid into tiles of at most `tile_cols` × `tile_rows` cells, row by row from the
+    /// bottom left; each tile keeps the lattice, so its cells are exactly the whole grid's.
+    pub fn tiles(&self, tile_cols: usize, tile_rows: usize) -> Vec<Grid> {
+        let (tc, tr) = (tile_cols.max(1), tile_rows.max(1));
+        let mut out = Vec::new();
+        for r0 in (0..self.rows).step_by(tr) {
+            for c0 in (0..self.cols).step_by(tc) {
+                let (cols, rows) = (tc.min(self.cols - c0), tr.min(self.rows - r0));
+                let mut inside = Vec::with_capacity(cols * rows);
+                for row in r0..r0 + rows {
+                    inside.extend_from_slice(&self.inside[row * self.cols + c0..row * self.cols + c0 + cols]);
+                }
+                out.push(Grid {
+                    origin: self.origin,
+                    col0: self.col0 + c0,
+                    row0: self.row0 + r0,
+                    cell_m: self.cell_m,
+                    cols,
+                    rows,
+                    inside,
+                });
+            }
+        }
+        out
+    }
+
+    /// Copies the values of a tile's cells into `whole` (row-major over this grid).
+    pub fn stitch<T: Clone>(&self, tile: &Grid, values: &[T], whole: &mut [T]) {
+        for row in 0..tile.rows {
+            let at = (tile.row0 - self.row0 + row) * self.cols + (tile.col0 - self.col0);
+            whole[at..at + tile.cols].clone_from_slice(&values[row * tile.cols..(row + 1) * tile.cols]);
         }
     }
 

@@ -1,10 +1,21 @@
-//! Exposure over areas: analysis grids, exact rasterising of shadow polygons at cell centres, and
-//! hours of direct sun per cell.
+//! Exposure over areas: analysis grids, exact rasterising of shadow polygons at cell centres, hours
+//! of direct sun, sky-view factors and clear-sky insolation per cell, before and after a proposal,
+//! and the periods they run over.
 
+mod compare;
 mod grid;
+mod insolation;
+mod period;
 mod raster;
+mod shade;
+mod sky_view;
 mod sun_hours;
 
+pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
+pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};
+pub use period::{Period, Step, Window};
 pub use raster::{polygon_row_spans, RowSpans};
-pub use sun_hours::{sun_hours, Massing, SunHours, SunHoursRequest, Window};
+pub use shade::Massing;
+pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};
+pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};

@@ -14,12 +14,13 @@ use super::grid::Grid;
 #[derive(Debug, Clone, Default)]
 pub struct RowSpans {
     rows: Vec<Vec<(usize, usize)>>,
+    scratch: Vec<f64>,
 }
 
 impl RowSpans {
     /// Empty spans for the rows of `grid`.
     pub fn new(grid: &Grid) -> Self {
-        RowSpans { rows: vec![Vec::new(); grid.rows] }
+        RowSpans { rows: vec![Vec::new(); grid.rows], scratch: Vec::new() }
     }
 
     /// Removes all spans, keeping the storage.
@@ -29,42 +30,58 @@ impl RowSpans {
 
     /// Adds the cells of `grid` whose centres lie in `polygon`.
     pub fn add_polygon(&mut self, grid: &Grid, polygon: &Polygon<f64>) {
-        polygon_row_spans(grid, polygon, |row, a, b| self.rows[row].push((a, b)));
+        let rows = &mut self.rows;
+        row_spans(grid, polygon, &mut self.scratch, |row, a, b| rows[row].push((a, b)));
     }
 
-    /// The merged spans of `row`, sorted, as `[from, to)` cell ranges.
-    pub fn merged(&mut self, row: usize) -> Vec<(usize, usize)> {
+    /// The merged spans of `row`, sorted, as `[from, to)` cell ranges, into `out` (cleared first).
+    pub fn merged_into(&mut self, row: usize, out: &mut Vec<(usize, usize)>) {
+        out.clear();
         let spans = &mut self.rows[row];
         spans.sort_unstable();
-        let mut out: Vec<(usize, usize)> = Vec::with_capacity(spans.len());
         for &(a, b) in spans.iter() {
             match out.last_mut() {
                 Some(last) if a <= last.1 => last.1 = last.1.max(b),
                 _ => out.push((a, b)),
             }
         }
+    }
+
+    /// The merged spans of `row`, sorted, as `[from, to)` cell ranges.
+    pub fn merged(&mut self, row: usize) -> Vec<(usize, usize)> {
+        let mut out = Vec::with_capacity(self.rows[row].len());
+        self.merged_into(row, &mut out);
         out
     }
 }
 
 /// Calls `emit(row, from, to)` for each span `[from, to)` of cells of `grid` whose centres lie in
 /// `polygon`.
-pub fn polygon_row_spans(grid: &Grid, polygon: &Polygon<f64>, mut emit: impl FnMut(usize, usize, usize)) {
+pub fn polygon_row_spans(grid: &Grid, polygon: &Polygon<f64>, emit: impl FnMut(usize, usize, usize)) {
+    row_spans(grid, polygon, &mut Vec::new(), emit);
+}
+
+fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Vec<f64>, mut emit: impl FnMut(usize, usize, usize)) {
     let Some(r) = geo::BoundingRect::bounding_rect(polygon) else { return };
     let c = grid.cell_m;
-    // Rows whose centre line y = origin + (row + ½)·c lies within the polygon's y range.
-    let first = ((r.min().y - grid.origin.y) / c - 0.5).ceil().max(0.0);
-    let last = ((r.max().y - grid.origin.y) / c - 0.5).floor().min(grid.rows as f64 - 1.0);
+    // Lattice indices (from the grid's origin) of this grid's first row and column.
+    let (row0, col0) = (grid.row0 as f64, grid.col0 as f64);
+    let (x_lo, x_hi) = (grid.origin.x + col0 * c, grid.origin.x + (col0 + grid.cols as f64) * c);
+    if r.max().x < x_lo || r.min().x > x_hi {
+        return;
+    }
+    // Rows whose centre line y = origin + (row0 + row + ½)·c lies within the polygon's y range.
+    let first = ((r.min().y - grid.origin.y) / c - 0.5).ceil() - row0;
+    let last = ((r.max().y - grid.origin.y) / c - 0.5).floor() - row0;
+    let (first, last) = (first.max(0.0), last.min(grid.rows as f64 - 1.0));
     if first > last {
         return;
     }
-    let edges: Vec<_> =
-        std::iter::once(polygon.exterior()).chain(polygon.interiors()).flat_map(|ring| ring.lines()).collect();
-    let mut xs: Vec<f64> = Vec::new();
+    let rings = || std::iter::once(polygon.exterior()).chain(polygon.interiors());
     for row in first as usize..=last as usize {
-        let y = grid.origin.y + (row as f64 + 0.5) * c;
+        let y = grid.origin.y + ((grid.row0 + row) as f64 + 0.5) * c;
         xs.clear();
-        for e in &edges {
+        for e in rings().flat_map(|ring| ring.lines()) {
             let (a, b) = (e.start, e.end);
             // Half-open rule: an edge counts when its ends straddle y with the lower end included.
             if (a.y <= y) != (b.y <= y) {
@@ -73,9 +90,9 @@ pub fn polygon_row_spans(grid: &Grid, polygon: &Polygon<f64>, mut emit: impl FnM
         }
         xs.sort_unstable_by(f64::total_cmp);
         for pair in xs.chunks_exact(2) {
-            // Cells with centre x in [x0, x1): index i with origin + (i + ½)·c ≥ x0 and < x1.
-            let from = ((pair[0] - grid.origin.x) / c - 0.5).ceil().max(0.0);
-            let to = ((pair[1] - grid.origin.x) / c - 0.5).ceil().min(grid.cols as f64);
+            // Cells with centre x in [x0, x1): lattice index i with origin + (i + ½)·c ≥ x0 and < x1.
+            let from = (((pair[0] - grid.origin.x) / c - 0.5).ceil() - col0).max(0.0);
+            let to = (((pair[1] - grid.origin.x) / c - 0.5).ceil() - col0).min(grid.cols as f64);
             if to > from {
                 emit(row, from as usize, to as usize);
             }

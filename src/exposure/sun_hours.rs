@@ -1,49 +1,29 @@
-//! Hours of direct sun per grid cell over a date range, inside a daily window.
+//! Hours of direct sun per grid cell over a period.
 //!
 //! # Method
-//! The period is cut into steps of `step_min` from the window's start (the last step may be shorter).
-//! A step counts as sun-up when its midpoint lies between sunrise and sunset (upper limb on the
-//! horizon with standard refraction, as in the day events), so an open site gets the day length to
-//! within one step. At each sun-up step the exact shadow polygons of every volume and wall are cast on
-//! the receiving plane (the ground, or a plane `plane_m` above it: only what rises above the plane
-//! casts) and rasterised at cell centres by scanlines; each row's merged spans add the step's length to
-//! a per-row difference array, summed once at the end. While the sun's centre is still below the
-//! apparent horizon in that window its shadows are cast as at 0.01° altitude, i.e. as long as the
-//! analysis extent allows.
+//! The period's sun-up steps (see [`super::period`]) each cast the exact shadows of the massing on the
+//! receiving plane (the ground, or a plane `plane_m` above it: only what rises above the plane casts),
+//! rasterised at cell centres and accumulated by [`super::shade`]; a cell's hours are the sun-up time
+//! minus its shaded time. While the sun's centre is still below the apparent horizon at a sun-up step
+//! (the upper limb is up) its shadows are cast as at 0.01° altitude, i.e. as long as the site allows.
+//! Steps when the sun is behind a sloping ground give no sun anywhere.
 
-use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
-use geo::{Coord, MultiPolygon};
+use chrono::NaiveDate;
+use geo::Coord;
 
 use super::grid::{ExposureError, Grid};
-use super::raster::RowSpans;
-use crate::shadow::{analysis_extent, shadow_offset_per_m, volume_shadow_on, wall_shadow_on, Receiver};
-use crate::site::{SiteModel, Status};
-use crate::solar::{day_events, Atmosphere, Crossing, Ephemeris};
-use crate::time::{DeltaT, Fold};
-
-/// Steps of a day are split over this many threads (the machines we target have two cores; one in wasm).
-const THREADS: usize = 2;
+use super::period::{Period, Step};
+use super::shade::{Cast, Massing, ShadeSums};
+use crate::shadow::{shadow_offset_per_m, Receiver};
+use crate::site::SiteModel;
+use crate::solar::Ephemeris;
+use crate::time::DeltaT;
 
 /// Lowest altitude at which shadows are cast, degrees (see the module's method).
-const MIN_CAST_ALTITUDE_DEG: f64 = 0.01;
+pub const MIN_CAST_ALTITUDE_DEG: f64 = 0.01;
 
-/// The daily time window.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub enum Window {
-    /// Sunrise to sunset.
-    Daylight,
-    /// Between two local clock times, e.g. 09:00–15:00.
-    Clock { from: NaiveTime, to: NaiveTime },
-}
-
-/// Which massing casts shadows.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Massing {
-    /// The existing volumes and walls alone (before).
-    Existing,
-    /// Existing and proposed together (after).
-    WithProposed,
-}
+/// Days accumulated between progress reports.
+const DAYS_PER_REPORT: usize = 7;
 
 /// What to compute.
 #[derive(Debug, Clone)]
@@ -52,14 +32,8 @@ pub struct SunHoursRequest<'a> {
     pub model: &'a SiteModel,
     /// The cells.
     pub grid: &'a Grid,
-    /// First local date.
-    pub first: NaiveDate,
-    /// Last local date (inclusive).
-    pub last: NaiveDate,
-    /// Daily window.
-    pub window: Window,
-    /// Time step, minutes (1 to 60).
-    pub step_min: u32,
+    /// Dates, daily window and step.
+    pub period: Period,
     /// Height of the receiving plane above the ground, metres.
     pub plane_m: f64,
     /// ΔT.
@@ -79,169 +53,87 @@ pub struct SunHours {
     pub steps: usize,
 }
 
-/// What every step of a run shares.
-struct Cast<'a> {
-    req: &'a SunHoursRequest<'a>,
-    receiver: Receiver,
-    extent: Option<geo::Rect<f64>>,
+/// The shadow offset per metre for a step's sun in `model`'s plan frame, cast no lower than
+/// [`MIN_CAST_ALTITUDE_DEG`]; `None` when the sun is behind the receiving plane.
+pub(crate) fn step_offset(model: &SiteModel, receiver: &Receiver, s: &Step) -> Option<Coord<f64>> {
+    let az = model.plan_azimuth_deg(s.sun.azimuth_deg);
+    shadow_offset_per_m(az, s.sun.altitude_deg.max(MIN_CAST_ALTITUDE_DEG)).filter(|o| receiver.faces_sun(*o))
 }
 
-impl Cast<'_> {
-    /// Adds each step's shaded time to the per-row difference array `shaded` (rows × (cols + 1)).
-    fn accumulate(&self, steps: &[(Coord<f64>, f64)], shaded: &mut [f64]) {
-        let g = self.req.grid;
-        let model = self.req.model;
-        let stride = g.cols + 1;
-        let frame = self.extent.map(|e| e.to_polygon());
-        let mut spans = RowSpans::new(g);
-        let counts = |s: Status| self.req.massing == Massing::WithProposed || s == Status::Existing;
-        for &(o, dt) in steps {
-            spans.clear();
-            let mut add = |mp: Option<MultiPolygon<f64>>| {
-                for p in mp.iter().flat_map(|m| m.0.iter()) {
-                    match &frame {
-                        Some(f) if !geo::Contains::contains(f, p) => {
-                            for q in geo::BooleanOps::intersection(p, f).0.iter() {
-                                spans.add_polygon(g, q);
-                            }
-                        }
-                        _ => spans.add_polygon(g, p),
-                    }
-                }
-            };
-            for v in model.volumes.iter().filter(|v| counts(v.status)) {
-                add(volume_shadow_on(v, o, &self.receiver));
-            }
-            for w in model.walls.iter().filter(|w| counts(w.status)) {
-                add(wall_shadow_on(w, o, &self.receiver));
-            }
-            for row in 0..g.rows {
-                for (a, b) in spans.merged(row) {
-                    shaded[row * stride + a] += dt;
-                    shaded[row * stride + b] -= dt;
-                }
-            }
-        }
+/// Checks a plane height, metres.
+pub(crate) fn check_plane(plane_m: f64) -> Result<(), ExposureError> {
+    if plane_m.is_finite() && plane_m >= 0.0 {
+        Ok(())
+    } else {
+        Err(ExposureError::Period(format!("plane_m must be 0 m or more, got {plane_m}")))
     }
 }
 
-fn window_bounds(req: &SunHoursRequest, date: NaiveDate) -> Result<(DateTime<Utc>, DateTime<Utc>), ExposureError> {
-    let zone = &req.model.zone;
-    match req.window {
-        Window::Daylight => Ok((zone.start_of_day(date), zone.start_of_day(date.succ_opt().unwrap_or(date)))),
-        Window::Clock { from, to } => {
-            let at = |t: NaiveTime, fold| {
-                zone.resolve(date.and_time(t), fold)
-                    .map_err(|e| ExposureError::Period(format!("window on {date}: {e}")))
-            };
-            Ok((at(from, Fold::Earlier)?, at(to, Fold::Later)?))
-        }
-    }
-}
-
-/// Hours of direct sun per cell. `progress` is told the fraction done after each day and may return
-/// `false` to cancel, which returns [`ExposureError::Period`] with "cancelled".
-///
-/// # Errors
-/// [`ExposureError`] for an empty or inverted window, a bad step or date range (before any work), or a
-/// cancelled run.
-pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -> Result<SunHours, ExposureError> {
-    if !(1..=60).contains(&req.step_min) {
-        return Err(ExposureError::Period(format!("step_min must be 1 to 60, got {}", req.step_min)));
-    }
-    if req.last < req.first {
-        return Err(ExposureError::Period(format!("the last date {} is before the first {}", req.last, req.first)));
-    }
-    if let Window::Clock { from, to } = req.window {
-        if to <= from {
-            return Err(ExposureError::Period(format!("the daily window {from}–{to} is empty or inverted")));
-        }
-    }
-    if !req.plane_m.is_finite() || req.plane_m < 0.0 {
-        return Err(ExposureError::Period(format!("plane_m must be 0 m or more, got {}", req.plane_m)));
-    }
-    let days = (req.last - req.first).num_days() + 1;
-    let g = req.grid;
-    let model = req.model;
-    let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, req.plane_m);
-    let extent = analysis_extent(model);
-    let air = Atmosphere::default();
+/// Runs `day(date, steps, eph)` for every date of `period` with its sun-up steps, reporting progress
+/// every few days; stops with "cancelled" when `progress` returns `false`.
+pub(crate) fn for_each_day(
+    model: &SiteModel,
+    period: &Period,
+    delta_t: DeltaT,
+    progress: &mut dyn FnMut(f64) -> bool,
+    mut day: impl FnMut(NaiveDate, Vec<Step>) -> Result<(), ExposureError>,
+) -> Result<(), ExposureError> {
     let mut eph = Ephemeris::new();
-    let stride = g.cols + 1;
-    let threads = if cfg!(target_arch = "wasm32") { 1 } else { THREADS };
-    let mut shaded = vec![vec![0.0_f64; g.rows * stride]; threads];
-    let (mut open_s, mut steps) = (0.0_f64, 0_usize);
-    let step = Duration::minutes(i64::from(req.step_min));
-    let cast = Cast { req, receiver, extent };
-
-    for k in 0..days {
-        let date = req.first + Duration::days(k);
-        let (start, end) = window_bounds(req, date)?;
-        let ev = day_events(&model.location, date, &model.zone, req.delta_t)?;
-        // The day's sun-up steps: shadow offset per metre and length in seconds.
-        let mut day: Vec<(Coord<f64>, f64)> = Vec::new();
-        let mut t0 = start;
-        while t0 < end {
-            let t1 = (t0 + step).min(end);
-            let mid = t0 + (t1 - t0) / 2;
-            let dt = (t1 - t0).num_milliseconds() as f64 / 1000.0;
-            t0 = t1;
-            let up = match ev.sun {
-                Crossing::Crosses { rise, set } => mid >= rise && mid <= set,
-                Crossing::AlwaysAbove => true,
-                Crossing::AlwaysBelow => false,
-            };
-            if !up {
-                continue;
-            }
-            let sun = eph.sun_at(mid, req.delta_t)?.observe(&model.location, &air);
-            let az = model.plan_azimuth_deg(sun.azimuth_deg);
-            let Some(o) = shadow_offset_per_m(az, sun.altitude_deg.max(MIN_CAST_ALTITUDE_DEG)) else { continue };
-            if receiver.faces_sun(o) {
-                day.push((o, dt)); // behind the slope there is no direct sun anywhere
-            }
-        }
-        open_s += day.iter().map(|s| s.1).sum::<f64>();
-        steps += day.len();
-        let chunk = day.len().div_ceil(threads).max(1);
-        if threads == 1 {
-            cast.accumulate(&day, &mut shaded[0]);
-        } else {
-            std::thread::scope(|s| {
-                for (part, buf) in day.chunks(chunk).zip(shaded.iter_mut()) {
-                    let cast = &cast;
-                    s.spawn(move || cast.accumulate(part, buf));
-                }
-            });
-        }
-        if !progress((k + 1) as f64 / days as f64) {
+    let days = period.days();
+    for (k, date) in period.dates().enumerate() {
+        day(date, period.steps_of(model, date, delta_t, &mut eph)?)?;
+        if ((k + 1) % DAYS_PER_REPORT == 0 || k + 1 == days) && !progress((k + 1) as f64 / days as f64) {
             return Err(ExposureError::Period("cancelled".into()));
         }
     }
-    let (first, rest) = shaded.split_at_mut(1);
-    for other in rest {
-        first[0].iter_mut().zip(other.iter()).for_each(|(a, b)| *a += b);
-    }
-    let shaded = &first[0];
+    Ok(())
+}
 
-    let mut hours = vec![None; g.rows * g.cols];
-    for row in 0..g.rows {
-        let mut acc = 0.0;
-        for col in 0..g.cols {
-            acc += shaded[row * stride + col];
-            if g.inside[row * g.cols + col] {
-                hours[row * g.cols + col] = Some(((open_s - acc) / 3600.0).max(0.0));
+/// Hours of direct sun per cell. `progress` is told the fraction done every few days and may return
+/// `false` to cancel, which returns [`ExposureError::Period`] with "cancelled".
+///
+/// # Errors
+/// [`ExposureError`] for an empty or inverted window, a bad step, plane or date range (before any
+/// work), or a cancelled run.
+pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -> Result<SunHours, ExposureError> {
+    req.period.check(req.model, req.delta_t)?;
+    check_plane(req.plane_m)?;
+    let (g, model) = (req.grid, req.model);
+    let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, req.plane_m);
+    let mut sums = ShadeSums::<1>::new(model, g, receiver, req.massing);
+    let (mut open_s, mut steps) = (0.0_f64, 0_usize);
+    let mut batch: Vec<Cast<1>> = Vec::new();
+    for_each_day(model, &req.period, req.delta_t, &mut progress, |_, day| {
+        for s in &day {
+            if let Some(o) = step_offset(model, &receiver, s) {
+                batch.push((o, [s.dt_s]));
             }
         }
-    }
+        if batch.len() >= 256 {
+            open_s += batch.iter().map(|c| c.1[0]).sum::<f64>();
+            steps += batch.len();
+            sums.add(&batch);
+            batch.clear();
+        }
+        Ok(())
+    })?;
+    open_s += batch.iter().map(|c| c.1[0]).sum::<f64>();
+    steps += batch.len();
+    sums.add(&batch);
+    let [shaded] = sums.finish();
+    let hours =
+        shaded.iter().zip(&g.inside).map(|(s, &inside)| inside.then(|| ((open_s - s) / 3600.0).max(0.0))).collect();
     Ok(SunHours { hours, open_hours: open_s / 3600.0, steps })
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::exposure::DEFAULT_MAX_CELLS;
+    use crate::exposure::{Window, DEFAULT_MAX_CELLS};
+    use crate::site::Status;
     use crate::site::{Area, AreaKind, Wall};
+    use crate::solar::day_events;
+    use chrono::{Duration, NaiveTime};
     use geo::{LineString, Polygon};
 
     fn open_site(lat: f64) -> SiteModel {
@@ -258,10 +150,7 @@ mod tests {
         SunHoursRequest {
             model: m,
             grid: g,
-            first: d,
-            last: d,
-            window: Window::Daylight,
-            step_min: 5,
+            period: Period::day(d, 5),
             plane_m: 0.0,
             delta_t: DeltaT::EspenakMeeus,
             massing: Massing::WithProposed,
@@ -330,16 +219,16 @@ mod tests {
         let g = Grid::over_polygon(&m.areas[0].polygon, 1.0, DEFAULT_MAX_CELLS).unwrap();
         let d = NaiveDate::from_ymd_opt(2026, 3, 20).unwrap();
         let mut req = request(&m, &g, d);
-        req.window = Window::Clock {
+        req.period.window = Window::Clock {
             from: NaiveTime::from_hms_opt(15, 0, 0).unwrap(),
             to: NaiveTime::from_hms_opt(9, 0, 0).unwrap(),
         };
         assert!(sun_hours(&req, |_| true).unwrap_err().to_string().contains("inverted"));
         let mut req = request(&m, &g, d);
-        req.step_min = 0;
+        req.period.step_min = 0;
         assert!(sun_hours(&req, |_| true).is_err());
         let mut req = request(&m, &g, d);
-        req.last = d + Duration::days(3);
+        req.period.last = d + Duration::days(30);
         assert_eq!(sun_hours(&req, |f| f < 0.5).unwrap_err().to_string(), "cancelled");
         assert!(matches!(
             Grid::over_polygon(&m.areas[0].polygon, 0.001, DEFAULT_MAX_CELLS),

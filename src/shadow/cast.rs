@@ -1,7 +1,10 @@
 //! Casting the shadows of volumes onto a horizontal plane.
 
 use geo::orient::{Direction, Orient};
-use geo::{unary_union, Area, BooleanOps, BoundingRect, Coord, LineString, MultiPolygon, Polygon, Rect, Translate};
+use geo::{
+    unary_union, Area, BooleanOps, BoundingRect, ConvexHull, Coord, IsConvex, LineString, MultiPoint, MultiPolygon,
+    Point, Polygon, Rect, Translate,
+};
 
 use super::ground::{volume_shadow_on, wall_shadow_on, Receiver};
 use crate::site::{Volume, Wall};
@@ -54,17 +57,36 @@ pub fn shadow_length_per_m(altitude_deg: f64) -> Option<f64> {
 /// offset per metre `offset` (from [`shadow_offset_per_m`]). Only the part of the volume above the
 /// plane casts; a volume wholly below it casts nothing.
 pub fn volume_shadow(volume: &Volume, offset: Coord<f64>, plane_m: f64) -> MultiPolygon<f64> {
+    let mut faces = Vec::new();
+    flat_volume_faces(volume, offset, plane_m, &mut faces);
+    match faces.len() {
+        0 => MultiPolygon::new(vec![]),
+        1 => MultiPolygon::new(faces),
+        _ => unary_union(&faces),
+    }
+}
+
+/// Pieces whose union is [`volume_shadow`], pushed onto `out` without a boolean union (for
+/// rasterising, where spans are merged anyway). A convex footprint without holes gives one piece: the
+/// convex hull of its underside and top shadows (the shadow of a convex prism is the footprint swept
+/// along the offset, a convex set). Otherwise: the underside and top shadows and the quadrilateral of
+/// every wall facing away from the sun.
+pub(crate) fn flat_volume_faces(volume: &Volume, offset: Coord<f64>, plane_m: f64, out: &mut Vec<Polygon<f64>>) {
     let top = volume.top_m - plane_m;
     if top <= 0.0 {
-        return MultiPolygon::new(vec![]);
+        return;
     }
     let base = (volume.base_m - plane_m).max(0.0);
     let at = |h: f64| Coord { x: offset.x * h, y: offset.y * h };
     let (b, t) = (at(base), at(top));
-
-    let mut faces: Vec<Polygon<f64>> = Vec::new();
-    faces.push(volume.footprint.translate(b.x, b.y).orient(Direction::Default));
-    faces.push(volume.footprint.translate(t.x, t.y).orient(Direction::Default));
+    if volume.footprint.interiors().is_empty() && volume.footprint.exterior().is_convex() {
+        let ring = volume.footprint.exterior();
+        let pts: Vec<Point<f64>> = ring.coords().flat_map(|c| [Point::from(*c + b), Point::from(*c + t)]).collect();
+        out.push(MultiPoint::new(pts).convex_hull());
+        return;
+    }
+    out.push(volume.footprint.translate(b.x, b.y).orient(Direction::Default));
+    out.push(volume.footprint.translate(t.x, t.y).orient(Direction::Default));
     // A point is in the shadow when the segment from it toward the sun meets the solid; if neither end
     // lies in the top or underside shadow, the segment leaves the solid through a wall that faces away
     // from the sun. So only walls whose outward normal points along the shadow offset are needed.
@@ -83,28 +105,33 @@ pub fn volume_shadow(volume: &Volume, offset: Coord<f64>, plane_m: f64) -> Multi
             vec![],
         );
         if quad.unsigned_area() > SLIVER_M2 {
-            faces.push(quad.orient(Direction::Default));
+            out.push(quad.orient(Direction::Default));
         }
     }
-    unary_union(&faces)
 }
 
 /// The shadow of a wall or fence (a vertical strip along its line up to `height_m`) on the plane at
 /// `plane_m` above ground.
 pub fn wall_shadow(wall: &Wall, offset: Coord<f64>, plane_m: f64) -> MultiPolygon<f64> {
+    let mut quads = Vec::new();
+    flat_wall_faces(wall, offset, plane_m, &mut quads);
+    unary_union(&quads)
+}
+
+/// The quadrilaterals whose union is [`wall_shadow`], one per segment of the wall.
+pub(crate) fn flat_wall_faces(wall: &Wall, offset: Coord<f64>, plane_m: f64, out: &mut Vec<Polygon<f64>>) {
     let h = wall.height_m - plane_m;
     if h <= 0.0 {
-        return MultiPolygon::new(vec![]);
+        return;
     }
     let t = Coord { x: offset.x * h, y: offset.y * h };
-    let quads: Vec<Polygon<f64>> = wall
-        .line
-        .lines()
-        .map(|e| Polygon::new(LineString::from(vec![e.start, e.end, e.end + t, e.start + t, e.start]), vec![]))
-        .filter(|q| q.unsigned_area() > SLIVER_M2)
-        .map(|q| q.orient(Direction::Default))
-        .collect();
-    unary_union(&quads)
+    out.extend(
+        wall.line
+            .lines()
+            .map(|e| Polygon::new(LineString::from(vec![e.start, e.end, e.end + t, e.start + t, e.start]), vec![]))
+            .filter(|q| q.unsigned_area() > SLIVER_M2)
+            .map(|q| q.orient(Direction::Default)),
+    );
 }
 
 /// The shadows of a set of volumes and walls at one sun position.

@@ -51,12 +51,17 @@ impl Receiver {
 
     /// The shear from the flat projection onto this plane.
     fn shear(&self, o: Coord<f64>, mp: &MultiPolygon<f64>) -> MultiPolygon<f64> {
+        mp.map_coords(|p| self.shear_point(o, p))
+    }
+
+    fn shear_polygon(&self, o: Coord<f64>, p: &Polygon<f64>) -> Polygon<f64> {
+        p.map_coords(|c| self.shear_point(o, c))
+    }
+
+    fn shear_point(&self, o: Coord<f64>, p: Coord<f64>) -> Coord<f64> {
         let k = self.gradient;
-        let denom = 1.0 + k.x * o.x + k.y * o.y;
-        mp.map_coords(|p| {
-            let f = (k.x * p.x + k.y * p.y) / denom;
-            Coord { x: p.x - o.x * f, y: p.y - o.y * f }
-        })
+        let f = (k.x * p.x + k.y * p.y) / (1.0 + k.x * o.x + k.y * o.y);
+        Coord { x: p.x - o.x * f, y: p.y - o.y * f }
     }
 }
 
@@ -114,14 +119,38 @@ pub fn volume_shadow_on(v: &Volume, o: Coord<f64>, r: &Receiver) -> Option<Multi
     Some(sloped_shadow(v, o, r))
 }
 
+/// Pieces whose union is [`volume_shadow_on`], pushed onto `out` without a boolean union (for
+/// rasterising); `false` when the sun is behind the plane.
+pub fn volume_faces_on(v: &Volume, o: Coord<f64>, r: &Receiver, out: &mut Vec<Polygon<f64>>) -> bool {
+    if !r.faces_sun(o) {
+        return false;
+    }
+    if r.is_flat() {
+        super::cast::flat_volume_faces(v, o, r.height_m, out);
+    } else {
+        let from = out.len();
+        sloped_faces(v, o, r, out);
+        for face in &mut out[from..] {
+            *face = r.shear_polygon(o, face);
+        }
+    }
+    true
+}
+
 /// The general construction of [`volume_shadow_on`], for any receiving plane in front of the sun.
 fn sloped_shadow(v: &Volume, o: Coord<f64>, r: &Receiver) -> MultiPolygon<f64> {
+    let mut faces = Vec::new();
+    sloped_faces(v, o, r, &mut faces);
+    r.shear(o, &geo::unary_union(&faces))
+}
+
+/// The faces of [`sloped_shadow`] before the shear onto the plane.
+fn sloped_faces(v: &Volume, o: Coord<f64>, r: &Receiver, faces: &mut Vec<Polygon<f64>>) {
     let (zb, zt) = volume_levels_m(v, r);
     // Heights from here on are above the receiving plane's level at the plan origin.
     let (zb, zt) = (zb - r.height_m, zt - r.height_m);
     let k = r.gradient;
     let g = |p: Coord<f64>| k.x * p.x + k.y * p.y;
-    let mut faces: Vec<Polygon<f64>> = Vec::new();
     let mut push = |mp: MultiPolygon<f64>| faces.extend(mp.0.into_iter().map(|p| p.orient(Direction::Default)));
     // Top and underside, where they are above the plane (g(p) ≤ level).
     push(band(&v.footprint, k, f64::NEG_INFINITY, zt).translate(o.x * zt, o.y * zt));
@@ -159,42 +188,54 @@ fn sloped_shadow(v: &Volume, o: Coord<f64>, r: &Receiver) -> MultiPolygon<f64> {
             faces.push(quad.orient(Direction::Default));
         }
     }
-    r.shear(o, &geo::unary_union(&faces))
 }
 
 /// The shadow of a wall following the ground on the receiving plane; `None` when the sun is behind it.
 pub fn wall_shadow_on(w: &Wall, o: Coord<f64>, r: &Receiver) -> Option<MultiPolygon<f64>> {
+    let mut quads = Vec::new();
+    wall_faces_on(w, o, r, &mut quads).then(|| geo::unary_union(&quads))
+}
+
+/// The quadrilaterals whose union is [`wall_shadow_on`], one per segment; `false` when the sun is
+/// behind the plane.
+pub fn wall_faces_on(w: &Wall, o: Coord<f64>, r: &Receiver, out: &mut Vec<Polygon<f64>>) -> bool {
     if !r.faces_sun(o) {
-        return None;
+        return false;
     }
     let k = r.gradient;
     let g = |p: Coord<f64>| k.x * p.x + k.y * p.y;
     let h = w.height_m - r.height_m;
     if h <= 0.0 {
-        return Some(MultiPolygon::new(vec![]));
+        return true;
     }
-    let quads: Vec<Polygon<f64>> = w
-        .line
-        .lines()
-        .map(|e| {
-            let at = |p: Coord<f64>, z: f64| Coord { x: p.x + o.x * z, y: p.y + o.y * z };
-            let (ga, gc) = (g(e.start), g(e.end));
-            Polygon::new(
-                LineString::from(vec![
-                    at(e.start, ga),
-                    at(e.end, gc),
-                    at(e.end, gc + h),
-                    at(e.start, ga + h),
-                    at(e.start, ga),
-                ]),
-                vec![],
-            )
-        })
-        .filter(|q| geo::Area::unsigned_area(q) > 1e-9)
-        .map(|q| q.orient(Direction::Default))
-        .collect();
-    let flat = geo::unary_union(&quads);
-    Some(if r.is_flat() { flat } else { r.shear(o, &flat) })
+    out.extend(
+        w.line
+            .lines()
+            .map(|e| {
+                let at = |p: Coord<f64>, z: f64| Coord { x: p.x + o.x * z, y: p.y + o.y * z };
+                let (ga, gc) = (g(e.start), g(e.end));
+                Polygon::new(
+                    LineString::from(vec![
+                        at(e.start, ga),
+                        at(e.end, gc),
+                        at(e.end, gc + h),
+                        at(e.start, ga + h),
+                        at(e.start, ga),
+                    ]),
+                    vec![],
+                )
+            })
+            .filter(|q| geo::Area::unsigned_area(q) > 1e-9)
+            .map(|q| {
+                let q = q.orient(Direction::Default);
+                if r.is_flat() {
+                    q
+                } else {
+                    r.shear_polygon(o, &q)
+                }
+            }),
+    );
+    true
 }
 
 #[cfg(test)]
