@@ -10,6 +10,8 @@ mod raster;
 mod shade;
 mod sky_view;
 mod sun_hours;
+mod timeline;
+mod year_profile;
 
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
@@ -19,3 +21,5 @@ pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;
 pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};
 pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};
+pub use timeline::{day_timeline, Interval, Timeline};
+pub use year_profile::{year_profile, MonthProfile, YearProfile};

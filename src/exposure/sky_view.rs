@@ -89,15 +89,16 @@ pub fn sky_view_at(model: &SiteModel, point: ViewPoint, massing: Massing, step_d
     let ground = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
     let volumes: Vec<_> = model.volumes.iter().filter(|v| massing.includes(v.status)).cloned().collect();
     let walls: Vec<_> = model.walls.iter().filter(|w| massing.includes(w.status)).cloned().collect();
-    let mut seen = 0.0;
+    // Summed as the hidden share, as the map does, so an open point gets exactly 1.
+    let mut hidden = 0.0;
     for p in sky_patches(step_deg)? {
         let e = exposure(point, &volumes, &walls, &ground, p.azimuth_deg, p.altitude_deg)
             .map_err(|e| ExposureError::Period(e.to_string()))?;
-        if e == Exposure::Sunlit {
-            seen += p.weight;
+        if e != Exposure::Sunlit {
+            hidden += p.weight;
         }
     }
-    Ok(seen.clamp(0.0, 1.0))
+    Ok((1.0 - hidden).clamp(0.0, 1.0))
 }
 
 #[cfg(test)]
