@@ -69,3 +69,146 @@ fn cell_sun_hours_match_point_ray_tests_within_one_step() {
     }
     assert!(compared > 50);
 }
+
+fn demo_grid(m: &sunlot::site::SiteModel, cell_m: f64) -> Grid {
+    let polys: Vec<_> = m.areas.iter().map(|a| a.polygon.clone()).collect();
+    Grid::over(&geo::MultiPolygon::new(polys), cell_m, DEFAULT_MAX_CELLS).unwrap()
+}
+
+#[test]
+fn tiles_with_halos_stitched_equal_the_whole_map_exactly() {
+    use sunlot::exposure::{massing_near, shadow_halo_m, Window};
+    let m = sunlot::demo::demo();
+    let g = demo_grid(&m, 0.5);
+    let date = NaiveDate::from_ymd_opt(2026, 3, 21).unwrap();
+    let window = Window::Clock {
+        from: chrono::NaiveTime::from_hms_opt(9, 0, 0).unwrap(),
+        to: chrono::NaiveTime::from_hms_opt(15, 0, 0).unwrap(),
+    };
+    let period = Period { first: date, last: date + Duration::days(2), window, step_min: 7 };
+    let req = SunHoursRequest {
+        model: &m,
+        grid: &g,
+        period,
+        plane_m: 0.0,
+        delta_t: DeltaT::EspenakMeeus,
+        massing: sunlot::exposure::Massing::WithProposed,
+    };
+    let whole = sun_hours(&req, |_| true).unwrap();
+    let halo = shadow_halo_m(&m, &period, 0.0, DeltaT::EspenakMeeus).unwrap();
+    assert!(halo.is_finite() && halo > 10.0, "halo {halo} m");
+    let mut stitched = vec![None; g.rows * g.cols];
+    let tiles = g.tiles(37, 23);
+    assert!(tiles.len() > 4);
+    let mut dropped = 0;
+    for t in &tiles {
+        let near = massing_near(&m, t, halo);
+        dropped += m.volumes.len() - near.volumes.len();
+        let part = sun_hours(&SunHoursRequest { model: &near, grid: t, ..req.clone() }, |_| true).unwrap();
+        g.stitch(t, &part.hours, &mut stitched);
+    }
+    assert!(dropped > 0, "some tiles must leave far volumes out for the halo to be tested");
+    assert_eq!(stitched, whole.hours);
+}
+
+#[test]
+fn rasterised_shadow_area_matches_the_exact_polygons_within_a_cell_per_metre_of_boundary() {
+    // One step at a time: the cells a 1-step map finds shaded, times the cell area, against the
+    // area of the exact union of shadows (the shadows module, clipped to the grid) inside the grid.
+    use geo::{Area, BooleanOps, Euclidean, Length};
+    use sunlot::shadow::{cast_shadows, Shadows};
+    let m = sunlot::demo::demo();
+    let g = demo_grid(&m, 0.25);
+    let mut square = g.clone();
+    square.inside.iter_mut().for_each(|c| *c = true);
+    let frame = g.bounds().to_polygon();
+    let receiver = Receiver::on(&m.ground, m.plan_rotation_deg, 0.0);
+    for (date, hh) in
+        [(NaiveDate::from_ymd_opt(2026, 3, 20).unwrap(), 9), (NaiveDate::from_ymd_opt(2026, 6, 21).unwrap(), 15)]
+    {
+        let t0 = m.zone.resolve(date.and_hms_opt(hh, 0, 0).unwrap(), sunlot::time::Fold::Earlier).unwrap();
+        let period = Period {
+            first: date,
+            last: date,
+            window: sunlot::exposure::Window::Clock {
+                from: chrono::NaiveTime::from_hms_opt(hh, 0, 0).unwrap(),
+                to: chrono::NaiveTime::from_hms_opt(hh, 2, 0).unwrap(),
+            },
+            step_min: 2,
+        };
+        let req = SunHoursRequest {
+            model: &m,
+            grid: &square,
+            period,
+            plane_m: 0.0,
+            delta_t: DeltaT::EspenakMeeus,
+            massing: sunlot::exposure::Massing::WithProposed,
+        };
+        let map = sun_hours(&req, |_| true).unwrap();
+        let shaded_cells = map.hours.iter().filter(|h| h.unwrap() < map.open_hours * 0.5).count();
+        let mid = t0 + Duration::minutes(1);
+        let sun =
+            Ephemeris::new().sun_at(mid, DeltaT::EspenakMeeus).unwrap().observe(&m.location, &Atmosphere::default());
+        let s = cast_shadows(
+            &m.volumes,
+            &m.walls,
+            m.plan_azimuth_deg(sun.azimuth_deg),
+            sun.altitude_deg,
+            &receiver,
+            g.bounds(),
+        )
+        .unwrap();
+        let Shadows::Sun { union, .. } = s else { panic!("sun up") };
+        let exact = union.intersection(&geo::MultiPolygon::new(vec![frame.clone()]));
+        let boundary: f64 = exact
+            .0
+            .iter()
+            .flat_map(|p| std::iter::once(p.exterior()).chain(p.interiors()))
+            .map(|r| Euclidean.length(r))
+            .sum();
+        let raster = shaded_cells as f64 * g.cell_m * g.cell_m;
+        let tol = g.cell_m * g.cell_m * boundary; // one cell's area per metre of boundary
+        assert!(
+            (raster - exact.unsigned_area()).abs() <= tol,
+            "{date} {hh}h: {raster} vs {} m² (tol {tol})",
+            exact.unsigned_area()
+        );
+    }
+}
+
+#[test]
+fn sun_hours_at_points_match_the_point_timeline_within_one_step() {
+    use sunlot::exposure::day_timeline;
+    let m = sunlot::demo::demo();
+    let garden = m.areas.iter().find(|a| a.id == "garden-16").unwrap();
+    let g = Grid::over_polygon(&garden.polygon, 1.5, DEFAULT_MAX_CELLS).unwrap();
+    let date = NaiveDate::from_ymd_opt(2026, 3, 20).unwrap();
+    let req = SunHoursRequest {
+        model: &m,
+        grid: &g,
+        period: Period::day(date, 5),
+        plane_m: 0.0,
+        delta_t: DeltaT::EspenakMeeus,
+        massing: sunlot::exposure::Massing::WithProposed,
+    };
+    let map = sun_hours(&req, |_| true).unwrap();
+    let mut compared = 0;
+    for row in (0..g.rows).step_by(4) {
+        for col in (0..g.cols).step_by(2) {
+            let Some(h) = map.hours[row * g.cols + col] else { continue };
+            let c = g.centre(col, row);
+            let t =
+                day_timeline(&m, ViewPoint { x_m: c.x, y_m: c.y, z_m: 0.0 }, date, req.massing, DeltaT::EspenakMeeus)
+                    .unwrap();
+            // Each change of state can be off by up to one step in the map; count them.
+            let changes = t.intervals.len().max(1) as f64;
+            assert!(
+                (h - t.sun_hours).abs() <= changes * 5.0 / 60.0,
+                "cell {col},{row}: map {h} h, timeline {} h",
+                t.sun_hours
+            );
+            compared += 1;
+        }
+    }
+    assert!(compared > 10);
+}

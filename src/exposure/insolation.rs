@@ -103,6 +103,7 @@ pub fn insolation(req: &InsolationRequest, mut progress: impl FnMut(f64) -> bool
     let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, req.plane_m);
     let mut sums = ShadeSums::<2>::new(model, g, receiver, req.massing);
     let mut open = OpenSky::default();
+    let (mut open_ms, mut open_mj) = (0.0_f64, 0.0_f64);
     let mut batch: Vec<Cast<2>> = Vec::new();
     for_each_day(model, &req.period, req.delta_t, &mut |f| progress(0.05 + 0.95 * f), |_, day| {
         for s in &day {
@@ -110,9 +111,12 @@ pub fn insolation(req: &InsolationRequest, mut progress: impl FnMut(f64) -> bool
             let beam_j = beam_horizontal_w_m2(&sky, s) * s.dt_s;
             open.diffuse_kwh_m2 += (sky.ghi_w_m2 * s.dt_s - beam_j).max(0.0) / J_PER_KWH;
             if let Some(o) = step_offset(model, &receiver, s) {
-                open.sun_hours += s.dt_s / 3600.0;
-                open.beam_kwh_m2 += beam_j / J_PER_KWH;
-                batch.push((o, [s.dt_s, beam_j]));
+                // Weights in whole milliseconds and millijoules: integer sums are exact in f64, so
+                // tiles equal the whole map bit for bit.
+                let (dt_ms, beam_mj) = ((s.dt_s * 1e3).round(), (beam_j * 1e3).round());
+                open_ms += dt_ms;
+                open_mj += beam_mj;
+                batch.push((o, [dt_ms, beam_mj]));
             }
         }
         if batch.len() >= 256 {
@@ -122,18 +126,20 @@ pub fn insolation(req: &InsolationRequest, mut progress: impl FnMut(f64) -> bool
         Ok(())
     })?;
     sums.add(&batch);
-    let [shaded_s, shaded_j] = sums.finish();
+    let [shaded_ms, shaded_mj] = sums.finish();
+    open.sun_hours = open_ms / 3.6e6;
+    open.beam_kwh_m2 = open_mj / (1e3 * J_PER_KWH);
     open.total_kwh_m2 = open.beam_kwh_m2 + open.diffuse_kwh_m2;
     let n = g.rows * g.cols;
     let (mut total, mut beam, mut diffuse, mut hours) = (vec![None; n], vec![None; n], vec![None; n], vec![None; n]);
     for i in 0..n {
         let Some(svf) = sky_view[i] else { continue };
-        let b = (open.beam_kwh_m2 - shaded_j[i] / J_PER_KWH).max(0.0);
+        let b = ((open_mj - shaded_mj[i]) / (1e3 * J_PER_KWH)).max(0.0);
         let d = svf * open.diffuse_kwh_m2;
         beam[i] = Some(b);
         diffuse[i] = Some(d);
         total[i] = Some(b + d);
-        hours[i] = Some((open.sun_hours - shaded_s[i] / 3600.0).max(0.0));
+        hours[i] = Some(((open_ms - shaded_ms[i]) / 3.6e6).max(0.0));
     }
     Ok(Insolation { total_kwh_m2: total, beam_kwh_m2: beam, diffuse_kwh_m2: diffuse, sky_view, sun_hours: hours, open })
 }

@@ -10,6 +10,7 @@ mod raster;
 mod shade;
 mod sky_view;
 mod sun_hours;
+mod tiles;
 mod timeline;
 mod year_profile;
 
@@ -21,5 +22,6 @@ pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;
 pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};
 pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};
+pub use tiles::{massing_near, shadow_halo_m};
 pub use timeline::{day_timeline, Interval, Timeline};
 pub use year_profile::{year_profile, MonthProfile, YearProfile};

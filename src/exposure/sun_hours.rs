@@ -101,29 +101,31 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
     let (g, model) = (req.grid, req.model);
     let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, req.plane_m);
     let mut sums = ShadeSums::<1>::new(model, g, receiver, req.massing);
-    let (mut open_s, mut steps) = (0.0_f64, 0_usize);
+    // Weights in whole milliseconds: sums of integers are exact in f64, so a tile's cells equal the
+    // whole map's bit for bit whatever the order of the sums.
+    let (mut open_ms, mut steps) = (0.0_f64, 0_usize);
     let mut batch: Vec<Cast<1>> = Vec::new();
     for_each_day(model, &req.period, req.delta_t, &mut progress, |_, day| {
         for s in &day {
             if let Some(o) = step_offset(model, &receiver, s) {
-                batch.push((o, [s.dt_s]));
+                batch.push((o, [(s.dt_s * 1e3).round()]));
             }
         }
         if batch.len() >= 256 {
-            open_s += batch.iter().map(|c| c.1[0]).sum::<f64>();
+            open_ms += batch.iter().map(|c| c.1[0]).sum::<f64>();
             steps += batch.len();
             sums.add(&batch);
             batch.clear();
         }
         Ok(())
     })?;
-    open_s += batch.iter().map(|c| c.1[0]).sum::<f64>();
+    open_ms += batch.iter().map(|c| c.1[0]).sum::<f64>();
     steps += batch.len();
     sums.add(&batch);
     let [shaded] = sums.finish();
     let hours =
-        shaded.iter().zip(&g.inside).map(|(s, &inside)| inside.then(|| ((open_s - s) / 3600.0).max(0.0))).collect();
-    Ok(SunHours { hours, open_hours: open_s / 3600.0, steps })
+        shaded.iter().zip(&g.inside).map(|(s, &inside)| inside.then(|| ((open_ms - s) / 3.6e6).max(0.0))).collect();
+    Ok(SunHours { hours, open_hours: open_ms / 3.6e6, steps })
 }
 
 #[cfg(test)]

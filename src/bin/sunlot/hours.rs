@@ -174,10 +174,7 @@ fn map_of(a: &HoursArgs, model: &SiteModel, grid: &Grid, massing: Massing) -> Re
     let req = SunHoursRequest {
         model,
         grid,
-        first,
-        last,
-        window,
-        step_min: a.step_min,
+        period: sunlot::exposure::Period { first, last, window, step_min: a.step_min },
         plane_m: a.plane_m,
         delta_t: a.delta_t.delta_t()?,
         massing,
