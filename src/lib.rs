@@ -24,6 +24,7 @@
 //! - `web` (wasm32 only): the JavaScript facade.
 
 pub mod demo;
+pub mod envelope;
 pub mod exposure;
 pub mod shadow;
 pub mod site;
