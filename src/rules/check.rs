@@ -1,0 +1,209 @@
+//! Checking a site against a rule: each area's sun before and after the proposal.
+
+use chrono::NaiveDate;
+use serde::Serialize;
+
+use super::rule::{Combine, Rule, RuleError};
+use crate::exposure::{before_after, map_stats, Grid, Period, SunHoursRequest, Window, DEFAULT_MAX_CELLS};
+use crate::site::SiteModel;
+use crate::time::DeltaT;
+
+/// The caution shown with every pass or fail.
+pub const CAUTION: &str = "Indicative results from a clear-sky model with the massing as drawn; local planning codes \
+                           and a licensed professional's assessment govern.";
+
+/// What to check.
+#[derive(Debug, Clone)]
+pub struct CheckRequest<'a> {
+    /// The site.
+    pub model: &'a SiteModel,
+    /// The rule.
+    pub rule: &'a Rule,
+    /// The year of the rule's date.
+    pub year: i32,
+    /// Cell size, metres.
+    pub cell_m: f64,
+    /// Time step, minutes.
+    pub step_min: u32,
+    /// ΔT.
+    pub delta_t: DeltaT,
+}
+
+/// One area's result.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct AreaCheck {
+    /// Area id.
+    pub id: String,
+    /// Area name.
+    pub name: String,
+    /// Plan area sampled (cells × cell area), m².
+    pub area_m2: f64,
+    /// Share with at least the rule's hours before the proposal, 0–1.
+    pub before_share: f64,
+    /// Share after, 0–1.
+    pub after_share: f64,
+    /// Area with at least the rule's hours before, m².
+    pub before_m2: f64,
+    /// Area after, m².
+    pub after_m2: f64,
+    /// `after_m2 / before_m2`; `None` when nothing had the hours before.
+    pub ratio: Option<f64>,
+    /// Whether `after_share ≥ min_share`.
+    pub share_test: bool,
+    /// `after_share − min_share`, share points (positive passes).
+    pub share_margin: f64,
+    /// Whether `after_m2 ≥ min_ratio × before_m2`, when the rule has a ratio.
+    pub ratio_test: Option<bool>,
+    /// `ratio − min_ratio` (positive passes), when both exist.
+    pub ratio_margin: Option<f64>,
+    /// The verdict.
+    pub passes: bool,
+    /// Mean hours of direct sun before and after.
+    pub mean_before_h: f64,
+    /// Mean hours after.
+    pub mean_after_h: f64,
+}
+
+/// The check of every area the rule picks.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CheckReport {
+    /// The rule.
+    pub rule: Rule,
+    /// The date tested.
+    pub date: NaiveDate,
+    /// Cell size, metres.
+    pub cell_m: f64,
+    /// Time step, minutes.
+    pub step_min: u32,
+    /// Each area.
+    pub areas: Vec<AreaCheck>,
+    /// Whether every area passes.
+    pub all_pass: bool,
+    /// The caution.
+    pub caution: &'static str,
+}
+
+/// Checks the site against the rule. `progress` gets the fraction done and may cancel.
+///
+/// # Errors
+/// [`RuleError`] for an unknown area, no areas, a bad date, grid or step (before any work), or a
+/// cancelled run.
+pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> Result<CheckReport, RuleError> {
+    let rule = req.rule.clone().validated()?;
+    let model = req.model;
+    for id in &rule.area_ids {
+        if !model.areas.iter().any(|a| &a.id == id) {
+            return Err(RuleError::UnknownArea { rule: rule.id.clone(), area: id.clone() });
+        }
+    }
+    let areas: Vec<_> =
+        model.areas.iter().filter(|a| rule.area_kinds.contains(&a.kind) || rule.area_ids.contains(&a.id)).collect();
+    if areas.is_empty() {
+        let kinds = serde_json::to_string(&rule.area_kinds).unwrap_or_default();
+        return Err(RuleError::NoAreas { rule: rule.id.clone(), kinds });
+    }
+    let date = NaiveDate::from_ymd_opt(req.year, rule.month, rule.day).ok_or_else(|| RuleError::Field {
+        rule: rule.id.clone(),
+        field: "day",
+        reason: format!("{}-{:02}-{:02} is not a date", req.year, rule.month, rule.day),
+    })?;
+    let window = match rule.window_times()? {
+        (Some(from), Some(to)) => Window::Clock { from, to },
+        _ => Window::Daylight,
+    };
+    let period = Period { first: date, last: date, window, step_min: req.step_min };
+    period.check(model, req.delta_t)?;
+    let grids = areas
+        .iter()
+        .map(|a| Grid::over_polygon(&a.polygon, req.cell_m, DEFAULT_MAX_CELLS))
+        .collect::<Result<Vec<_>, _>>()?;
+    let mut out = Vec::new();
+    let n = areas.len() as f64;
+    for (k, (area, grid)) in areas.iter().zip(&grids).enumerate() {
+        let sun = SunHoursRequest {
+            model,
+            grid,
+            period,
+            plane_m: 0.0,
+            delta_t: req.delta_t,
+            massing: crate::exposure::Massing::WithProposed,
+        };
+        let ba = before_after(&sun, |f| progress((k as f64 + f) / n))?;
+        let (Some(b), Some(a)) = (
+            map_stats(&ba.before.hours, grid.cell_m, rule.min_hours),
+            map_stats(&ba.after.hours, grid.cell_m, rule.min_hours),
+        ) else {
+            continue; // the area is smaller than a cell's centre spacing: nothing sampled
+        };
+        let ratio = (b.at_least_m2 > 0.0).then(|| a.at_least_m2 / b.at_least_m2);
+        let share_test = a.at_least_share >= rule.min_share;
+        let ratio_test = rule.min_ratio.map(|r| a.at_least_m2 >= r * b.at_least_m2 - 1e-9);
+        let passes = match (ratio_test, rule.combine) {
+            (None, _) => share_test,
+            (Some(r), Combine::Either) => share_test || r,
+            (Some(r), Combine::Both) => share_test && r,
+        };
+        out.push(AreaCheck {
+            id: area.id.clone(),
+            name: area.name.clone(),
+            area_m2: a.area_m2,
+            before_share: b.at_least_share,
+            after_share: a.at_least_share,
+            before_m2: b.at_least_m2,
+            after_m2: a.at_least_m2,
+            ratio,
+            share_test,
+            share_margin: a.at_least_share - rule.min_share,
+            ratio_test,
+            ratio_margin: rule.min_ratio.zip(ratio).map(|(r, x)| x - r),
+            passes,
+            mean_before_h: b.mean,
+            mean_after_h: a.mean,
+        });
+    }
+    let all_pass = out.iter().all(|a| a.passes);
+    Ok(CheckReport { rule, date, cell_m: req.cell_m, step_min: req.step_min, areas: out, all_pass, caution: CAUTION })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::rules::preset;
+
+    fn req<'a>(m: &'a SiteModel, r: &'a Rule) -> CheckRequest<'a> {
+        CheckRequest { model: m, rule: r, year: 2026, cell_m: 1.0, step_min: 10, delta_t: DeltaT::EspenakMeeus }
+    }
+
+    #[test]
+    fn the_demo_gardens_are_checked_against_the_bre_preset() {
+        let m = crate::demo::demo();
+        let rule = preset("bre-br209-amenity").unwrap();
+        let r = check_rule(&req(&m, &rule), |_| true).unwrap();
+        assert!(r.areas.len() >= 5, "{:?}", r.areas.iter().map(|a| &a.id).collect::<Vec<_>>());
+        for a in &r.areas {
+            assert!(a.after_share <= a.before_share + 1e-12, "{}: the proposal cannot add sun", a.id);
+            let verdict = a.share_test || a.ratio_test.unwrap();
+            assert_eq!(a.passes, verdict);
+        }
+    }
+
+    #[test]
+    fn a_rule_naming_an_unknown_area_is_refused_before_work() {
+        let m = crate::demo::demo();
+        let mut rule = preset("bre-br209-amenity").unwrap();
+        rule.area_ids.push("garden-99".into());
+        let e = check_rule(&req(&m, &rule), |_| panic!("no work may start")).unwrap_err();
+        assert!(e.to_string().contains("garden-99"), "{e}");
+        let bad = r#"{"id":"x","title":"t","month":2,"day":30,"min_hours":2,"min_share":0.5,"area_kinds":["garden"]}"#;
+        assert!(Rule::from_json(bad).unwrap_err().to_string().contains("day"));
+        let inverted = r#"{"id":"x","title":"t","month":6,"day":21,"from":"15:00","to":"09:00","min_hours":2,"min_share":0.5,"area_kinds":["garden"]}"#;
+        assert!(Rule::from_json(inverted).unwrap_err().to_string().contains("inverted"));
+        assert!(preset("nope").unwrap_err().to_string().contains("bre-br209-amenity"));
+    }
+
+    #[test]
+    fn rules_round_trip_through_json() {
+        let rule = preset("bre-br209-amenity").unwrap();
+        assert_eq!(Rule::from_json(&rule.to_json()).unwrap(), rule);
+    }
+}
