@@ -26,6 +26,7 @@
 pub mod demo;
 pub mod envelope;
 pub mod exposure;
+pub mod render;
 pub mod rules;
 pub mod shadow;
 pub mod site;

@@ -1,0 +1,60 @@
+//! The drawing abstraction every figure is drawn through.
+
+/// An sRGB colour with alpha, 0–255.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Colour {
+    /// Red.
+    pub r: u8,
+    /// Green.
+    pub g: u8,
+    /// Blue.
+    pub b: u8,
+    /// Opacity (255 opaque).
+    pub a: u8,
+}
+
+impl Colour {
+    /// An opaque colour.
+    pub const fn rgb(r: u8, g: u8, b: u8) -> Self {
+        Colour { r, g, b, a: 255 }
+    }
+
+    /// `#rrggbb`, or `rgba(…)` when not opaque (SVG and CSS).
+    pub fn css(&self) -> String {
+        if self.a == 255 {
+            format!("#{:02x}{:02x}{:02x}", self.r, self.g, self.b)
+        } else {
+            format!("rgba({},{},{},{:.3})", self.r, self.g, self.b, f64::from(self.a) / 255.0)
+        }
+    }
+}
+
+/// Where a text's reference point is along its line.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Anchor {
+    /// At its start.
+    Start,
+    /// At its middle.
+    Middle,
+    /// At its end.
+    End,
+}
+
+/// A surface to draw on, in pixels with y down.
+pub trait Draw {
+    /// Width and height, pixels.
+    fn size(&self) -> (u32, u32);
+    /// Fills a polygon (even-odd; several rings may be passed one after another in `rings`).
+    fn fill_polygon(&mut self, rings: &[Vec<(f64, f64)>], fill: Colour);
+    /// Strokes a polyline, closed or not, `width_px` wide.
+    fn stroke(&mut self, points: &[(f64, f64)], width_px: f64, colour: Colour, closed: bool);
+    /// Writes one line of text with its baseline at `y`, `size_px` tall.
+    fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor);
+    /// Draws an RGBA image of `w` × `h` pixels (row-major, top row first) scaled into the rectangle,
+    /// without smoothing.
+    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, rgba: &[u8], w: u32, h: u32);
+    /// Fills a rectangle.
+    fn fill_rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: Colour) {
+        self.fill_polygon(&[vec![(x, y), (x + w, y), (x + w, y + h), (x, y + h)]], fill);
+    }
+}

@@ -1,0 +1,92 @@
+//! The SVG back end: draws into an SVG document string.
+
+use std::fmt::Write;
+
+use base64::Engine;
+
+use super::draw::{Anchor, Colour, Draw};
+
+/// An SVG document being drawn.
+#[derive(Debug, Clone)]
+pub struct Svg {
+    width: u32,
+    height: u32,
+    body: String,
+}
+
+fn esc(s: &str) -> String {
+    s.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
+}
+
+fn path(points: &[(f64, f64)], closed: bool) -> String {
+    let mut d = String::new();
+    for (i, (x, y)) in points.iter().enumerate() {
+        let _ = write!(d, "{}{:.2},{:.2}", if i == 0 { "M" } else { "L" }, x, y);
+    }
+    if closed {
+        d.push('Z');
+    }
+    d
+}
+
+impl Svg {
+    /// A blank document.
+    pub fn new(width: u32, height: u32) -> Self {
+        Svg { width, height, body: String::new() }
+    }
+
+    /// The document.
+    pub fn finish(&self) -> String {
+        format!(
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" \
+             font-family=\"monospace\">\n{}</svg>\n",
+            self.body,
+            w = self.width,
+            h = self.height
+        )
+    }
+}
+
+impl Draw for Svg {
+    fn size(&self) -> (u32, u32) {
+        (self.width, self.height)
+    }
+
+    fn fill_polygon(&mut self, rings: &[Vec<(f64, f64)>], fill: Colour) {
+        let d: String = rings.iter().map(|r| path(r, true)).collect();
+        let _ = writeln!(self.body, "<path d=\"{d}\" fill=\"{}\" fill-rule=\"evenodd\"/>", fill.css());
+    }
+
+    fn stroke(&mut self, points: &[(f64, f64)], width_px: f64, colour: Colour, closed: bool) {
+        let _ = writeln!(
+            self.body,
+            "<path d=\"{}\" fill=\"none\" stroke=\"{}\" stroke-width=\"{width_px}\" stroke-linejoin=\"round\"/>",
+            path(points, closed),
+            colour.css()
+        );
+    }
+
+    fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
+        let a = match anchor {
+            Anchor::Start => "start",
+            Anchor::Middle => "middle",
+            Anchor::End => "end",
+        };
+        let _ = writeln!(
+            self.body,
+            "<text x=\"{x:.1}\" y=\"{y:.1}\" font-size=\"{size_px}\" fill=\"{}\" text-anchor=\"{a}\">{}</text>",
+            colour.css(),
+            esc(text)
+        );
+    }
+
+    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, rgba: &[u8], w: u32, h: u32) {
+        let png = super::pixmap::encode_png(rgba, w, h);
+        let data = base64::engine::general_purpose::STANDARD.encode(png);
+        let _ = writeln!(
+            self.body,
+            "<image x=\"{x:.2}\" y=\"{y:.2}\" width=\"{width:.2}\" height=\"{height:.2}\" preserveAspectRatio=\"none\" \
+             style=\"image-rendering:pixelated\" href=\"data:image/png;base64,{data}\"/>"
+        );
+    }
+}
