@@ -137,6 +137,21 @@ impl Grid {
         }
     }
 
+    /// `values` with every cell whose centre is outside `polygon` set to `None` (the figures of one
+    /// area of a grid laid over several).
+    pub fn only_in<T: Clone>(&self, polygon: &Polygon<f64>, values: &[Option<T>]) -> Vec<Option<T>> {
+        let mut spans = RowSpans::new(self);
+        spans.add_polygon(self, polygon);
+        let mut out = vec![None; values.len()];
+        for row in 0..self.rows {
+            for (a, b) in spans.merged(row) {
+                let r = row * self.cols;
+                out[r + a..r + b].clone_from_slice(&values[r + a..r + b]);
+            }
+        }
+        out
+    }
+
     /// Number of cells inside the area.
     pub fn inside_count(&self) -> usize {
         self.inside.iter().filter(|&&b| b).count()

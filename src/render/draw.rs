@@ -40,6 +40,31 @@ pub enum Anchor {
     End,
 }
 
+/// A safe estimate of a line's width, pixels: the wider of the bitmap font (8 pixels a character,
+/// scaled by whole pixels) and a monospace face at 0.6 em a character.
+pub fn text_width_px(size_px: f64, text: &str) -> f64 {
+    let n = text.chars().count() as f64;
+    n * (8.0 * (size_px / 10.0).round().max(1.0)).max(0.6 * size_px)
+}
+
+/// `text` broken at spaces into lines no wider than `width_px` at `size_px`.
+pub fn wrap(text: &str, size_px: f64, width_px: f64) -> Vec<String> {
+    let mut lines: Vec<String> = Vec::new();
+    let mut line = String::new();
+    for word in text.split_whitespace() {
+        let candidate = if line.is_empty() { word.to_string() } else { format!("{line} {word}") };
+        if !line.is_empty() && text_width_px(size_px, &candidate) > width_px {
+            lines.push(std::mem::replace(&mut line, word.to_string()));
+        } else {
+            line = candidate;
+        }
+    }
+    if !line.is_empty() {
+        lines.push(line);
+    }
+    lines
+}
+
 /// A surface to draw on, in pixels with y down.
 pub trait Draw {
     /// Width and height, pixels.

@@ -3,7 +3,7 @@
 
 use geo::{BoundingRect, Coord, Polygon, Rect};
 
-use super::draw::{Anchor, Colour, Draw};
+use super::draw::{text_width_px, wrap, Anchor, Colour, Draw};
 use super::ramp::ramp_colour;
 use crate::exposure::Grid;
 
@@ -70,8 +70,11 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
-    d.text(24.0, 34.0, 20.0, &map.title, INK, Anchor::Start);
-    d.text(24.0, 58.0, 12.0, &map.subtitle, MUTED, Anchor::Start);
+    let title = wrap(&map.title, 16.0, w - 48.0);
+    d.text(24.0, 30.0, 16.0, title.first().map_or("", |s| s.as_str()), INK, Anchor::Start);
+    let sub =
+        if title.len() > 1 { format!("{} · {}", title[1..].join(" "), map.subtitle) } else { map.subtitle.clone() };
+    d.text(24.0, 54.0, 12.0, &sub, MUTED, Anchor::Start);
 
     // The plan's extent: the grid and every outline, with a margin.
     let g = map.grid;
@@ -84,7 +87,7 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
             );
         }
     }
-    let (bx, by, bw, bh) = (24.0, 80.0, w - 260.0, h - 160.0);
+    let (bx, by, bw, bh) = (24.0, 80.0, w - 260.0, h - 200.0);
     let scale = (bw / ext.width().max(1e-9)).min(bh / ext.height().max(1e-9));
     let ox = bx + (bw - ext.width() * scale) / 2.0;
     let oy = by + (bh - ext.height() * scale) / 2.0;
@@ -107,6 +110,15 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
     let (x1, y1) = to_px(Coord { x: b.max().x, y: b.min().y });
     d.image(x0, y0, x1 - x0, y1 - y0, &rgba, g.cols as u32, g.rows as u32);
 
+    for o in map.outlines.iter().filter(|o| o.kind == OutlineKind::Existing) {
+        let rings: Vec<Vec<(f64, f64)>> = std::iter::once(o.polygon.exterior())
+            .chain(o.polygon.interiors())
+            .map(|r| r.coords().map(|c| to_px(*c)).collect())
+            .collect();
+        d.fill_polygon(&rings, Colour::rgb(222, 222, 222));
+    }
+    // Labels go where they fit: inside their outline's width, clear of labels already placed.
+    let mut placed: Vec<(f64, f64, f64, f64)> = Vec::new();
     for o in &map.outlines {
         let (colour, width) = match o.kind {
             OutlineKind::Area => (MUTED, 1.0),
@@ -117,17 +129,25 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
             let pts: Vec<(f64, f64)> = ring.coords().map(|c| to_px(*c)).collect();
             d.stroke(&pts, width, colour, true);
         }
-        if !o.label.is_empty() {
-            if let Some(r) = o.polygon.bounding_rect() {
-                let (cx, cy) = to_px(r.center());
-                d.text(cx, cy + 4.0, 10.0, &o.label, colour, Anchor::Middle);
+        let Some(r) = o.polygon.bounding_rect().filter(|_| !o.label.is_empty()) else { continue };
+        let tw = text_width_px(10.0, &o.label);
+        if tw > r.width() * scale - 4.0 {
+            continue;
+        }
+        let (cx, cy) = to_px(r.center());
+        for shift in [0.0, 14.0, -14.0, 28.0] {
+            let bx = (cx - tw / 2.0, cy + shift - 8.0, cx + tw / 2.0, cy + shift + 4.0);
+            if placed.iter().all(|p| bx.2 < p.0 || bx.0 > p.2 || bx.3 < p.1 || bx.1 > p.3) {
+                d.text(cx, cy + shift + 4.0, 10.0, &o.label, colour, Anchor::Middle);
+                placed.push(bx);
+                break;
             }
         }
     }
 
     // Scale bar under the plan.
     let len_m = nice_length(ext.width() / 4.0);
-    let (sx, sy) = (bx, by + bh + 30.0);
+    let (sx, sy) = (bx, by + bh + 24.0);
     d.fill_rect(sx, sy - 6.0, len_m * scale, 6.0, INK);
     d.text(sx, sy + 16.0, 11.0, "0", INK, Anchor::Middle);
     d.text(sx + len_m * scale, sy + 16.0, 11.0, &format!("{len_m} m"), INK, Anchor::Middle);
@@ -178,7 +198,10 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
             d.text(lx + lw + 10.0, y + 4.0, 12.0, label, INK, Anchor::Start);
         }
     }
-    d.text(24.0, h - 16.0, 11.0, &map.caution, MUTED, Anchor::Start);
+    let lines = wrap(&map.caution, 11.0, w - 48.0);
+    for (k, line) in lines.iter().enumerate() {
+        d.text(24.0, h - 12.0 - 16.0 * (lines.len() - 1 - k) as f64, 11.0, line, MUTED, Anchor::Start);
+    }
 }
 
 #[cfg(test)]

@@ -215,3 +215,40 @@ impl WhenArgs {
 pub fn day_bounds(zone: &Zone, date: NaiveDate) -> (DateTime<Utc>, DateTime<Utc>) {
     (zone.start_of_day(date), zone.start_of_day(date.succ_opt().unwrap_or(date)))
 }
+
+/// The clear atmosphere of the Bird model.
+#[derive(Debug, Args)]
+pub struct ClearSkyArgs {
+    /// Ground albedo, 0–1 (for the Bird model and the ground-reflected part on a surface).
+    #[arg(long, default_value_t = 0.2)]
+    pub albedo: f64,
+    /// Aerosol optical depth at 500 nm.
+    #[arg(long, default_value_t = 0.10)]
+    pub aod_500: f64,
+    /// Aerosol optical depth at 380 nm.
+    #[arg(long, default_value_t = 0.15)]
+    pub aod_380: f64,
+    /// Precipitable water, centimetres.
+    #[arg(long, default_value_t = 1.5)]
+    pub precipitable_water_cm: f64,
+    /// Ozone column, centimetres.
+    #[arg(long, default_value_t = 0.3)]
+    pub ozone_cm: f64,
+}
+
+impl ClearSkyArgs {
+    /// The checked Bird atmosphere at `pressure_hpa`.
+    pub fn bird(&self, pressure_hpa: f64) -> Result<sunlot::sky::BirdAtmosphere, String> {
+        sunlot::sky::BirdAtmosphere {
+            aod_380: self.aod_380,
+            aod_500: self.aod_500,
+            precipitable_water_cm: self.precipitable_water_cm,
+            ozone_cm: self.ozone_cm,
+            forward_scattering: 0.85,
+            albedo: self.albedo,
+            pressure_hpa,
+        }
+        .validated()
+        .map_err(|e| format!("--{}", input_message(&e).replace('_', "-")))
+    }
+}

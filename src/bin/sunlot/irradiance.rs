@@ -32,21 +32,8 @@ pub struct IrradianceArgs {
     /// Direction the receiving surface faces, degrees clockwise from true north (180 = south).
     #[arg(long, default_value_t = 180.0)]
     pub surface_azimuth_deg: f64,
-    /// Ground albedo, 0–1 (for the Bird model and the ground-reflected part on the surface).
-    #[arg(long, default_value_t = 0.2)]
-    pub albedo: f64,
-    /// Aerosol optical depth at 500 nm.
-    #[arg(long, default_value_t = 0.10)]
-    pub aod_500: f64,
-    /// Aerosol optical depth at 380 nm.
-    #[arg(long, default_value_t = 0.15)]
-    pub aod_380: f64,
-    /// Precipitable water, centimetres.
-    #[arg(long, default_value_t = 1.5)]
-    pub precipitable_water_cm: f64,
-    /// Ozone column, centimetres.
-    #[arg(long, default_value_t = 0.3)]
-    pub ozone_cm: f64,
+    #[command(flatten)]
+    pub sky: args::ClearSkyArgs,
     /// Output: an aligned table, JSON, or CSV.
     #[arg(long, value_enum, default_value_t = Format::Table)]
     pub format: Format,
@@ -63,20 +50,10 @@ struct Setup {
 pub fn run(a: &IrradianceArgs) -> Result<String, String> {
     let site = a.site.site()?;
     let air = a.air.atmosphere()?;
-    let bird = BirdAtmosphere {
-        aod_380: a.aod_380,
-        aod_500: a.aod_500,
-        precipitable_water_cm: a.precipitable_water_cm,
-        ozone_cm: a.ozone_cm,
-        forward_scattering: 0.85,
-        albedo: a.albedo,
-        pressure_hpa: a.air.pressure_hpa,
-    }
-    .validated()
-    .map_err(|e| format!("--{}", input_message(&e).replace('_', "-")))?;
+    let bird = a.sky.bird(a.air.pressure_hpa)?;
     let surface = match a.tilt_deg {
         Some(t) if (0.0..=180.0).contains(&t) && a.surface_azimuth_deg.is_finite() => {
-            Some(Surface { tilt_deg: t, azimuth_deg: a.surface_azimuth_deg, albedo: a.albedo })
+            Some(Surface { tilt_deg: t, azimuth_deg: a.surface_azimuth_deg, albedo: a.sky.albedo })
         }
         Some(t) => return Err(format!("--tilt-deg must be 0 to 180 with a finite --surface-azimuth-deg, got {t}")),
         None => None,

@@ -2,15 +2,22 @@
 
 mod args;
 mod batch;
+mod check;
+mod compare;
 mod day;
 mod demo;
+mod envelope;
 mod hours;
+mod insolation;
 mod irradiance;
+mod maps;
 mod output;
 mod point;
 mod position;
+mod progress;
 mod seasons;
 mod shadows;
+mod timeline;
 
 use std::io::Write;
 use std::process::ExitCode;
@@ -43,6 +50,18 @@ enum Command {
     ShadowTable(shadows::ShadowTableArgs),
     /// Hours of direct sun per cell over a site's areas, for a date or a range, in a daily window.
     Hours(hours::HoursArgs),
+    /// Clear-sky energy per cell (kWh/m²): beam in direct sun plus diffuse by each cell's sky view.
+    Insolation(insolation::InsolationArgs),
+    /// Sun before and after the proposal, area by area, with maps of the hours lost and the ratio.
+    Compare(compare::CompareArgs),
+    /// Check a site against a sunlight rule (a published preset or a rule file), area by area.
+    Check(check::CheckArgs),
+    /// The solar envelope of a lot: the height each cell may reach without shading protected areas.
+    Envelope(envelope::EnvelopeArgs),
+    /// A point's day: the intervals of direct sun and shade, with times and what shades it.
+    Timeline(timeline::TimelineArgs),
+    /// A point's year: direct-sun hours and clear-sky insolation per month.
+    Year(timeline::YearArgs),
     /// Convert a site between sunlot's site file and GeoJSON.
     Convert(shadows::ConvertArgs),
     /// Whether a point of a site (a window, a balcony) is in direct sun, and the skyline it sees.
@@ -61,6 +80,12 @@ fn main() -> ExitCode {
         Command::Shadows(a) => shadows::run_shadows(a),
         Command::ShadowTable(a) => shadows::run_shadow_table(a),
         Command::Hours(a) => hours::run(a),
+        Command::Insolation(a) => insolation::run(a),
+        Command::Compare(a) => compare::run(a),
+        Command::Check(a) => check::run(a),
+        Command::Envelope(a) => envelope::run(a),
+        Command::Timeline(a) => timeline::run_timeline(a),
+        Command::Year(a) => timeline::run_year(a),
         Command::Convert(a) => shadows::run_convert(a),
         Command::Point(a) => point::run(a),
         Command::Demo(a) => demo::run(a),

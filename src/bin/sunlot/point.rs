@@ -30,7 +30,7 @@ pub struct PointArgs {
     pub format: Format,
 }
 
-fn parse_point(text: &str) -> Result<ViewPoint, String> {
+pub fn parse_point(text: &str) -> Result<ViewPoint, String> {
     let v: Vec<f64> = text
         .split(',')
         .map(|p| p.trim().parse::<f64>())

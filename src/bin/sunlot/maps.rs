@@ -1,0 +1,256 @@
+//! What the map commands share: the period, the grid, the map files they write.
+
+use std::path::PathBuf;
+
+use chrono::NaiveTime;
+use clap::Args;
+use geo::{MultiPolygon, Polygon};
+use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
+use serde_json::json;
+use sunlot::exposure::{Grid, Period, Window, DEFAULT_MAX_CELLS};
+use sunlot::render::{draw_heat_map, HeatMap, Outline, OutlineKind, Pixmap, Svg, FIGURE_PX};
+use sunlot::rules::CAUTION;
+use sunlot::site::{SiteModel, Status};
+
+use crate::args;
+use crate::shadows::Loaded;
+
+/// Dates, daily window and step.
+#[derive(Debug, Args)]
+pub struct PeriodArgs {
+    /// First local date, YYYY-MM-DD.
+    #[arg(long)]
+    pub date: String,
+    /// Last local date, YYYY-MM-DD (default: the first).
+    #[arg(long)]
+    pub to: Option<String>,
+    /// Daily window in local clock time, HH:MM-HH:MM (default: sunrise to sunset).
+    #[arg(long)]
+    pub window: Option<String>,
+    /// Time step, minutes (1 to 60).
+    #[arg(long, default_value_t = 5)]
+    pub step_min: u32,
+}
+
+/// A daily window `HH:MM-HH:MM`.
+pub fn window(text: &str, flag: &str) -> Result<Window, String> {
+    let bad = || format!("{flag}: {text:?} is not HH:MM-HH:MM");
+    let (a, b) = text.split_once('-').ok_or_else(bad)?;
+    let t = |s: &str| NaiveTime::parse_from_str(s.trim(), "%H:%M").map_err(|_| bad());
+    Ok(Window::Clock { from: t(a)?, to: t(b)? })
+}
+
+impl PeriodArgs {
+    pub fn period(&self) -> Result<Period, String> {
+        let first = args::date(&self.date, "--date")?;
+        let last = self.to.as_deref().map_or(Ok(first), |t| args::date(t, "--to"))?;
+        let window = self.window.as_deref().map(|w| window(w, "--window")).transpose()?.unwrap_or(Window::Daylight);
+        Ok(Period { first, last, window, step_min: self.step_min })
+    }
+
+    /// "2026-03-21, sunrise to sunset, 5-minute steps".
+    pub fn describe(&self) -> String {
+        let dates = match &self.to {
+            Some(t) if t != &self.date => format!("{} to {t}", self.date),
+            _ => self.date.clone(),
+        };
+        let window = self.window.as_deref().map_or("sunrise to sunset".to_string(), |w| w.to_string());
+        format!("{dates}, {window}, {}-minute steps", self.step_min)
+    }
+}
+
+/// The cells to map.
+#[derive(Debug, Args)]
+pub struct GridArgs {
+    /// Ids of the areas to map, comma-separated (default: every area of the site).
+    #[arg(long, value_delimiter = ',')]
+    pub area: Vec<String>,
+    /// Cell size, metres (at least 0.01).
+    #[arg(long, default_value_t = 0.5)]
+    pub cell_m: f64,
+    /// Height of the receiving plane above the ground, metres (a terrace, a first-floor sill).
+    #[arg(long, default_value_t = 0.0)]
+    pub plane_m: f64,
+    /// Most cells allowed.
+    #[arg(long, default_value_t = DEFAULT_MAX_CELLS)]
+    pub max_cells: usize,
+}
+
+/// The areas picked by `ids` (all when empty), refusing unknown ids.
+pub fn pick_areas<'a>(model: &'a SiteModel, ids: &[String], flag: &str) -> Result<Vec<&'a sunlot::site::Area>, String> {
+    for id in ids {
+        if !model.areas.iter().any(|a| &a.id == id) {
+            let known: Vec<&str> = model.areas.iter().map(|a| a.id.as_str()).collect();
+            return Err(format!("{flag}: the site has no area {id:?} (it has: {})", known.join(", ")));
+        }
+    }
+    let out: Vec<_> = model.areas.iter().filter(|a| ids.is_empty() || ids.contains(&a.id)).collect();
+    if out.is_empty() {
+        return Err("the site has no areas to map; add one to the site file".into());
+    }
+    Ok(out)
+}
+
+impl GridArgs {
+    /// One grid over the picked areas.
+    pub fn grid(&self, model: &SiteModel) -> Result<Grid, String> {
+        let polys: Vec<Polygon<f64>> =
+            pick_areas(model, &self.area, "--area")?.iter().map(|a| a.polygon.clone()).collect();
+        Grid::over(&MultiPolygon::new(polys), self.cell_m, self.max_cells).map_err(|e| format!("--cell-m: {e}"))
+    }
+}
+
+/// The files a map command can write.
+#[derive(Debug, Clone, Args)]
+pub struct MapFiles {
+    /// Write every cell as CSV (x_m, y_m and the map's values) to this file.
+    #[arg(long, value_name = "FILE")]
+    pub csv: Option<PathBuf>,
+    /// Write the cells as GeoJSON polygons with their values to this file (WGS84 when the site came
+    /// from GeoJSON, else plan metres).
+    #[arg(long, value_name = "FILE")]
+    pub geojson: Option<PathBuf>,
+    /// Write a PNG heat map with legend, scale bar and north arrow to this file.
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
+    /// Write the same heat map as SVG to this file.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
+    /// No progress bar.
+    #[arg(long)]
+    pub quiet: bool,
+}
+
+/// One layer of values over a grid.
+pub struct Layer<'a> {
+    /// Column / property name with its unit, e.g. `sun_hours`.
+    pub name: &'a str,
+    /// Values per cell.
+    pub values: &'a [Option<f64>],
+}
+
+/// The heat map's look: which layer, its unit and range, titles.
+pub struct Picture<'a> {
+    pub layer: usize,
+    pub unit: &'a str,
+    pub range: (f64, f64),
+    pub title: String,
+    pub subtitle: String,
+}
+
+fn write(path: &PathBuf, bytes: &[u8]) -> Result<(), String> {
+    std::fs::write(path, bytes).map_err(|e| format!("{}: {e}", path.display()))
+}
+
+/// The plan outlines of a site: areas, existing and proposed volumes.
+pub fn outlines(model: &SiteModel) -> Vec<Outline> {
+    let mut out: Vec<Outline> = model
+        .areas
+        .iter()
+        .map(|a| Outline { polygon: a.polygon.clone(), label: a.id.clone(), kind: OutlineKind::Area })
+        .collect();
+    for v in &model.volumes {
+        let kind = if v.status == Status::Proposed { OutlineKind::Proposed } else { OutlineKind::Existing };
+        out.push(Outline { polygon: v.footprint.clone(), label: format!("{} m", v.top_m), kind });
+    }
+    out
+}
+
+/// Writes the files asked for; returns a note per file written.
+pub fn write_files(
+    files: &MapFiles,
+    loaded: &Loaded,
+    grid: &Grid,
+    layers: &[Layer],
+    picture: &Picture,
+) -> Result<Vec<String>, String> {
+    let model = &loaded.model;
+    let mut notes = Vec::new();
+    if let Some(path) = &files.csv {
+        let mut w = csv::Writer::from_writer(Vec::new());
+        let mut header = vec!["x_m".to_string(), "y_m".to_string()];
+        header.extend(layers.iter().map(|l| l.name.to_string()));
+        w.write_record(&header).map_err(|e| e.to_string())?;
+        for row in 0..grid.rows {
+            for col in 0..grid.cols {
+                let i = row * grid.cols + col;
+                if !grid.inside[i] {
+                    continue;
+                }
+                let c = grid.centre(col, row);
+                let mut rec = vec![format!("{:.3}", c.x), format!("{:.3}", c.y)];
+                rec.extend(layers.iter().map(|l| l.values[i].map_or(String::new(), |v| format!("{v:.4}"))));
+                w.write_record(&rec).map_err(|e| e.to_string())?;
+            }
+        }
+        write(path, &w.into_inner().map_err(|e| e.to_string())?)?;
+        notes.push(format!("cells written to {} (CSV)", path.display()));
+    }
+    if let Some(path) = &files.geojson {
+        let frame = model.frame();
+        let mut features = Vec::new();
+        for row in 0..grid.rows {
+            for col in 0..grid.cols {
+                let i = row * grid.cols + col;
+                if !grid.inside[i] {
+                    continue;
+                }
+                let sq = sunlot::envelope::cell_footprint(grid, col, row);
+                let sq = if loaded.from_geojson { model.polygon_to_wgs84(&frame, &sq) } else { sq };
+                let mut props = JsonObject::new();
+                for l in layers {
+                    props.insert(
+                        l.name.into(),
+                        l.values[i].map_or(serde_json::Value::Null, |v| json!((v * 1e4).round() / 1e4)),
+                    );
+                }
+                features.push(Feature {
+                    geometry: Some(Geometry::new(GeometryValue::from(&sq))),
+                    properties: Some(props),
+                    ..Default::default()
+                });
+            }
+        }
+        let mut fc = FeatureCollection::new(features);
+        let mut members = JsonObject::new();
+        members.insert(
+            "sunlot".into(),
+            json!({"map": picture.title, "period": picture.subtitle, "cell_m": grid.cell_m,
+                   "crs": if loaded.from_geojson { "WGS84" } else { "site plan metres" }, "caution": CAUTION}),
+        );
+        fc.foreign_members = Some(members);
+        write(path, serde_json::to_string(&fc).unwrap_or_default().as_bytes())?;
+        notes.push(format!("cells written to {} (GeoJSON)", path.display()));
+    }
+    if files.png.is_some() || files.svg.is_some() {
+        let map = HeatMap {
+            title: picture.title.clone(),
+            subtitle: picture.subtitle.clone(),
+            unit: picture.unit.into(),
+            grid,
+            values: layers[picture.layer].values,
+            range: picture.range,
+            outlines: outlines(model),
+            plan_rotation_deg: model.plan_rotation_deg,
+            caution: CAUTION.into(),
+        };
+        if let Some(path) = &files.png {
+            let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
+            draw_heat_map(&mut px, &map);
+            write(path, &px.to_png())?;
+            notes.push(format!("heat map written to {} (PNG)", path.display()));
+        }
+        if let Some(path) = &files.svg {
+            let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
+            draw_heat_map(&mut svg, &map);
+            write(path, svg.finish().as_bytes())?;
+            notes.push(format!("heat map written to {} (SVG)", path.display()));
+        }
+    }
+    Ok(notes)
+}
+
+/// The largest value of a map (at least `floor`), for a legend's top.
+pub fn top_of(values: &[Option<f64>], floor: f64) -> f64 {
+    values.iter().flatten().copied().fold(floor, f64::max)
+}
