@@ -293,25 +293,64 @@ fn point_in_sun_and_skyline() {
     assert!(!o.status.success() && stderr(&o).contains("--at"), "{}", stderr(&o));
 }
 
+fn out_dir(name: &str) -> std::path::PathBuf {
+    let d = std::env::temp_dir().join(format!("sunlot-cli-{name}-{}", std::process::id()));
+    std::fs::create_dir_all(&d).unwrap();
+    d
+}
+
+fn json_rows(o: &Output) -> Vec<serde_json::Value> {
+    assert!(o.status.success(), "{}", stderr(o));
+    serde_json::from_str::<serde_json::Value>(&stdout(o)).unwrap().as_array().unwrap().clone()
+}
+
 #[test]
-fn sun_hours_summary_and_cells() {
-    let o = sunlot(&["hours", "--demo", "--area", "garden-16", "--date", "2026-03-20", "--format", "json"], None);
-    assert!(o.status.success(), "{}", stderr(&o));
-    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
-    assert_eq!(v["cells"], 784); // 7 m × 28 m at 0.5 m
-    let open = v["open_site_h"].as_f64().unwrap();
-    assert!((open - 12.17).abs() < 0.1, "equinox day length at 52.6° N is about 12 h 10 min: {open}");
-    assert!(v["max_h"].as_f64().unwrap() <= open + 1e-9 && v["min_h"].as_f64().unwrap() >= 0.0);
+fn sun_hours_per_area_and_map_files() {
+    let d = out_dir("hours");
+    let (csv, gj, png, svg) = (d.join("h.csv"), d.join("h.geojson"), d.join("h.png"), d.join("h.svg"));
     let o = sunlot(
-        &["hours", "--demo", "--area", "garden-16", "--date", "2026-03-20", "--cell-m", "1", "--format", "csv"],
+        &[
+            "hours",
+            "--demo",
+            "--area",
+            "garden-16",
+            "--date",
+            "2026-03-20",
+            "--cell-m",
+            "1",
+            "--format",
+            "json",
+            "--csv",
+            csv.to_str().unwrap(),
+            "--geojson",
+            gj.to_str().unwrap(),
+            "--png",
+            png.to_str().unwrap(),
+            "--svg",
+            svg.to_str().unwrap(),
+        ],
         None,
     );
-    assert_eq!(stdout(&o).lines().count(), 1 + 7 * 28);
+    let rows = json_rows(&o);
+    assert_eq!(rows.len(), 1);
+    assert_eq!(rows[0]["area_m2"], 196.0); // 7 m × 28 m
+    let max = rows[0]["max_h"].as_f64().unwrap();
+    assert!(max <= 12.3 && rows[0]["min_h"].as_f64().unwrap() >= 0.0, "equinox day at 52.6° N is about 12 h 10 min");
+    let text = std::fs::read_to_string(&csv).unwrap();
+    assert_eq!(text.lines().count(), 1 + 7 * 28);
+    assert!(text.starts_with("x_m,y_m,sun_hours"));
+    let fc: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(&gj).unwrap()).unwrap();
+    assert_eq!(fc["features"].as_array().unwrap().len(), 7 * 28);
+    assert!(fc["features"][0]["properties"]["sun_hours"].is_number());
+    assert_eq!(&std::fs::read(&png).unwrap()[1..4], b"PNG");
+    assert!(std::fs::read_to_string(&svg).unwrap().starts_with("<svg"));
     for (args, want) in [
         (vec!["hours", "--demo", "--date", "2026-03-20", "--window", "15:00-09:00"], "inverted"),
         (vec!["hours", "--demo", "--date", "2026-03-20", "--cell-m", "0.001"], "cell_m must be at least 0.01"),
+        (vec!["hours", "--demo", "--date", "2026-03-20", "--cell-m", "0.02"], "more than the limit"),
         (vec!["hours", "--demo", "--date", "2026-03-20", "--area", "moat"], "no area \"moat\""),
         (vec!["hours", "--demo", "--date", "2026-03-20", "--to", "2026-03-01"], "before the first"),
+        (vec!["hours", "--demo", "--date", "9999-03-20"], "9999"),
     ] {
         let o = sunlot(&args, None);
         assert!(!o.status.success() && stderr(&o).contains(want), "{args:?}: {}", stderr(&o));
@@ -319,24 +358,116 @@ fn sun_hours_summary_and_cells() {
 }
 
 #[test]
-fn before_after_report_per_area() {
-    let o = sunlot(
-        &["hours", "--demo", "--date", "2026-03-20", "--before-after", "--cell-m", "1", "--format", "json"],
-        None,
-    );
-    assert!(o.status.success(), "{}", stderr(&o));
-    let rows: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
-    let rows = rows.as_array().unwrap();
+fn compare_reports_each_area_before_and_after() {
+    let o = sunlot(&["compare", "--demo", "--date", "2026-03-20", "--cell-m", "1", "--format", "json"], None);
+    let rows = json_rows(&o);
     assert_eq!(rows.len(), 7);
-    for r in rows {
+    for r in &rows {
         // The proposal only adds shade: after never exceeds before.
-        assert!(r["after_pct"].as_f64().unwrap() <= r["before_pct"].as_f64().unwrap() + 1e-9, "{r}");
-        assert!(r["mean_lost_h"].as_f64().unwrap() >= -1e-9, "{r}");
+        assert!(r["after_2h_pct"].as_f64().unwrap() <= r["before_2h_pct"].as_f64().unwrap() + 1e-9, "{r}");
+        assert!(r["mean_lost_h"].as_f64().unwrap() >= 0.0, "{r}");
     }
     let g9 = rows.iter().find(|r| r["area"] == "garden-9").unwrap();
     assert_eq!(
-        g9["mean_lost_h"].as_f64().unwrap(),
-        0.0,
+        g9["mean_lost_h"], 0.0,
         "at the equinox the proposal's shadow stops short of the garden across the lane"
     );
+    let g16 = rows.iter().find(|r| r["area"] == "garden-16").unwrap();
+    assert!(g16["mean_lost_h"].as_f64().unwrap() > 0.5, "the proposal shades the neighbour's garden: {g16}");
+}
+
+#[test]
+fn check_report_and_json_agree() {
+    let o = sunlot(&["check", "--demo", "--year", "2026", "--cell-m", "1", "--format", "json"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(v["rule"]["id"], "bre-br209-amenity");
+    assert!(v["rule"]["source"].as_str().unwrap().contains("BR 209"));
+    assert!(v["caution"].as_str().unwrap().contains("licensed professional"));
+    let areas = v["areas"].as_array().unwrap();
+    assert!(areas.iter().all(|a| a["id"].as_str().unwrap().starts_with("garden")));
+    let o = sunlot(&["check", "--demo", "--year", "2026", "--cell-m", "1"], None);
+    let text = stdout(&o);
+    for a in areas {
+        let verdict = if a["passes"].as_bool().unwrap() { "PASS" } else { "FAIL" };
+        let line = text.lines().find(|l| l.contains(a["id"].as_str().unwrap())).unwrap();
+        assert!(
+            line.contains(verdict) && line.contains(&format!("{:.1}", 100.0 * a["after_share"].as_f64().unwrap())),
+            "{line}"
+        );
+    }
+    assert!(text.contains("licensed professional"));
+    let d = out_dir("check");
+    let rule = d.join("rule.json");
+    std::fs::write(
+        &rule,
+        r#"{"id":"own","title":"3 h in the morning","month":6,"day":21,"from":"08:00","to":"12:00",
+            "min_hours":3,"min_share":0.5,"area_ids":["garden-16","garden-99"]}"#,
+    )
+    .unwrap();
+    let o = sunlot(&["check", "--demo", "--rule-file", rule.to_str().unwrap()], None);
+    assert!(!o.status.success() && stderr(&o).contains("garden-99"), "{}", stderr(&o));
+    assert!(stdout(&sunlot(&["check", "--help"], None)).contains("BR 209"));
+}
+
+#[test]
+fn envelope_insolation_timeline_and_year() {
+    let d = out_dir("envelope");
+    let gj = d.join("bands.geojson");
+    let o = sunlot(
+        &[
+            "envelope",
+            "--demo",
+            "--lot",
+            "lot-14",
+            "--date",
+            "2026-03-21",
+            "--geojson",
+            gj.to_str().unwrap(),
+            "--format",
+            "json",
+        ],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let max = v["max_height_m"].as_f64().unwrap();
+    assert!(max > 5.0 && max < 30.0, "{v}");
+    let fc: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(&gj).unwrap()).unwrap();
+    assert!(fc["features"].as_array().unwrap().len() >= 3);
+    let o = sunlot(&["envelope", "--demo", "--lot", "nowhere", "--date", "2026-03-21"], None);
+    assert!(!o.status.success() && stderr(&o).contains("nowhere"));
+
+    let rows = json_rows(&sunlot(
+        &[
+            "insolation",
+            "--demo",
+            "--area",
+            "garden-9,garden-16",
+            "--date",
+            "2026-06-21",
+            "--sky-step-deg",
+            "10",
+            "--format",
+            "json",
+        ],
+        None,
+    ));
+    let by = |id: &str| rows.iter().find(|r| r["area"] == id).unwrap().clone();
+    let (g9, g16) = (by("garden-9"), by("garden-16"));
+    assert!(g16["mean_kwh_m2"].as_f64().unwrap() < g9["mean_kwh_m2"].as_f64().unwrap());
+    assert!(g16["mean_sky_view"].as_f64().unwrap() < 1.0);
+
+    let rows = json_rows(&sunlot(
+        &["timeline", "--demo", "--at", "14,41,1.5", "--date", "2026-03-21", "--format", "json"],
+        None,
+    ));
+    assert_eq!(rows.iter().map(|r| r["state"].as_str().unwrap()).collect::<Vec<_>>(), ["sun", "shade", "sun"]);
+    assert_eq!(rows[1]["shaded_by"], "proposal-upper");
+    let rows = json_rows(&sunlot(
+        &["year", "--demo", "--at", "14,41,0", "--year", "2026", "--step-min", "30", "--format", "json"],
+        None,
+    ));
+    assert_eq!(rows.len(), 12);
+    assert!(rows[5]["sun_h"].as_f64().unwrap() > rows[11]["sun_h"].as_f64().unwrap());
 }

@@ -3,18 +3,25 @@
 use std::path::PathBuf;
 
 use clap::Args;
-use sunlot::rules::{check_rule, preset, CheckReport, CheckRequest, Rule, PRESETS};
+use sunlot::rules::{check_rule, preset, CheckReport, CheckRequest, Rule};
 
 use crate::args::DeltaTArgs;
 use crate::output::{Cell, Format, Table};
 use crate::progress::Bar;
 use crate::shadows::SiteFileArgs;
 
+/// The presets, for `--help`.
+pub const PRESET_HELP: &str =
+    "Presets:\n  bre-br209-amenity  at least half of each garden or amenity area with at least 2 h of \
+direct sun on 21 March, or at least 0.8 times the area so sunlit before (BRE BR 209, Site layout planning for daylight \
+and sunlight, 3rd ed. 2022; same numbers in the 2nd ed. 2011)";
+
 #[derive(Debug, Args)]
+#[command(after_help = PRESET_HELP)]
 pub struct CheckArgs {
     #[command(flatten)]
     pub site: SiteFileArgs,
-    /// A rule preset (see --list-presets).
+    /// A rule preset (listed below).
     #[arg(long, default_value = "bre-br209-amenity", conflicts_with = "rule_file")]
     pub rule: String,
     /// A rule of your own, as JSON (see README: "Rules").
@@ -29,9 +36,6 @@ pub struct CheckArgs {
     /// Time step, minutes.
     #[arg(long, default_value_t = 5)]
     pub step_min: u32,
-    /// List the presets with their sources and stop.
-    #[arg(long)]
-    pub list_presets: bool,
     #[command(flatten)]
     pub delta_t: DeltaTArgs,
     /// No progress bar.
@@ -40,15 +44,6 @@ pub struct CheckArgs {
     /// Output: a readable report (table), the full report as JSON, or the area rows as CSV.
     #[arg(long, value_enum, default_value_t = Format::Table)]
     pub format: Format,
-}
-
-fn list() -> Result<String, String> {
-    let mut out = String::new();
-    for id in PRESETS {
-        let r = preset(id).map_err(|e| e.to_string())?;
-        out += &format!("{id}\n  {}\n  source: {}\n", r.title, r.source);
-    }
-    Ok(out)
 }
 
 fn pct(x: f64) -> Cell {
@@ -116,9 +111,6 @@ pub fn report_table(r: &CheckReport) -> Table {
 }
 
 pub fn run(a: &CheckArgs) -> Result<String, String> {
-    if a.list_presets {
-        return list();
-    }
     let rule = match &a.rule_file {
         Some(path) => {
             let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;

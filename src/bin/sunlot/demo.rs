@@ -112,6 +112,17 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
     );
     out += &shade.render(Format::Table);
     out.push('\n');
+    let rule = sunlot::rules::preset("bre-br209-amenity").map_err(|e| e.to_string())?;
+    let req = sunlot::rules::CheckRequest { model: &model, rule: &rule, year, cell_m: 0.5, step_min: 5, delta_t: dt };
+    let report = sunlot::rules::check_rule(&req, |_| true).map_err(|e| e.to_string())?;
+    let mut check = crate::check::report_table(&report);
+    check.notes.insert(
+        0,
+        "Try: sunlot compare --demo --date YYYY-03-21 --png lost.png; sunlot envelope --demo --lot lot-14 --date YYYY-03-21"
+            .replace("YYYY", &year.to_string()),
+    );
+    out += &check.render(Format::Table);
+    out.push('\n');
     out += "Indicative results from the NREL SPA; the site is invented. Local planning codes and a licensed\nprofessional's assessment govern any planning decision.\n";
     Ok(out)
 }
