@@ -10,17 +10,17 @@ use geo::Polygon;
 
 use super::grid::Grid;
 
-/// Per-row spans of cell indices, `[from, to)`, collected from many polygons.
+/// Per-row spans of cell indices, `[from, to)`, collected from many polygons and merged per row.
 #[derive(Debug, Clone, Default)]
 pub struct RowSpans {
     rows: Vec<Vec<(usize, usize)>>,
-    scratch: Vec<f64>,
+    scratch: Crossings,
 }
 
 impl RowSpans {
     /// Empty spans for the rows of `grid`.
     pub fn new(grid: &Grid) -> Self {
-        RowSpans { rows: vec![Vec::new(); grid.rows], scratch: Vec::new() }
+        RowSpans { rows: vec![Vec::new(); grid.rows], scratch: Crossings::default() }
     }
 
     /// Removes all spans, keeping the storage.
@@ -58,10 +58,54 @@ impl RowSpans {
 /// Calls `emit(row, from, to)` for each span `[from, to)` of cells of `grid` whose centres lie in
 /// `polygon`.
 pub fn polygon_row_spans(grid: &Grid, polygon: &Polygon<f64>, emit: impl FnMut(usize, usize, usize)) {
-    row_spans(grid, polygon, &mut Vec::new(), emit);
+    row_spans(grid, polygon, &mut Crossings::default(), emit);
 }
 
-fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Vec<f64>, mut emit: impl FnMut(usize, usize, usize)) {
+/// The ceiling of `x` for |x| < 2⁶³, without a branch or a library call (`f64::ceil` is a call on
+/// baseline x86-64, and this runs for every span).
+#[inline]
+fn small_ceil(x: f64) -> f64 {
+    let t = x as i64 as f64;
+    t + f64::from(u8::from(t < x))
+}
+
+/// Scratch for [`row_spans`]: each row's edge crossings. The first two of a row are kept in flat
+/// arrays (a convex polygon has exactly two per row, and shadows of extruded footprints mostly are
+/// convex); more go to a per-row overflow list.
+#[derive(Debug, Clone, Default)]
+pub(crate) struct Crossings {
+    count: Vec<u32>,
+    first: Vec<[f64; 2]>,
+    more: Vec<Vec<f64>>,
+}
+
+impl Crossings {
+    fn reset(&mut self, n: usize) {
+        if self.count.len() < n {
+            self.count.resize(n, 0);
+            self.first.resize(n, [0.0; 2]);
+            self.more.resize(n, Vec::new());
+        }
+        self.count[..n].fill(0);
+    }
+
+    #[inline]
+    fn push(&mut self, k: usize, x: f64) {
+        let c = self.count[k] as usize;
+        if c < 2 {
+            self.first[k][c] = x;
+        } else {
+            if c == 2 {
+                self.more[k].clear();
+                self.more[k].extend_from_slice(&self.first[k]);
+            }
+            self.more[k].push(x);
+        }
+        self.count[k] += 1;
+    }
+}
+
+fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Crossings, mut emit: impl FnMut(usize, usize, usize)) {
     let Some(r) = geo::BoundingRect::bounding_rect(polygon) else { return };
     let c = grid.cell_m;
     // Lattice indices (from the grid's origin) of this grid's first row and column.
@@ -77,24 +121,77 @@ fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Vec<f64>, mut emit: i
     if first > last {
         return;
     }
-    let rings = || std::iter::once(polygon.exterior()).chain(polygon.interiors());
-    for row in first as usize..=last as usize {
-        let y = grid.origin.y + ((grid.row0 + row) as f64 + 0.5) * c;
-        xs.clear();
-        for e in rings().flat_map(|ring| ring.lines()) {
-            let (a, b) = (e.start, e.end);
-            // Half-open rule: an edge counts when its ends straddle y with the lower end included.
-            if (a.y <= y) != (b.y <= y) {
-                xs.push(a.x + (y - a.y) / (b.y - a.y) * (b.x - a.x));
+    let (first, last) = (first as usize, last as usize);
+    let n = last - first + 1;
+    xs.reset(n);
+    // Edge by edge, the rows it crosses: half-open rule, an edge counts for the centre line y when its
+    // ends straddle y with the lower end included.
+    let row_y = |row: usize| grid.origin.y + ((grid.row0 + row) as f64 + 0.5) * c;
+    for ring in std::iter::once(polygon.exterior()).chain(polygon.interiors()) {
+        for e in ring.lines() {
+            let (a, b) = if e.start.y <= e.end.y { (e.start, e.end) } else { (e.end, e.start) };
+            if a.y == b.y {
+                continue;
+            }
+            // Rows with a.y ≤ y < b.y.
+            let lo = (((a.y - grid.origin.y) / c - 0.5).ceil() - row0).max(first as f64);
+            let hi = (((b.y - grid.origin.y) / c - 0.5).ceil() - row0 - 1.0).min(last as f64);
+            if lo > hi {
+                continue;
+            }
+            let slope = (b.x - a.x) / (b.y - a.y);
+            let (lo, hi) = (lo as usize, hi as usize);
+            for row in lo..=hi {
+                let y = row_y(row);
+                // Guard the rounding of the row range's ends against the exact rule.
+                if (row == lo || row == hi) && !(a.y <= y && y < b.y) {
+                    continue;
+                }
+                xs.push(row - first, a.x + (y - a.y) * slope);
             }
         }
-        xs.sort_unstable_by(f64::total_cmp);
-        for pair in xs.chunks_exact(2) {
-            // Cells with centre x in [x0, x1): lattice index i with origin + (i + ½)·c ≥ x0 and < x1.
-            let from = (((pair[0] - grid.origin.x) / c - 0.5).ceil() - col0).max(0.0);
-            let to = (((pair[1] - grid.origin.x) / c - 0.5).ceil() - col0).min(grid.cols as f64);
-            if to > from {
-                emit(row, from as usize, to as usize);
+    }
+    let (inv_c, cols) = (1.0 / c, grid.cols as f64);
+    let mut span = |k: usize, x0: f64, x1: f64| {
+        // Cells with centre x in [x0, x1): lattice index i with origin + (i + ½)·c ≥ x0 and < x1.
+        // Clamped to the grid first, so the fast ceiling only sees small numbers.
+        // The lattice index is found before this grid's first column is taken off, so a tile's
+        // cells are decided by the same arithmetic as the whole grid's.
+        let (lo, hi) = (col0 - 1.0, col0 + cols + 1.0);
+        let within = |u: f64| {
+            if u < lo {
+                lo
+            } else if u > hi {
+                hi
+            } else {
+                u
+            }
+        };
+        let u0 = within((x0 - grid.origin.x) * inv_c - 0.5);
+        let u1 = within((x1 - grid.origin.x) * inv_c - 0.5);
+        let (from, to) = (small_ceil(u0) - col0, small_ceil(u1) - col0);
+        let (from, to) = (if from < 0.0 { 0.0 } else { from }, if to > cols { cols } else { to });
+        if to > from {
+            emit(first + k, from as usize, to as usize);
+        }
+    };
+    for k in 0..n {
+        match xs.count[k] {
+            0 | 1 => {}
+            2 => {
+                let [a, b] = xs.first[k];
+                if a <= b {
+                    span(k, a, b);
+                } else {
+                    span(k, b, a);
+                }
+            }
+            _ => {
+                let row_xs = &mut xs.more[k];
+                row_xs.sort_unstable_by(f64::total_cmp);
+                for pair in row_xs.chunks_exact(2) {
+                    span(k, pair[0], pair[1]);
+                }
             }
         }
     }

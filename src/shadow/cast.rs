@@ -2,8 +2,7 @@
 
 use geo::orient::{Direction, Orient};
 use geo::{
-    unary_union, Area, BooleanOps, BoundingRect, ConvexHull, Coord, IsConvex, LineString, MultiPoint, MultiPolygon,
-    Point, Polygon, Rect, Translate,
+    unary_union, Area, BooleanOps, BoundingRect, Coord, IsConvex, LineString, MultiPolygon, Polygon, Rect, Translate,
 };
 
 use super::ground::{volume_shadow_on, wall_shadow_on, Receiver};
@@ -67,9 +66,8 @@ pub fn volume_shadow(volume: &Volume, offset: Coord<f64>, plane_m: f64) -> Multi
 }
 
 /// Pieces whose union is [`volume_shadow`], pushed onto `out` without a boolean union (for
-/// rasterising, where spans are merged anyway). A convex footprint without holes gives one piece: the
-/// convex hull of its underside and top shadows (the shadow of a convex prism is the footprint swept
-/// along the offset, a convex set). Otherwise: the underside and top shadows and the quadrilateral of
+/// rasterising, where spans are merged anyway). A convex footprint without holes gives one piece: its
+/// underside shadow swept along to its top shadow (the shadow of a convex prism, a convex set). Otherwise: the underside and top shadows and the quadrilateral of
 /// every wall facing away from the sun.
 pub(crate) fn flat_volume_faces(volume: &Volume, offset: Coord<f64>, plane_m: f64, out: &mut Vec<Polygon<f64>>) {
     let top = volume.top_m - plane_m;
@@ -80,9 +78,7 @@ pub(crate) fn flat_volume_faces(volume: &Volume, offset: Coord<f64>, plane_m: f6
     let at = |h: f64| Coord { x: offset.x * h, y: offset.y * h };
     let (b, t) = (at(base), at(top));
     if volume.footprint.interiors().is_empty() && volume.footprint.exterior().is_convex() {
-        let ring = volume.footprint.exterior();
-        let pts: Vec<Point<f64>> = ring.coords().flat_map(|c| [Point::from(*c + b), Point::from(*c + t)]).collect();
-        out.push(MultiPoint::new(pts).convex_hull());
+        out.push(swept_convex(volume.footprint.exterior(), b, t));
         return;
     }
     out.push(volume.footprint.translate(b.x, b.y).orient(Direction::Default));
@@ -108,6 +104,49 @@ pub(crate) fn flat_volume_faces(volume: &Volume, offset: Coord<f64>, plane_m: f6
             out.push(quad.orient(Direction::Default));
         }
     }
+}
+
+/// The convex ring `ring` translated by `b` and swept on to `t`: its Minkowski sum with the segment
+/// from `b` to `t`. Walking the ring counter-clockwise, the edges whose outward normal points along
+/// d = t − b (front edges) move by d, the others stay, and where the two kinds meet the sum gains an
+/// edge parallel to d (a standard construction of the Minkowski sum of convex polygons).
+fn swept_convex(ring: &LineString<f64>, b: Coord<f64>, t: Coord<f64>) -> Polygon<f64> {
+    let mut pts: Vec<Coord<f64>> = ring.0.clone();
+    if pts.len() > 1 && pts.first() == pts.last() {
+        pts.pop();
+    }
+    let n = pts.len();
+    let twice_area: f64 = (0..n).map(|i| pts[i].x * pts[(i + 1) % n].y - pts[(i + 1) % n].x * pts[i].y).sum();
+    if twice_area < 0.0 {
+        pts.reverse();
+    }
+    let d = Coord { x: t.x - b.x, y: t.y - b.y };
+    // Edge i runs from pts[i] to pts[i + 1]; its outward normal (counter-clockwise ring) is (dy, −dx).
+    let front = |i: usize| {
+        let e = pts[(i + 1) % n] - pts[i];
+        e.y * d.x - e.x * d.y > 0.0
+    };
+    let mut out = Vec::with_capacity(n + 3);
+    for i in 0..n {
+        let (before, after) = (front((i + n - 1) % n), front(i));
+        let (p, q) = (pts[i] + b, pts[i] + t);
+        match (before, after) {
+            (false, false) => out.push(p),
+            (true, true) => out.push(q),
+            (false, true) => {
+                out.push(p);
+                out.push(q);
+            }
+            (true, false) => {
+                out.push(q);
+                out.push(p);
+            }
+        }
+    }
+    if let Some(&first) = out.first() {
+        out.push(first);
+    }
+    Polygon::new(LineString::from(out), vec![])
 }
 
 /// The shadow of a wall or fence (a vertical strip along its line up to `height_m`) on the plane at
