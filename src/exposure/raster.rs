@@ -13,7 +13,9 @@ use super::grid::Grid;
 /// Per-row spans of cell indices, `[from, to)`, collected from many polygons and merged per row.
 #[derive(Debug, Clone, Default)]
 pub struct RowSpans {
-    rows: Vec<Vec<(usize, usize)>>,
+    /// Spans as `u32` pairs (half the bytes to sort; a grid's columns fit, it has at most a few
+    /// million cells).
+    rows: Vec<Vec<(u32, u32)>>,
     scratch: Crossings,
 }
 
@@ -31,7 +33,7 @@ impl RowSpans {
     /// Adds the cells of `grid` whose centres lie in `polygon`.
     pub fn add_polygon(&mut self, grid: &Grid, polygon: &Polygon<f64>) {
         let rows = &mut self.rows;
-        row_spans(grid, polygon, &mut self.scratch, |row, a, b| rows[row].push((a, b)));
+        row_spans(grid, polygon, &mut self.scratch, |row, a, b| rows[row].push((a as u32, b as u32)));
     }
 
     /// The merged spans of `row`, sorted, as `[from, to)` cell ranges, into `out` (cleared first).
@@ -40,6 +42,7 @@ impl RowSpans {
         let spans = &mut self.rows[row];
         spans.sort_unstable();
         for &(a, b) in spans.iter() {
+            let (a, b) = (a as usize, b as usize);
             match out.last_mut() {
                 Some(last) if a <= last.1 => last.1 = last.1.max(b),
                 _ => out.push((a, b)),
@@ -64,9 +67,9 @@ pub fn polygon_row_spans(grid: &Grid, polygon: &Polygon<f64>, emit: impl FnMut(u
 /// The ceiling of `x` for |x| < 2⁶³, without a branch or a library call (`f64::ceil` is a call on
 /// baseline x86-64, and this runs for every span).
 #[inline]
-fn small_ceil(x: f64) -> f64 {
-    let t = x as i64 as f64;
-    t + f64::from(u8::from(t < x))
+fn small_ceil(x: f64) -> i64 {
+    let t = x as i64;
+    t + i64::from((t as f64) < x)
 }
 
 /// Scratch for [`row_spans`]: each row's edge crossings. The first two of a row are kept in flat
@@ -152,6 +155,7 @@ fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Crossings, mut emit: 
         }
     }
     let (inv_c, cols) = (1.0 / c, grid.cols as f64);
+    let (col0_i, cols_i) = (grid.col0 as i64, grid.cols as i64);
     let mut span = |k: usize, x0: f64, x1: f64| {
         // Cells with centre x in [x0, x1): lattice index i with origin + (i + ½)·c ≥ x0 and < x1.
         // Clamped to the grid first, so the fast ceiling only sees small numbers.
@@ -169,8 +173,8 @@ fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Crossings, mut emit: 
         };
         let u0 = within((x0 - grid.origin.x) * inv_c - 0.5);
         let u1 = within((x1 - grid.origin.x) * inv_c - 0.5);
-        let (from, to) = (small_ceil(u0) - col0, small_ceil(u1) - col0);
-        let (from, to) = (if from < 0.0 { 0.0 } else { from }, if to > cols { cols } else { to });
+        let (from, to) = (small_ceil(u0) - col0_i, small_ceil(u1) - col0_i);
+        let (from, to) = (from.max(0), to.min(cols_i));
         if to > from {
             emit(first + k, from as usize, to as usize);
         }

@@ -111,25 +111,24 @@ pub(crate) fn flat_volume_faces(volume: &Volume, offset: Coord<f64>, plane_m: f6
 /// d = t − b (front edges) move by d, the others stay, and where the two kinds meet the sum gains an
 /// edge parallel to d (a standard construction of the Minkowski sum of convex polygons).
 fn swept_convex(ring: &LineString<f64>, b: Coord<f64>, t: Coord<f64>) -> Polygon<f64> {
-    let mut pts: Vec<Coord<f64>> = ring.0.clone();
-    if pts.len() > 1 && pts.first() == pts.last() {
-        pts.pop();
+    let c = &ring.0;
+    let n = if c.len() > 1 && c.first() == c.last() { c.len() - 1 } else { c.len() };
+    if n == 0 {
+        return Polygon::new(LineString::new(vec![]), vec![]);
     }
-    let n = pts.len();
-    let twice_area: f64 = (0..n).map(|i| pts[i].x * pts[(i + 1) % n].y - pts[(i + 1) % n].x * pts[i].y).sum();
-    if twice_area < 0.0 {
-        pts.reverse();
-    }
+    let twice_area: f64 = (0..n).map(|i| c[i].x * c[(i + 1) % n].y - c[(i + 1) % n].x * c[i].y).sum();
+    // The ring's vertices counter-clockwise.
+    let pt = |i: usize| if twice_area >= 0.0 { c[i] } else { c[n - 1 - i] };
     let d = Coord { x: t.x - b.x, y: t.y - b.y };
-    // Edge i runs from pts[i] to pts[i + 1]; its outward normal (counter-clockwise ring) is (dy, −dx).
+    // Edge i runs from pt(i) to pt(i + 1); its outward normal (counter-clockwise ring) is (dy, −dx).
     let front = |i: usize| {
-        let e = pts[(i + 1) % n] - pts[i];
+        let e = pt((i + 1) % n) - pt(i);
         e.y * d.x - e.x * d.y > 0.0
     };
     let mut out = Vec::with_capacity(n + 3);
     for i in 0..n {
         let (before, after) = (front((i + n - 1) % n), front(i));
-        let (p, q) = (pts[i] + b, pts[i] + t);
+        let (p, q) = (pt(i) + b, pt(i) + t);
         match (before, after) {
             (false, false) => out.push(p),
             (true, true) => out.push(q),
