@@ -65,6 +65,17 @@ pub fn wrap(text: &str, size_px: f64, width_px: f64) -> Vec<String> {
     lines
 }
 
+/// An RGBA image: `width` × `height` pixels, row-major, top row first, 4 bytes a pixel.
+#[derive(Debug, Clone, Copy)]
+pub struct Image<'a> {
+    /// The pixels.
+    pub rgba: &'a [u8],
+    /// Width, pixels.
+    pub width: u32,
+    /// Height, pixels.
+    pub height: u32,
+}
+
 /// A surface to draw on, in pixels with y down.
 pub trait Draw {
     /// Width and height, pixels.
@@ -75,9 +86,8 @@ pub trait Draw {
     fn stroke(&mut self, points: &[(f64, f64)], width_px: f64, colour: Colour, closed: bool);
     /// Writes one line of text with its baseline at `y`, `size_px` tall.
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor);
-    /// Draws an RGBA image of `w` × `h` pixels (row-major, top row first) scaled into the rectangle,
-    /// without smoothing.
-    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, rgba: &[u8], w: u32, h: u32);
+    /// Draws `image` scaled into the rectangle at (`x`, `y`), `width` × `height`, without smoothing.
+    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image);
     /// Fills a rectangle.
     fn fill_rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: Colour) {
         self.fill_polygon(&[vec![(x, y), (x + w, y), (x + w, y + h), (x, y + h)]], fill);

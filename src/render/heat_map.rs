@@ -3,7 +3,7 @@
 
 use geo::{BoundingRect, Coord, Polygon, Rect};
 
-use super::draw::{text_width_px, wrap, Anchor, Colour, Draw};
+use super::draw::{text_width_px, wrap, Anchor, Colour, Draw, Image};
 use super::ramp::ramp_colour;
 use crate::exposure::Grid;
 
@@ -62,7 +62,7 @@ pub const FIGURE_PX: (u32, u32) = (960, 760);
 /// A length of 1, 2 or 5 × 10ⁿ metres near `target`.
 fn nice_length(target: f64) -> f64 {
     let p = 10f64.powf(target.log10().floor());
-    [1.0, 2.0, 5.0, 10.0].into_iter().map(|k| k * p).filter(|&l| l <= target).last().unwrap_or(p)
+    [10.0, 5.0, 2.0, 1.0].into_iter().map(|k| k * p).find(|&l| l <= target).unwrap_or(p)
 }
 
 /// Draws `map` onto `d` (sized [`FIGURE_PX`]).
@@ -108,7 +108,7 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
     let b = g.bounds();
     let (x0, y0) = to_px(Coord { x: b.min().x, y: b.max().y });
     let (x1, y1) = to_px(Coord { x: b.max().x, y: b.min().y });
-    d.image(x0, y0, x1 - x0, y1 - y0, &rgba, g.cols as u32, g.rows as u32);
+    d.image(x0, y0, x1 - x0, y1 - y0, &Image { rgba: &rgba, width: g.cols as u32, height: g.rows as u32 });
 
     for o in map.outlines.iter().filter(|o| o.kind == OutlineKind::Existing) {
         let rings: Vec<Vec<(f64, f64)>> = std::iter::once(o.polygon.exterior())

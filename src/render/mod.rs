@@ -10,7 +10,7 @@ mod ramp;
 mod ramp_table;
 mod svg;
 
-pub use draw::{text_width_px, wrap, Anchor, Colour, Draw};
+pub use draw::{text_width_px, wrap, Anchor, Colour, Draw, Image};
 pub use heat_map::{draw_heat_map, HeatMap, Outline, OutlineKind, FIGURE_PX};
 pub use pixmap::Pixmap;
 pub use ramp::{ramp, ramp_colour};

@@ -5,7 +5,7 @@
 use font8x8::UnicodeFonts;
 use geo::{Coord, LineString, Polygon};
 
-use super::draw::{Anchor, Colour, Draw};
+use super::draw::{Anchor, Colour, Draw, Image};
 use crate::exposure::{Grid, RowSpans};
 
 /// An RGBA image being drawn, white to begin with.
@@ -147,7 +147,8 @@ impl Draw for Pixmap {
         }
     }
 
-    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, rgba: &[u8], w: u32, h: u32) {
+    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
+        let (rgba, w, h) = (image.rgba, image.width, image.height);
         if w == 0 || h == 0 || rgba.len() < (w * h * 4) as usize {
             return;
         }

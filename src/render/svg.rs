@@ -4,7 +4,7 @@ use std::fmt::Write;
 
 use base64::Engine;
 
-use super::draw::{Anchor, Colour, Draw};
+use super::draw::{Anchor, Colour, Draw, Image};
 
 /// An SVG document being drawn.
 #[derive(Debug, Clone)]
@@ -80,8 +80,8 @@ impl Draw for Svg {
         );
     }
 
-    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, rgba: &[u8], w: u32, h: u32) {
-        let png = super::pixmap::encode_png(rgba, w, h);
+    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
+        let png = super::pixmap::encode_png(image.rgba, image.width, image.height);
         let data = base64::engine::general_purpose::STANDARD.encode(png);
         let _ = writeln!(
             self.body,
