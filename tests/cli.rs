@@ -471,3 +471,55 @@ fn envelope_insolation_timeline_and_year() {
     assert_eq!(rows.len(), 12);
     assert!(rows[5]["sun_h"].as_f64().unwrap() > rows[11]["sun_h"].as_f64().unwrap());
 }
+
+#[test]
+fn sun_path_diagram_as_png_and_svg() {
+    let d = out_dir("sky");
+    let (png, svg) = (d.join("sky.png"), d.join("sky.svg"));
+    let o = sunlot(
+        &[
+            "sky",
+            "--demo",
+            "--at",
+            "14,41,1.5",
+            "--year",
+            "2026",
+            "--png",
+            png.to_str().unwrap(),
+            "--svg",
+            svg.to_str().unwrap(),
+        ],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    assert_eq!(&std::fs::read(&png).unwrap()[1..4], b"PNG");
+    let text = std::fs::read_to_string(&svg).unwrap();
+    assert!(text.starts_with("<svg") && text.contains("21 Jun") && text.contains("obstructions"));
+    let o = sunlot(&["sky", "--demo"], None);
+    assert!(!o.status.success() && stderr(&o).contains("--png"));
+}
+
+#[test]
+fn shadow_plan_as_png_and_svg() {
+    let d = out_dir("plan");
+    let (png, svg) = (d.join("plan.png"), d.join("plan.svg"));
+    let o = sunlot(
+        &[
+            "shadows",
+            "--demo",
+            "--local",
+            "2026-03-21T15:00",
+            "--format",
+            "json",
+            "--png",
+            png.to_str().unwrap(),
+            "--svg",
+            svg.to_str().unwrap(),
+        ],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    assert_eq!(&std::fs::read(&png).unwrap()[1..4], b"PNG");
+    let text = std::fs::read_to_string(&svg).unwrap();
+    assert!(text.contains("added by proposal") && text.contains("licensed"));
+}

@@ -93,3 +93,23 @@ pub trait Draw {
         self.fill_polygon(&[vec![(x, y), (x + w, y), (x + w, y + h), (x, y + h)]], fill);
     }
 }
+
+/// A figure's title (wrapped onto the subtitle line when too long) and subtitle, at the top left.
+pub fn heading(d: &mut dyn Draw, title: &str, subtitle: &str) {
+    let width = f64::from(d.size().0) - 48.0;
+    let lines = wrap(title, 16.0, width);
+    let ink = Colour::rgb(30, 30, 30);
+    d.text(24.0, 30.0, 16.0, lines.first().map_or("", |s| s.as_str()), ink, Anchor::Start);
+    let sub = if lines.len() > 1 { format!("{} · {subtitle}", lines[1..].join(" ")) } else { subtitle.to_string() };
+    d.text(24.0, 52.0, 12.0, &sub, Colour::rgb(110, 110, 110), Anchor::Start);
+}
+
+/// The footnote (the caution), wrapped, at the bottom left.
+pub fn footnote(d: &mut dyn Draw, text: &str) {
+    let (w, h) = d.size();
+    let lines = wrap(text, 11.0, f64::from(w) - 48.0);
+    for (k, line) in lines.iter().enumerate() {
+        let y = f64::from(h) - 12.0 - 16.0 * (lines.len() - 1 - k) as f64;
+        d.text(24.0, y, 11.0, line, Colour::rgb(110, 110, 110), Anchor::Start);
+    }
+}

@@ -1,17 +1,23 @@
 //! Pictures: one drawing abstraction ([`Draw`]) with a raster back end that writes PNG
 //! ([`Pixmap`]) and an SVG back end ([`Svg`]), so every figure drawn once can be exported either
-//! way (a canvas back end in the browser implements the same trait). Figures are composed in
-//! pixel coordinates, y down.
+//! way (a canvas back end in the browser implements the same trait). Figures: the heat map of any
+//! exposure map and the sun-path diagram. They are composed in pixel coordinates, y down.
 
 mod draw;
 mod heat_map;
 mod pixmap;
+mod plan;
+mod plan_view;
 mod ramp;
 mod ramp_table;
+mod sky_chart;
 mod svg;
 
-pub use draw::{text_width_px, wrap, Anchor, Colour, Draw, Image};
-pub use heat_map::{draw_heat_map, HeatMap, Outline, OutlineKind, FIGURE_PX};
+pub use draw::{footnote, heading, text_width_px, wrap, Anchor, Colour, Draw, Image};
+pub use heat_map::{draw_heat_map, HeatMap, FIGURE_PX};
 pub use pixmap::Pixmap;
+pub use plan::{Outline, OutlineKind, PlanFrame};
+pub use plan_view::{draw_shadow_plan, ShadowPlan};
 pub use ramp::{ramp, ramp_colour};
+pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart};
 pub use svg::Svg;

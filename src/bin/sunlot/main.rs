@@ -17,6 +17,7 @@ mod position;
 mod progress;
 mod seasons;
 mod shadows;
+mod sky;
 mod timeline;
 
 use std::io::Write;
@@ -62,6 +63,8 @@ enum Command {
     Timeline(timeline::TimelineArgs),
     /// A point's year: direct-sun hours and clear-sky insolation per month.
     Year(timeline::YearArgs),
+    /// The sun-path diagram of a site (PNG or SVG), with the skyline seen from a point.
+    Sky(sky::SkyArgs),
     /// Convert a site between sunlot's site file and GeoJSON.
     Convert(shadows::ConvertArgs),
     /// Whether a point of a site (a window, a balcony) is in direct sun, and the skyline it sees.
@@ -86,6 +89,7 @@ fn main() -> ExitCode {
         Command::Envelope(a) => envelope::run(a),
         Command::Timeline(a) => timeline::run_timeline(a),
         Command::Year(a) => timeline::run_year(a),
+        Command::Sky(a) => sky::run(a),
         Command::Convert(a) => shadows::run_convert(a),
         Command::Point(a) => point::run(a),
         Command::Demo(a) => demo::run(a),

@@ -254,3 +254,17 @@ pub fn write_files(
 pub fn top_of(values: &[Option<f64>], floor: f64) -> f64 {
     values.iter().flatten().copied().fold(floor, f64::max)
 }
+
+/// The bounding box of a site's areas and volumes grown by a fifth on each side (the plan a figure
+/// shows); `None` for an empty site.
+pub fn site_bounds(model: &SiteModel) -> Option<geo::Rect<f64>> {
+    use geo::BoundingRect;
+    let mut polys: Vec<Polygon<f64>> = model.areas.iter().map(|a| a.polygon.clone()).collect();
+    polys.extend(model.volumes.iter().map(|v| v.footprint.clone()));
+    let r = MultiPolygon::new(polys).bounding_rect()?;
+    let m = 0.2 * r.width().max(r.height());
+    Some(geo::Rect::new(
+        geo::Coord { x: r.min().x - m, y: r.min().y - m },
+        geo::Coord { x: r.max().x + m, y: r.max().y + m },
+    ))
+}

@@ -82,6 +82,12 @@ pub struct ShadowsArgs {
     /// Output.
     #[arg(long, value_enum, default_value_t = ShadowFormat::Geojson)]
     pub format: ShadowFormat,
+    /// Also write the shadow plan (existing shade and the shade the proposal adds) as PNG here.
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
+    /// Also write the shadow plan as SVG here.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
 }
 
 pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
@@ -113,6 +119,37 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
             });
         }
     };
+    if a.png.is_some() || a.svg.is_some() {
+        use geo::BooleanOps;
+        use sunlot::render::{draw_shadow_plan, Pixmap, ShadowPlan, Svg, FIGURE_PX};
+        let shown = crate::maps::site_bounds(&model).unwrap_or(extent);
+        let frame = MultiPolygon::new(vec![shown.to_polygon()]);
+        let plan = ShadowPlan {
+            title: format!("Shadows at {when} — {}", model.name),
+            subtitle: format!(
+                "sun at azimuth {:.1}°, altitude {:.1}°{}",
+                sun.azimuth_deg,
+                sun.altitude_deg,
+                if clipped { "; long shadows cut at the analysis extent" } else { "" }
+            ),
+            outlines: crate::maps::outlines(&model),
+            existing: existing.intersection(&frame),
+            added: combined.difference(&existing).intersection(&frame),
+            extent: shown,
+            plan_rotation_deg: model.plan_rotation_deg,
+            caution: sunlot::rules::CAUTION.into(),
+        };
+        if let Some(path) = &a.png {
+            let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
+            draw_shadow_plan(&mut px, &plan);
+            std::fs::write(path, px.to_png()).map_err(|e| format!("{}: {e}", path.display()))?;
+        }
+        if let Some(path) = &a.svg {
+            let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
+            draw_shadow_plan(&mut svg, &plan);
+            std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
+        }
+    }
     if a.format == ShadowFormat::Geojson {
         let mut features = Vec::new();
         let mut add = |geom: GeometryValue, props: serde_json::Value| {

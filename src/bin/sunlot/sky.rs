@@ -1,0 +1,131 @@
+//! `sunlot sky`: the sun-path diagram of a site, optionally with the skyline seen from a point, as
+//! PNG or SVG.
+
+use std::path::PathBuf;
+
+use clap::{Args, ValueEnum};
+use sunlot::render::{draw_sky_chart, monthly_dates, Pixmap, Projection, SkyChart, Svg};
+use sunlot::shadow::{analysis_extent, skyline, Receiver};
+
+use crate::args::{self, DeltaTArgs};
+use crate::point::parse_point;
+use crate::shadows::SiteFileArgs;
+
+/// The projection of the sky.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ProjectionArg {
+    /// Polar, stereographic.
+    Stereographic,
+    /// Polar, equidistant in zenith angle.
+    Equidistant,
+    /// Azimuth across, altitude up.
+    Rectangular,
+}
+
+#[derive(Debug, Args)]
+pub struct SkyArgs {
+    #[command(flatten)]
+    pub site: SiteFileArgs,
+    /// Draw the skyline of obstructions seen from this point: plan X,Y and height Z, metres.
+    #[arg(long, value_name = "X,Y,Z", allow_hyphen_values = true)]
+    pub at: Option<String>,
+    /// Year of the paths and hour lines (default: this year).
+    #[arg(long)]
+    pub year: Option<i32>,
+    /// Dates of the day paths, comma-separated YYYY-MM-DD (default: the 21st of every month).
+    #[arg(long, value_delimiter = ',')]
+    pub dates: Vec<String>,
+    /// Mark the sun at this local time YYYY-MM-DDTHH:MM.
+    #[arg(long)]
+    pub local: Option<String>,
+    /// Projection.
+    #[arg(long, value_enum, default_value_t = ProjectionArg::Stereographic)]
+    pub projection: ProjectionArg,
+    /// Without the proposal (the skyline of the existing massing).
+    #[arg(long)]
+    pub existing_only: bool,
+    /// Write the diagram as PNG to this file.
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
+    /// Write the diagram as SVG to this file.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
+    #[command(flatten)]
+    pub delta_t: DeltaTArgs,
+}
+
+const SIZE: (u32, u32) = (900, 720);
+
+pub fn run(a: &SkyArgs) -> Result<String, String> {
+    if a.png.is_none() && a.svg.is_none() {
+        return Err("give --png FILE and/or --svg FILE for the diagram".into());
+    }
+    let model = a.site.load()?.model;
+    let year = a.year.unwrap_or_else(|| chrono::Datelike::year(&chrono::Utc::now()));
+    let dates = if a.dates.is_empty() {
+        monthly_dates(year)
+    } else {
+        a.dates
+            .iter()
+            .map(|d| args::date(d, "--dates").map(|x| (x, x.format("%d %b %Y").to_string())))
+            .collect::<Result<_, _>>()?
+    };
+    let now = match &a.local {
+        Some(l) => {
+            let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: None };
+            args::instant(None, Some(l), &zones, false)?.map(|(t, _)| t)
+        }
+        None => None,
+    };
+    let mut title = format!("Sun path — {}", model.name);
+    let sky = match &a.at {
+        Some(at) => {
+            let p = parse_point(at)?;
+            let mut m = model.clone();
+            if a.existing_only {
+                m.volumes.retain(|v| v.status == sunlot::site::Status::Existing);
+                m.walls.retain(|w| w.status == sunlot::site::Status::Existing);
+            }
+            let reach = analysis_extent(&m).map_or(1_000.0, |r| r.width().hypot(r.height()));
+            let ground = Receiver::on(&m.ground, m.plan_rotation_deg, 0.0);
+            title = format!("Sun path and skyline from ({}, {}, {} m) — {}", p.x_m, p.y_m, p.z_m, model.name);
+            skyline(p, &m.volumes, &m.walls, &ground, 1.0, reach)
+                .map_err(|e| format!("--at: {e}"))?
+                .into_iter()
+                .map(|(az, alt)| ((az + m.plan_rotation_deg).rem_euclid(360.0), alt))
+                .collect::<Vec<_>>()
+        }
+        None => vec![],
+    };
+    let mut sky = sky;
+    sky.sort_by(|x, y| x.0.total_cmp(&y.0));
+    let chart = SkyChart {
+        title,
+        site: model.location,
+        zone: model.zone,
+        dates,
+        year,
+        now,
+        skyline: sky,
+        projection: match a.projection {
+            ProjectionArg::Stereographic => Projection::Stereographic,
+            ProjectionArg::Equidistant => Projection::Equidistant,
+            ProjectionArg::Rectangular => Projection::Rectangular,
+        },
+        delta_t: a.delta_t.delta_t()?,
+    };
+    let mut notes = String::new();
+    if let Some(path) = &a.png {
+        let mut px = Pixmap::new(SIZE.0, SIZE.1);
+        draw_sky_chart(&mut px, &chart).map_err(|e| e.to_string())?;
+        std::fs::write(path, px.to_png()).map_err(|e| format!("{}: {e}", path.display()))?;
+        notes += &format!("sun-path diagram written to {} (PNG)\n", path.display());
+    }
+    if let Some(path) = &a.svg {
+        let mut svg = Svg::new(SIZE.0, SIZE.1);
+        draw_sky_chart(&mut svg, &chart).map_err(|e| e.to_string())?;
+        std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
+        notes += &format!("sun-path diagram written to {} (SVG)\n", path.display());
+    }
+    Ok(notes)
+}

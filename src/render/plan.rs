@@ -1,0 +1,165 @@
+//! What every plan figure shares: fitting the plan into a box, outlines of areas and volumes with
+//! labels where they fit, a scale bar, a true-north arrow and the key of outline styles.
+
+use geo::{BoundingRect, Coord, Polygon, Rect};
+
+use super::draw::{text_width_px, Anchor, Colour, Draw};
+
+const INK: Colour = Colour::rgb(30, 30, 30);
+const MUTED: Colour = Colour::rgb(110, 110, 110);
+/// The colour of proposed massing on every plan.
+pub const PROPOSED: Colour = Colour::rgb(200, 40, 120);
+const BUILDING: Colour = Colour::rgb(222, 222, 222);
+
+/// What an outline on the plan is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum OutlineKind {
+    /// An area (lot, garden): thin line.
+    Area,
+    /// An existing volume: solid line.
+    Existing,
+    /// A proposed volume: a heavier line in the proposal colour.
+    Proposed,
+}
+
+/// An outline drawn over the map, with a label.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Outline {
+    /// Plan polygon, metres.
+    pub polygon: Polygon<f64>,
+    /// Label drawn at its centre (may be empty).
+    pub label: String,
+    /// How it is drawn.
+    pub kind: OutlineKind,
+}
+
+impl OutlineKind {
+    fn style(self) -> (Colour, f64) {
+        match self {
+            OutlineKind::Area => (MUTED, 1.0),
+            OutlineKind::Existing => (INK, 1.5),
+            OutlineKind::Proposed => (PROPOSED, 2.5),
+        }
+    }
+}
+
+/// Plan metres to pixels: the plan fitted into a box, north (the plan's y) up.
+#[derive(Debug, Clone, Copy)]
+pub struct PlanFrame {
+    ext: Rect<f64>,
+    /// Pixels per metre.
+    pub scale: f64,
+    ox: f64,
+    oy: f64,
+    /// The box: left, top, width, height, pixels.
+    pub bx: f64,
+    /// Top of the box.
+    pub by: f64,
+    /// Width of the box.
+    pub bw: f64,
+    /// Height of the box.
+    pub bh: f64,
+}
+
+impl PlanFrame {
+    /// Fits `extent` and every outline into the box `(x, y, width, height)`.
+    pub fn fit(extent: Rect<f64>, outlines: &[Outline], (bx, by, bw, bh): (f64, f64, f64, f64)) -> Self {
+        let mut ext = extent;
+        for o in outlines {
+            if let Some(r) = o.polygon.bounding_rect() {
+                ext = Rect::new(
+                    Coord { x: ext.min().x.min(r.min().x), y: ext.min().y.min(r.min().y) },
+                    Coord { x: ext.max().x.max(r.max().x), y: ext.max().y.max(r.max().y) },
+                );
+            }
+        }
+        let scale = (bw / ext.width().max(1e-9)).min(bh / ext.height().max(1e-9));
+        let ox = bx + (bw - ext.width() * scale) / 2.0;
+        let oy = by + (bh - ext.height() * scale) / 2.0;
+        PlanFrame { ext, scale, ox, oy, bx, by, bw, bh }
+    }
+
+    /// Pixel position of a plan point.
+    pub fn to_px(&self, c: Coord<f64>) -> (f64, f64) {
+        (self.ox + (c.x - self.ext.min().x) * self.scale, self.oy + (self.ext.max().y - c.y) * self.scale)
+    }
+
+    /// A polygon's rings in pixels.
+    pub fn rings(&self, p: &Polygon<f64>) -> Vec<Vec<(f64, f64)>> {
+        std::iter::once(p.exterior())
+            .chain(p.interiors())
+            .map(|r| r.coords().map(|c| self.to_px(*c)).collect())
+            .collect()
+    }
+}
+
+/// Existing buildings filled, every outline stroked in its style, labels where they fit inside
+/// their outline's width and clear of labels already placed.
+pub fn draw_outlines(d: &mut dyn Draw, frame: &PlanFrame, outlines: &[Outline]) {
+    for o in outlines.iter().filter(|o| o.kind == OutlineKind::Existing) {
+        d.fill_polygon(&frame.rings(&o.polygon), BUILDING);
+    }
+    let mut placed: Vec<(f64, f64, f64, f64)> = Vec::new();
+    for o in outlines {
+        let (colour, width) = o.kind.style();
+        for ring in frame.rings(&o.polygon) {
+            d.stroke(&ring, width, colour, true);
+        }
+        let Some(r) = o.polygon.bounding_rect().filter(|_| !o.label.is_empty()) else { continue };
+        let tw = text_width_px(10.0, &o.label);
+        if tw > r.width() * frame.scale - 4.0 {
+            continue;
+        }
+        let (cx, cy) = frame.to_px(r.center());
+        for shift in [0.0, 14.0, -14.0, 28.0] {
+            let bx = (cx - tw / 2.0, cy + shift - 8.0, cx + tw / 2.0, cy + shift + 4.0);
+            if placed.iter().all(|p| bx.2 < p.0 || bx.0 > p.2 || bx.3 < p.1 || bx.1 > p.3) {
+                d.text(cx, cy + shift + 4.0, 10.0, &o.label, colour, Anchor::Middle);
+                placed.push(bx);
+                break;
+            }
+        }
+    }
+}
+
+/// A length of 1, 2 or 5 × 10ⁿ metres near `target`.
+fn nice_length(target: f64) -> f64 {
+    let p = 10f64.powf(target.log10().floor());
+    [10.0, 5.0, 2.0, 1.0].into_iter().map(|k| k * p).find(|&l| l <= target).unwrap_or(p)
+}
+
+/// A scale bar under the plan's box, about a quarter of the plan's width.
+pub fn draw_scale_bar(d: &mut dyn Draw, frame: &PlanFrame) {
+    let len_m = nice_length(frame.ext.width() / 4.0);
+    let (sx, sy) = (frame.bx, frame.by + frame.bh + 24.0);
+    d.fill_rect(sx, sy - 6.0, len_m * frame.scale, 6.0, INK);
+    d.text(sx, sy + 16.0, 11.0, "0", INK, Anchor::Middle);
+    d.text(sx + len_m * frame.scale, sy + 16.0, 11.0, &format!("{len_m} m"), INK, Anchor::Middle);
+}
+
+/// True north at the top right of the plan's box: the plan's north turned back by its rotation.
+pub fn draw_north_arrow(d: &mut dyn Draw, frame: &PlanFrame, plan_rotation_deg: f64) {
+    let (nx, ny, r) = (frame.bx + frame.bw - 20.0, frame.by + 30.0, 18.0);
+    let (s, c) = (-plan_rotation_deg).to_radians().sin_cos();
+    let tip = (nx + r * s, ny - r * c);
+    let left = (nx - 0.45 * r * c - 0.6 * r * s, ny - 0.45 * r * s + 0.6 * r * c);
+    let right = (nx + 0.45 * r * c - 0.6 * r * s, ny + 0.45 * r * s + 0.6 * r * c);
+    d.fill_polygon(&[vec![tip, right, (nx, ny), left]], INK);
+    d.text(tip.0 + 14.0 * s, tip.1 - 14.0 * c + 4.0, 12.0, "N", INK, Anchor::Middle);
+}
+
+/// The key of the outline styles present, one line each from (`x`, `y`) down; returns the next free y.
+pub fn outline_key(d: &mut dyn Draw, outlines: &[Outline], x: f64, y: f64) -> f64 {
+    let mut y = y;
+    for (kind, label) in
+        [(OutlineKind::Existing, "existing"), (OutlineKind::Proposed, "proposed"), (OutlineKind::Area, "area")]
+    {
+        if outlines.iter().any(|o| o.kind == kind) {
+            let (colour, width) = kind.style();
+            d.stroke(&[(x, y), (x + 24.0, y)], width, colour, false);
+            d.text(x + 34.0, y + 4.0, 12.0, label, INK, Anchor::Start);
+            y += 22.0;
+        }
+    }
+    y
+}

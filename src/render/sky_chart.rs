@@ -1,0 +1,363 @@
+//! The sun-path diagram: the sky seen from a point of the site, with the sun's daily paths on chosen
+//! dates, hour lines in local clock time (each an analemma over the year), the sun at a moment, and
+//! the obstruction skyline, so the hours a point is shaded can be read off.
+//!
+//! Projections of the sky hemisphere (common practice for sun-path diagrams): stereographic,
+//! r = R·tan(z / 2) / tan 45° for zenith angle z; equidistant, r = R·z / 90°; both with north up and
+//! east to the right as seen looking down on a plan (azimuth clockwise); and rectangular, azimuth
+//! across (0–360°, north at both edges) and altitude up.
+
+use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
+
+use super::draw::{heading, Anchor, Colour, Draw};
+use crate::solar::{Atmosphere, InputError, Site, SunAtInstant};
+use crate::time::{DeltaT, Fold, Zone};
+
+const INK: Colour = Colour::rgb(30, 30, 30);
+const GRID: Colour = Colour::rgb(190, 190, 190);
+const HOUR: Colour = Colour::rgb(120, 120, 120);
+const OBSTRUCTION: Colour = Colour { r: 90, g: 90, b: 90, a: 150 };
+const SUN: Colour = Colour::rgb(230, 159, 0);
+
+/// Colours of the day paths: the Okabe–Ito palette, chosen to stay distinct with colour-vision
+/// deficiency (Okabe, M. & Ito, K. (2008), "Color Universal Design").
+const PATH_COLOURS: [Colour; 7] = [
+    Colour::rgb(0, 114, 178),
+    Colour::rgb(213, 94, 0),
+    Colour::rgb(0, 158, 115),
+    Colour::rgb(204, 121, 167),
+    Colour::rgb(86, 180, 233),
+    Colour::rgb(0, 0, 0),
+    Colour::rgb(240, 228, 66),
+];
+
+/// How the sky is drawn.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Projection {
+    /// Polar, stereographic.
+    Stereographic,
+    /// Polar, equidistant in zenith angle.
+    Equidistant,
+    /// Azimuth across, altitude up.
+    Rectangular,
+}
+
+/// A sun-path diagram to draw.
+#[derive(Debug, Clone)]
+pub struct SkyChart {
+    /// Title line.
+    pub title: String,
+    /// Where.
+    pub site: Site,
+    /// The zone of the hour lines and labels.
+    pub zone: Zone,
+    /// Dates whose day paths are drawn, each with a label.
+    pub dates: Vec<(NaiveDate, String)>,
+    /// Year of the hour lines' analemmas.
+    pub year: i32,
+    /// The sun at this moment is marked, if given.
+    pub now: Option<DateTime<Utc>>,
+    /// Obstruction skyline as (true azimuth, altitude) pairs, degrees, in azimuth order.
+    pub skyline: Vec<(f64, f64)>,
+    /// Projection.
+    pub projection: Projection,
+    /// ΔT.
+    pub delta_t: DeltaT,
+}
+
+/// The default dates: the 21st of every month, labelled (solstices and equinoxes fall within two days
+/// of it; common practice for sun-path diagrams).
+pub fn monthly_dates(year: i32) -> Vec<(NaiveDate, String)> {
+    (1..=12).filter_map(|m| NaiveDate::from_ymd_opt(year, m, 21).map(|d| (d, d.format("%d %b").to_string()))).collect()
+}
+
+/// (azimuth, altitude) of the sun, true north, apparent altitude.
+fn sun(site: &Site, t: DateTime<Utc>, dt: DeltaT) -> Result<(f64, f64), InputError> {
+    let p = SunAtInstant::new(t, dt)?.observe(site, &Atmosphere::default());
+    Ok((p.azimuth_deg, p.altitude_deg))
+}
+
+/// The chart's plotting area and projection.
+struct Frame {
+    projection: Projection,
+    cx: f64,
+    cy: f64,
+    r: f64,
+    x0: f64,
+    y0: f64,
+    w: f64,
+    h: f64,
+}
+
+impl Frame {
+    /// Pixel position of (azimuth, altitude).
+    fn at(&self, az: f64, alt: f64) -> (f64, f64) {
+        let alt = alt.clamp(0.0, 90.0);
+        match self.projection {
+            Projection::Rectangular => {
+                (self.x0 + az.rem_euclid(360.0) / 360.0 * self.w, self.y0 + self.h * (1.0 - alt / 90.0))
+            }
+            p => {
+                let z = 90.0 - alt;
+                let rho = if p == Projection::Stereographic { (z / 2.0).to_radians().tan() } else { z / 90.0 };
+                let (s, c) = az.to_radians().sin_cos();
+                (self.cx + self.r * rho * s, self.cy - self.r * rho * c)
+            }
+        }
+    }
+}
+
+/// Splits a path where it wraps across north on the rectangular projection.
+fn polylines(frame: &Frame, pts: &[(f64, f64)]) -> Vec<Vec<(f64, f64)>> {
+    let mut out: Vec<Vec<(f64, f64)>> = vec![Vec::new()];
+    let mut last: Option<f64> = None;
+    for &(az, alt) in pts {
+        if frame.projection == Projection::Rectangular && last.is_some_and(|l| (az - l).abs() > 180.0) {
+            out.push(Vec::new());
+        }
+        if let Some(line) = out.last_mut() {
+            line.push(frame.at(az, alt));
+        }
+        last = Some(az);
+    }
+    out.retain(|l| l.len() > 1);
+    out
+}
+
+/// Draws the chart onto `d`.
+///
+/// # Errors
+/// [`InputError`] when the solar engine refuses a date (out of its years).
+pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputError> {
+    let (w, h) = d.size();
+    let (w, h) = (f64::from(w), f64::from(h));
+    d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
+    let sub = format!(
+        "{:.3}° {}, {:.3}° {}, clock times {}",
+        chart.site.latitude_deg.abs(),
+        if chart.site.latitude_deg >= 0.0 { "N" } else { "S" },
+        chart.site.longitude_deg.abs(),
+        if chart.site.longitude_deg >= 0.0 { "E" } else { "W" },
+        chart.zone
+    );
+    heading(d, &chart.title, &sub);
+    let (plot_w, plot_h) = (w - 220.0, h - 110.0);
+    let r = (plot_w.min(plot_h) / 2.0 - 24.0).max(10.0);
+    let frame = Frame {
+        projection: chart.projection,
+        cx: 24.0 + plot_w / 2.0,
+        cy: 70.0 + plot_h / 2.0,
+        r,
+        x0: 48.0,
+        y0: 80.0,
+        w: plot_w - 48.0,
+        h: plot_h - 40.0,
+    };
+
+    // Obstructions first, under everything: the skyline filled down to the horizon.
+    if chart.skyline.len() > 1 {
+        let mut ring: Vec<(f64, f64)> = chart.skyline.iter().map(|&(az, alt)| frame.at(az, alt)).collect();
+        if chart.projection == Projection::Rectangular {
+            ring.push(frame.at(359.999, chart.skyline[0].1));
+            ring.push(frame.at(359.999, 0.0));
+            ring.push(frame.at(0.0, 0.0));
+            d.fill_polygon(&[ring], OBSTRUCTION);
+        } else {
+            // Between the horizon circle and the skyline: the horizon as the outer ring, the skyline
+            // as a hole (even-odd), so only the obstructed band is filled.
+            let horizon: Vec<(f64, f64)> = (0..360).map(|a| frame.at(f64::from(a), 0.0)).collect();
+            d.fill_polygon(&[horizon, ring], OBSTRUCTION);
+        }
+    }
+
+    // Altitude rings and azimuth spokes.
+    for alt in (0..90).step_by(10) {
+        let alt = f64::from(alt);
+        let line: Vec<(f64, f64)> = (0..=360).map(|a| frame.at(f64::from(a), alt)).collect();
+        d.stroke(&line, if alt == 0.0 { 1.5 } else { 0.7 }, if alt == 0.0 { INK } else { GRID }, false);
+        if alt > 0.0 {
+            let (x, y) = frame.at(0.0, alt);
+            d.text(x + 3.0, y + 12.0, 10.0, &format!("{alt:.0}°"), Colour::rgb(140, 140, 140), Anchor::Start);
+        }
+    }
+    for az in (0..360).step_by(30) {
+        let az = f64::from(az);
+        d.stroke(&[frame.at(az, 0.0), frame.at(az, 90.0)], 0.7, GRID, false);
+        let label = match az as i32 {
+            0 => "N".to_string(),
+            90 => "E".to_string(),
+            180 => "S".to_string(),
+            270 => "W".to_string(),
+            a => format!("{a}°"),
+        };
+        let (x, y) = match chart.projection {
+            Projection::Rectangular => (frame.at(az, 0.0).0, frame.y0 + frame.h + 18.0),
+            _ => {
+                let (s, c) = az.to_radians().sin_cos();
+                (frame.cx + (r + 14.0) * s, frame.cy - (r + 14.0) * c + 4.0)
+            }
+        };
+        d.text(x, y, 11.0, &label, INK, Anchor::Middle);
+    }
+
+    // Hour lines: the sun at each whole local hour on every fifth day of the year.
+    let dt = chart.delta_t;
+    let jan1 = NaiveDate::from_ymd_opt(chart.year, 1, 1).ok_or(InputError::YearOutOfRange { year: chart.year })?;
+    for hour in 0..24 {
+        // Points of one UTC offset and above the horizon form one line; a daylight-saving change
+        // breaks the clock-time figure into two.
+        let mut pts: Vec<(f64, f64)> = Vec::new();
+        let mut offset: Option<i32> = None;
+        let flush = |d: &mut dyn Draw, pts: &mut Vec<(f64, f64)>| {
+            for line in polylines(&frame, pts) {
+                d.stroke(&line, 0.8, HOUR, false);
+            }
+            pts.clear();
+        };
+        for k in (0..366).step_by(3) {
+            let date = jan1 + Duration::days(k);
+            let Some(time) = NaiveTime::from_hms_opt(hour, 0, 0) else { continue };
+            let Ok(t) = chart.zone.resolve(date.and_time(time), Fold::Earlier) else { continue };
+            let off = chart.zone.local(t).offset().local_minus_utc();
+            if offset.is_some_and(|o| o != off) {
+                flush(d, &mut pts);
+            }
+            offset = Some(off);
+            let (az, alt) = sun(&chart.site, t, dt)?;
+            if alt > 0.0 {
+                pts.push((az, alt));
+            } else {
+                flush(d, &mut pts);
+            }
+        }
+        flush(d, &mut pts);
+        // Label the hour at its summer-solstice-side end (the highest point of its figure).
+        let mut best: Option<(f64, f64)> = None;
+        for k in (0..366).step_by(5) {
+            let date = jan1 + Duration::days(k);
+            let Some(time) = NaiveTime::from_hms_opt(hour, 0, 0) else { continue };
+            let Ok(t) = chart.zone.resolve(date.and_time(time), Fold::Earlier) else { continue };
+            let (az, alt) = sun(&chart.site, t, dt)?;
+            if alt > 2.0 && best.is_none_or(|b| alt > b.1) {
+                best = Some((az, alt));
+            }
+        }
+        if let Some((az, alt)) = best {
+            let (x, y) = frame.at(az, alt);
+            d.text(x, y - 6.0, 10.0, &format!("{hour:02}"), HOUR, Anchor::Middle);
+        }
+    }
+
+    // Day paths.
+    // Dates a month either side of a solstice follow nearly the same path: the 21st of month m and of
+    // month 12 − m share a colour when every date is a 21st, and one legend line.
+    let paired = chart.dates.iter().all(|(d, _)| chrono::Datelike::day(d) == 21);
+    let key = |k: usize, d: &NaiveDate| {
+        if paired {
+            let m = chrono::Datelike::month(d) as usize;
+            if m == 12 {
+                0
+            } else {
+                m.min(12 - m)
+            }
+        } else {
+            k % PATH_COLOURS.len()
+        }
+    };
+    let mut legend: Vec<(usize, String)> = Vec::new();
+    for (k, (date, label)) in chart.dates.iter().enumerate() {
+        let c = key(k, date);
+        match legend.iter_mut().find(|(j, _)| *j == c) {
+            Some((_, text)) => *text = format!("{text}, {label}"),
+            None => legend.push((c, label.clone())),
+        }
+    }
+    for (row, (c, label)) in legend.iter().enumerate() {
+        let ly = 90.0 + 20.0 * row as f64;
+        d.stroke(&[(w - 180.0, ly - 4.0), (w - 156.0, ly - 4.0)], 2.0, PATH_COLOURS[*c], false);
+        d.text(w - 148.0, ly, 12.0, label, INK, Anchor::Start);
+    }
+    for (k, (date, _)) in chart.dates.iter().enumerate() {
+        let colour = PATH_COLOURS[key(k, date)];
+        let start = chart.zone.start_of_day(*date);
+        let mut pts = Vec::new();
+        for m in (0..=24 * 60).step_by(5) {
+            let (az, alt) = sun(&chart.site, start + Duration::minutes(m), dt)?;
+            if alt > 0.0 {
+                pts.push((az, alt));
+            }
+        }
+        for line in polylines(&frame, &pts) {
+            d.stroke(&line, 2.0, colour, false);
+        }
+    }
+
+    if let Some(t) = chart.now {
+        let (az, alt) = sun(&chart.site, t, dt)?;
+        if alt > 0.0 {
+            let (x, y) = frame.at(az, alt);
+            let disc: Vec<(f64, f64)> = (0..24)
+                .map(|k| {
+                    let a = f64::from(k) * 15f64.to_radians();
+                    (x + 7.0 * a.cos(), y + 7.0 * a.sin())
+                })
+                .collect();
+            d.fill_polygon(std::slice::from_ref(&disc), SUN);
+            d.stroke(&disc, 1.0, INK, true);
+            let label = chart.zone.local(t).format("sun at %H:%M").to_string();
+            d.text(x + 10.0, y - 8.0, 11.0, &label, INK, Anchor::Start);
+        }
+    }
+    if !chart.skyline.is_empty() {
+        let y = 90.0 + 20.0 * legend.len() as f64 + 10.0;
+        d.fill_rect(w - 180.0, y - 10.0, 24.0, 12.0, OBSTRUCTION);
+        d.text(w - 148.0, y, 12.0, "obstructions", INK, Anchor::Start);
+    }
+    d.text(
+        24.0,
+        h - 14.0,
+        11.0,
+        "Hour lines: local clock time through the year. Indicative; NREL SPA positions.",
+        Colour::rgb(110, 110, 110),
+        Anchor::Start,
+    );
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::render::Pixmap;
+
+    #[test]
+    fn the_chart_draws_paths_where_the_sun_is() {
+        let site = Site { latitude_deg: 52.0, longitude_deg: 0.0, elevation_m: 0.0 };
+        let zone: Zone = "UTC".parse().unwrap();
+        let june = NaiveDate::from_ymd_opt(2026, 6, 21).unwrap();
+        let chart = SkyChart {
+            title: "t".into(),
+            site,
+            zone,
+            dates: vec![(june, "21 Jun".into())],
+            year: 2026,
+            now: None,
+            skyline: vec![],
+            projection: Projection::Stereographic,
+            delta_t: DeltaT::EspenakMeeus,
+        };
+        let mut px = Pixmap::new(900, 700);
+        draw_sky_chart(&mut px, &chart).unwrap();
+        // Solar noon at 52° N on the June solstice: altitude 90 − 52 + 23.44 = 61.44°, due south
+        // (common practice); the path's colour is found at that point of the chart.
+        let frame_r = ((900.0_f64 - 220.0).min(700.0 - 110.0) / 2.0 - 24.0).max(10.0);
+        let (cx, cy) = (24.0 + (900.0 - 220.0) / 2.0, 70.0 + (700.0 - 110.0) / 2.0);
+        let rho = ((90.0_f64 - 61.44) / 2.0).to_radians().tan();
+        let (x, y) = (cx, cy + frame_r * rho);
+        let c = PATH_COLOURS[6]; // June: the solstice colour of the paired monthly scheme
+        let found = (-3..=3).any(|dy| {
+            let i = (((y + f64::from(dy)) as usize) * 900 + x as usize) * 4;
+            px.rgba()[i..i + 3] == [c.r, c.g, c.b]
+        });
+        assert!(found, "the June path crosses due south at 61.4°");
+    }
+}
