@@ -108,3 +108,85 @@ fn clear_sky_in_the_browser_matches_the_core() {
     )));
     assert!(m.contains("albedo"), "{m}");
 }
+
+fn demo_site_js() -> String {
+    serde_json::to_string(sunlot::demo::DEMO_SITE_JSON).unwrap()
+}
+
+/// The sun-hours map through the facade equals the core's map on the same inputs, as a typed array.
+#[wasm_bindgen_test]
+fn sun_hours_map_is_a_typed_array_equal_to_the_core() {
+    let input = format!(
+        r#"{{"site": {}, "areas": ["garden-16"], "cellM": 1, "date": "2026-03-20", "stepMin": 10}}"#,
+        demo_site_js()
+    );
+    let out = sunlot::web::sun_hours_map(js(&input), None).expect("map");
+    let grid = get(&out, "grid");
+    let (cols, rows) = (num(&grid, "cols") as usize, num(&grid, "rows") as usize);
+    let hours: js_sys::Float64Array = get(&out, "hours").into();
+    assert_eq!(hours.length() as usize, cols * rows);
+    let m = sunlot::demo::demo();
+    let garden = m.areas.iter().find(|a| a.id == "garden-16").unwrap();
+    let g = sunlot::exposure::Grid::over_polygon(&garden.polygon, 1.0, sunlot::exposure::DEFAULT_MAX_CELLS).unwrap();
+    let req = sunlot::exposure::SunHoursRequest {
+        model: &m,
+        grid: &g,
+        period: sunlot::exposure::Period::day(chrono::NaiveDate::from_ymd_opt(2026, 3, 20).unwrap(), 10),
+        plane_m: 0.0,
+        delta_t: sunlot::time::DeltaT::EspenakMeeus,
+        massing: sunlot::exposure::Massing::WithProposed,
+    };
+    let core = sunlot::exposure::sun_hours(&req, |_| true).unwrap();
+    for (k, want) in core.hours.iter().enumerate() {
+        let got = hours.get_index(k as u32);
+        match want {
+            Some(h) => assert_eq!(got, *h),
+            None => assert!(got.is_nan()),
+        }
+    }
+}
+
+#[wasm_bindgen_test]
+fn rule_checks_envelopes_and_timelines_through_the_facade() {
+    let site = demo_site_js();
+    let report =
+        sunlot::web::check_rule_js(js(&format!(r#"{{"site": {site}, "year": 2026, "cellM": 1, "stepMin": 10}}"#)))
+            .unwrap();
+    assert!(get(&report, "caution").as_string().unwrap().contains("licensed professional"));
+    let areas: js_sys::Array = get(&report, "areas").into();
+    assert!(areas.length() >= 5);
+    let env = sunlot::web::solar_envelope_js(
+        js(&format!(r#"{{"site": {site}, "lot": "lot-14", "date": "2026-03-21"}}"#)),
+        None,
+    )
+    .unwrap();
+    let h: js_sys::Float64Array = get(&env, "heightM").into();
+    assert!(h.to_vec().iter().any(|&x| x > 3.0));
+    let t = sunlot::web::point_timeline(js(&format!(
+        r#"{{"site": {site}, "xM": 14, "yM": 41, "zM": 1.5, "date": "2026-03-21"}}"#
+    )))
+    .unwrap();
+    let iv: js_sys::Array = get(&t, "intervals").into();
+    assert_eq!(iv.length(), 3);
+}
+
+#[wasm_bindgen_test]
+fn bad_map_input_throws_errors_naming_the_field() {
+    let site = demo_site_js();
+    let cases = [
+        (format!(r#"{{"site": {site}, "areas": ["moat"], "date": "2026-03-20"}}"#), "moat"),
+        (format!(r#"{{"site": {site}, "date": "2026-03-20", "window": "15:00-09:00"}}"#), "inverted"),
+        (format!(r#"{{"site": {site}, "date": "2026-03-20", "cellM": 0.001}}"#), "cellM"),
+        (format!(r#"{{"site": {site}, "date": "20 March"}}"#), "date"),
+        (r#"{"site": "{\"sunlot_site\": 9}", "date": "2026-03-20"}"#.to_string(), "site"),
+        (format!(r#"{{"site": {site}, "date": "2026-03-20", "massing": "maybe"}}"#), "massing"),
+    ];
+    for (input, want) in cases {
+        let msg = error_message(sunlot::web::sun_hours_map(js(&input), None));
+        assert!(msg.contains(want), "{input}: {msg}");
+    }
+    // Cancelling from the progress callback is a clean error.
+    let cancel = js_sys::Function::new_with_args("f", "return false;");
+    let input = format!(r#"{{"site": {site}, "areas": ["garden-16"], "date": "2026-03-01", "to": "2026-03-31"}}"#);
+    assert!(error_message(sunlot::web::sun_hours_map(js(&input), Some(cancel))).contains("cancelled"));
+}

@@ -388,3 +388,30 @@ mod tests {
         assert!(matches!(SiteModel::from_json("{"), Err(SiteFileError::Json(_))));
     }
 }
+
+/// A site read from text that is either a site file or a GeoJSON FeatureCollection.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ReadSite {
+    /// The site.
+    pub model: SiteModel,
+    /// Whether it came from GeoJSON (results then go out in WGS84 too).
+    pub from_geojson: bool,
+}
+
+impl SiteModel {
+    /// Reads a site file or, when the text is a GeoJSON FeatureCollection, a GeoJSON site.
+    ///
+    /// # Errors
+    /// The reader's error as text, naming the feature or field.
+    pub fn read(text: &str) -> Result<ReadSite, String> {
+        let is_geojson = serde_json::from_str::<serde_json::Value>(text)
+            .ok()
+            .is_some_and(|v| v.get("type").and_then(|t| t.as_str()) == Some("FeatureCollection"));
+        let model = if is_geojson {
+            SiteModel::from_geojson(text).map_err(|e| e.to_string())?
+        } else {
+            SiteModel::from_json(text).map_err(|e| e.to_string())?
+        };
+        Ok(ReadSite { model, from_geojson: is_geojson })
+    }
+}

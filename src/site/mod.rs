@@ -7,7 +7,7 @@ mod geojson_io;
 mod massing;
 mod terrain;
 
-pub use file::{Area, AreaKind, SiteFileError, SiteModel, SITE_FILE_VERSION};
+pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SITE_FILE_VERSION};
 pub use frame::LocalFrame;
 pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};
 pub use massing::{SiteError, Status, Volume, Wall};

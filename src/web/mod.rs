@@ -7,6 +7,9 @@ use chrono::{DateTime, Utc};
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
+mod maps;
+pub use maps::{check_rule_js, compare_map, point_timeline, solar_envelope_js, sun_hours_map};
+
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};
 use crate::solar::{self, Atmosphere, Crossing, Site, SunAtInstant};
 use crate::time::{parse_instant, DeltaT, Fold, Zone};

@@ -38,15 +38,8 @@ impl SiteFileArgs {
         }
         let path = self.path.as_ref().ok_or("give a site file, or --demo")?;
         let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;
-        let is_geojson = serde_json::from_str::<serde_json::Value>(&text)
-            .ok()
-            .is_some_and(|v| v.get("type").and_then(|t| t.as_str()) == Some("FeatureCollection"));
-        let model = if is_geojson {
-            SiteModel::from_geojson(&text).map_err(|e| format!("{}: {e}", path.display()))?
-        } else {
-            SiteModel::from_json(&text).map_err(|e| format!("{}: {e}", path.display()))?
-        };
-        Ok(Loaded { model, from_geojson: is_geojson })
+        let read = SiteModel::read(&text).map_err(|e| format!("{}: {e}", path.display()))?;
+        Ok(Loaded { model: read.model, from_geojson: read.from_geojson })
     }
 }
 

@@ -1,0 +1,344 @@
+//! The facade for sites and exposure (wasm32 only): sun-hours and before/after maps as typed arrays,
+//! rule checks, the solar envelope and a point's day. Each call takes the site as text (a site file
+//! or GeoJSON), so the page keeps the user's site and nothing is lost on an error.
+
+use chrono::NaiveTime;
+use geo::{MultiPolygon, Polygon};
+use js_sys::Float64Array;
+use serde::{Deserialize, Serialize};
+use wasm_bindgen::prelude::*;
+
+use super::{err, read, write};
+use crate::envelope::{solar_envelope, EnvelopeRequest};
+use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
+use crate::rules::{check_rule, preset, CheckRequest, Rule};
+use crate::shadow::ViewPoint;
+use crate::site::{AreaKind, SiteModel};
+use crate::time::DeltaT;
+
+fn site(text: &str) -> Result<SiteModel, JsError> {
+    SiteModel::read(text).map(|r| r.model).map_err(|e| JsError::new(&format!("site: {e}")))
+}
+
+fn window(text: Option<&str>) -> Result<Window, JsError> {
+    let Some(text) = text else { return Ok(Window::Daylight) };
+    let bad = || JsError::new(&format!("window: {text:?} is not HH:MM-HH:MM"));
+    let (a, b) = text.split_once('-').ok_or_else(bad)?;
+    let t = |s: &str| NaiveTime::parse_from_str(s.trim(), "%H:%M").map_err(|_| bad());
+    Ok(Window::Clock { from: t(a)?, to: t(b)? })
+}
+
+fn date(text: &str, field: &str) -> Result<chrono::NaiveDate, JsError> {
+    chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d")
+        .map_err(|_| JsError::new(&format!("{field}: {text:?} is not YYYY-MM-DD")))
+}
+
+/// What every map call takes.
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct MapIn {
+    /// The site as text.
+    site: String,
+    /// Area ids (default: all).
+    #[serde(default)]
+    areas: Vec<String>,
+    #[serde(default = "half")]
+    cell_m: f64,
+    date: String,
+    to: Option<String>,
+    window: Option<String>,
+    #[serde(default = "five")]
+    step_min: u32,
+    #[serde(default)]
+    plane_m: f64,
+    /// "existing" or "withProposed" (default).
+    massing: Option<String>,
+    max_cells: Option<usize>,
+}
+
+fn half() -> f64 {
+    0.5
+}
+fn five() -> u32 {
+    5
+}
+
+impl MapIn {
+    fn parts(&self) -> Result<(SiteModel, Grid, Period, Massing), JsError> {
+        let model = site(&self.site)?;
+        for id in &self.areas {
+            if !model.areas.iter().any(|a| &a.id == id) {
+                return Err(JsError::new(&format!("areas: the site has no area {id:?}")));
+            }
+        }
+        let polys: Vec<Polygon<f64>> = model
+            .areas
+            .iter()
+            .filter(|a| self.areas.is_empty() || self.areas.contains(&a.id))
+            .map(|a| a.polygon.clone())
+            .collect();
+        if polys.is_empty() {
+            return Err(JsError::new("areas: the site has no areas to map"));
+        }
+        let grid = Grid::over(
+            &MultiPolygon::new(polys),
+            self.cell_m,
+            self.max_cells.unwrap_or(crate::exposure::DEFAULT_MAX_CELLS),
+        )
+        .map_err(|e| JsError::new(&format!("cellM: {e}")))?;
+        let first = date(&self.date, "date")?;
+        let last = self.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
+        let period = Period { first, last, window: window(self.window.as_deref())?, step_min: self.step_min };
+        let massing = match self.massing.as_deref() {
+            None | Some("withProposed") => Massing::WithProposed,
+            Some("existing") => Massing::Existing,
+            Some(other) => {
+                return Err(JsError::new(&format!("massing: {other:?} is not \"existing\" or \"withProposed\"")))
+            }
+        };
+        Ok((model, grid, period, massing))
+    }
+}
+
+/// A grid's geometry for the page.
+#[derive(Serialize)]
+#[serde(rename_all = "camelCase")]
+struct GridOut {
+    cols: usize,
+    rows: usize,
+    origin_x_m: f64,
+    origin_y_m: f64,
+    col0: usize,
+    row0: usize,
+    cell_m: f64,
+}
+
+fn grid_out(g: &Grid) -> GridOut {
+    GridOut {
+        cols: g.cols,
+        rows: g.rows,
+        origin_x_m: g.origin.x,
+        origin_y_m: g.origin.y,
+        col0: g.col0,
+        row0: g.row0,
+        cell_m: g.cell_m,
+    }
+}
+
+/// Values row-major from the bottom row, NaN outside the areas.
+fn array(values: &[Option<f64>]) -> Float64Array {
+    let v: Vec<f64> = values.iter().map(|x| x.unwrap_or(f64::NAN)).collect();
+    Float64Array::from(v.as_slice())
+}
+
+fn set(obj: &JsValue, key: &str, value: &JsValue) -> Result<(), JsError> {
+    js_sys::Reflect::set(obj, &JsValue::from_str(key), value)
+        .map(|_| ())
+        .map_err(|_| JsError::new("could not build the result"))
+}
+
+fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -> bool + '_ {
+    move |f| match callback {
+        Some(cb) => cb.call1(&JsValue::NULL, &JsValue::from_f64(f)).map_or(true, |r| r.as_bool() != Some(false)),
+        None => true,
+    }
+}
+
+/// Hours of direct sun per cell: `{grid, hours: Float64Array, openHours, steps}`. `onProgress(f)` is
+/// called with the fraction done and may return `false` to cancel.
+#[wasm_bindgen(js_name = sunHoursMap)]
+pub fn sun_hours_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+    let i: MapIn = read(input, "sunHoursMap")?;
+    let (model, grid, period, massing) = i.parts()?;
+    let req = SunHoursRequest {
+        model: &model,
+        grid: &grid,
+        period,
+        plane_m: i.plane_m,
+        delta_t: DeltaT::EspenakMeeus,
+        massing,
+    };
+    let map = sun_hours(&req, progress(&on_progress)).map_err(err)?;
+    #[derive(Serialize)]
+    #[serde(rename_all = "camelCase")]
+    struct Out {
+        grid: GridOut,
+        open_hours: f64,
+        steps: usize,
+    }
+    let out = write(&Out { grid: grid_out(&grid), open_hours: map.open_hours, steps: map.steps })?;
+    set(&out, "hours", &array(&map.hours))?;
+    Ok(out)
+}
+
+/// Before and after the proposal: `{grid, before, after, lostH, ratio}` as Float64Arrays.
+#[wasm_bindgen(js_name = compareMap)]
+pub fn compare_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+    let i: MapIn = read(input, "compareMap")?;
+    let (model, grid, period, _) = i.parts()?;
+    let req = SunHoursRequest {
+        model: &model,
+        grid: &grid,
+        period,
+        plane_m: i.plane_m,
+        delta_t: DeltaT::EspenakMeeus,
+        massing: Massing::WithProposed,
+    };
+    let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours}))?;
+    set(&out, "before", &array(&ba.before.hours))?;
+    set(&out, "after", &array(&ba.after.hours))?;
+    set(&out, "lostH", &array(&ba.lost_h))?;
+    set(&out, "ratio", &array(&ba.ratio))?;
+    Ok(out)
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct CheckIn {
+    site: String,
+    /// A preset id (default: the BRE BR 209 amenity preset) …
+    preset: Option<String>,
+    /// … or a rule as an object of the rule-file format.
+    rule: Option<serde_json::Value>,
+    year: i32,
+    #[serde(default = "half")]
+    cell_m: f64,
+    #[serde(default = "five")]
+    step_min: u32,
+}
+
+/// A rule check: the report (rule, date, each area's figures, pass/fail, margins, caution).
+#[wasm_bindgen(js_name = checkRule)]
+pub fn check_rule_js(input: JsValue) -> Result<JsValue, JsError> {
+    let i: CheckIn = read(input, "checkRule")?;
+    let model = site(&i.site)?;
+    let rule = match (&i.rule, &i.preset) {
+        (Some(r), _) => Rule::from_json(&r.to_string()).map_err(err)?,
+        (None, p) => preset(p.as_deref().unwrap_or("bre-br209-amenity")).map_err(err)?,
+    };
+    let req = CheckRequest {
+        model: &model,
+        rule: &rule,
+        year: i.year,
+        cell_m: i.cell_m,
+        step_min: i.step_min,
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    write(&check_rule(&req, |_| true).map_err(err)?)
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct EnvelopeIn {
+    site: String,
+    lot: String,
+    #[serde(default)]
+    protect: Vec<String>,
+    date: String,
+    to: Option<String>,
+    window: Option<String>,
+    #[serde(default = "fifteen")]
+    step_min: u32,
+    #[serde(default = "one")]
+    cell_m: f64,
+    #[serde(default = "thirty")]
+    max_height_m: f64,
+    #[serde(default = "tenth")]
+    height_step_m: f64,
+}
+
+fn fifteen() -> u32 {
+    15
+}
+fn one() -> f64 {
+    1.0
+}
+fn thirty() -> f64 {
+    30.0
+}
+fn tenth() -> f64 {
+    0.1
+}
+
+/// The solar envelope of a lot: `{grid, heightM: Float64Array, steps}`.
+#[wasm_bindgen(js_name = solarEnvelope)]
+pub fn solar_envelope_js(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+    let i: EnvelopeIn = read(input, "solarEnvelope")?;
+    let model = site(&i.site)?;
+    let lot = model
+        .areas
+        .iter()
+        .find(|a| a.id == i.lot)
+        .ok_or_else(|| JsError::new(&format!("lot: the site has no area {:?}", i.lot)))?;
+    for id in &i.protect {
+        if !model.areas.iter().any(|a| &a.id == id) {
+            return Err(JsError::new(&format!("protect: the site has no area {id:?}")));
+        }
+    }
+    let kinds = [AreaKind::Garden, AreaKind::Terrace, AreaKind::Amenity];
+    let protected: Vec<Polygon<f64>> = model
+        .areas
+        .iter()
+        .filter(|a| {
+            a.id != lot.id && if i.protect.is_empty() { kinds.contains(&a.kind) } else { i.protect.contains(&a.id) }
+        })
+        .map(|a| a.polygon.clone())
+        .collect();
+    let grid = Grid::over_polygon(&lot.polygon, i.cell_m, crate::exposure::DEFAULT_MAX_CELLS)
+        .map_err(|e| JsError::new(&format!("cellM: {e}")))?;
+    let first = date(&i.date, "date")?;
+    let last = i.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
+    let window = window(Some(i.window.as_deref().unwrap_or("09:00-15:00")))?;
+    let req = EnvelopeRequest {
+        model: &model,
+        grid: &grid,
+        protected: &protected,
+        period: Period { first, last, window, step_min: i.step_min },
+        max_height_m: i.max_height_m,
+        height_step_m: i.height_step_m,
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    let env = solar_envelope(&req, progress(&on_progress)).map_err(err)?;
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "steps": env.steps}))?;
+    set(&out, "heightM", &array(&env.height_m))?;
+    Ok(out)
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct TimelineIn {
+    site: String,
+    x_m: f64,
+    y_m: f64,
+    #[serde(default)]
+    z_m: f64,
+    date: String,
+    massing: Option<String>,
+}
+
+/// A point's day: `{intervals: [{from, to, sunlit, by}], sunHours, dayHours}` with local RFC 3339 times.
+#[wasm_bindgen(js_name = pointTimeline)]
+pub fn point_timeline(input: JsValue) -> Result<JsValue, JsError> {
+    let i: TimelineIn = read(input, "pointTimeline")?;
+    let model = site(&i.site)?;
+    let massing = if i.massing.as_deref() == Some("existing") { Massing::Existing } else { Massing::WithProposed };
+    let t = day_timeline(
+        &model,
+        ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
+        date(&i.date, "date")?,
+        massing,
+        DeltaT::EspenakMeeus,
+    )
+    .map_err(err)?;
+    let zone = model.zone;
+    let intervals: Vec<_> = t
+        .intervals
+        .iter()
+        .map(|iv| {
+            serde_json::json!({"from": super::stamp(iv.from, &zone), "to": super::stamp(iv.to, &zone),
+                               "sunlit": iv.sunlit, "by": iv.by})
+        })
+        .collect();
+    write(&serde_json::json!({"intervals": intervals, "sunHours": t.sun_hours, "dayHours": t.day_hours}))
+}
