@@ -56,6 +56,14 @@ pub struct Envelope {
     pub steps: usize,
 }
 
+/// The areas an envelope protects by default: every garden, terrace and amenity area other than the
+/// lot `lot_id`.
+pub fn default_protected<'a>(model: &'a SiteModel, lot_id: &str) -> Vec<&'a crate::site::Area> {
+    use crate::site::AreaKind;
+    let kinds = [AreaKind::Garden, AreaKind::Terrace, AreaKind::Amenity];
+    model.areas.iter().filter(|a| a.id != lot_id && kinds.contains(&a.kind)).collect()
+}
+
 /// Distance along unit direction `u` from `p` to segment `e`, if the ray meets it.
 fn ray_to_segment(p: Coord<f64>, u: Coord<f64>, e: Line<f64>) -> Option<f64> {
     let d = e.delta();

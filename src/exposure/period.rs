@@ -23,6 +23,19 @@ pub enum Window {
     Clock { from: NaiveTime, to: NaiveTime },
 }
 
+impl Window {
+    /// Reads `HH:MM-HH:MM` (the window's ends in local clock time).
+    ///
+    /// # Errors
+    /// A message quoting the text when it is not two clock times joined by `-`.
+    pub fn parse(text: &str) -> Result<Window, String> {
+        let bad = || format!("{text:?} is not HH:MM-HH:MM");
+        let (a, b) = text.split_once('-').ok_or_else(bad)?;
+        let t = |s: &str| NaiveTime::parse_from_str(s.trim(), "%H:%M").map_err(|_| bad());
+        Ok(Window::Clock { from: t(a)?, to: t(b)? })
+    }
+}
+
 /// Local dates, a daily window and a step.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Period {

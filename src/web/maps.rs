@@ -2,7 +2,6 @@
 //! rule checks, the solar envelope and a point's day. Each call takes the site as text (a site file
 //! or GeoJSON), so the page keeps the user's site and nothing is lost on an error.
 
-use chrono::NaiveTime;
 use geo::{MultiPolygon, Polygon};
 use js_sys::Float64Array;
 use serde::{Deserialize, Serialize};
@@ -13,7 +12,7 @@ use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
 use crate::rules::{check_rule, preset, CheckRequest, Rule};
 use crate::shadow::ViewPoint;
-use crate::site::{AreaKind, SiteModel};
+use crate::site::SiteModel;
 use crate::time::DeltaT;
 
 fn site(text: &str) -> Result<SiteModel, JsError> {
@@ -21,11 +20,7 @@ fn site(text: &str) -> Result<SiteModel, JsError> {
 }
 
 fn window(text: Option<&str>) -> Result<Window, JsError> {
-    let Some(text) = text else { return Ok(Window::Daylight) };
-    let bad = || JsError::new(&format!("window: {text:?} is not HH:MM-HH:MM"));
-    let (a, b) = text.split_once('-').ok_or_else(bad)?;
-    let t = |s: &str| NaiveTime::parse_from_str(s.trim(), "%H:%M").map_err(|_| bad());
-    Ok(Window::Clock { from: t(a)?, to: t(b)? })
+    text.map_or(Ok(Window::Daylight), |t| Window::parse(t).map_err(|e| JsError::new(&format!("window: {e}"))))
 }
 
 fn date(text: &str, field: &str) -> Result<chrono::NaiveDate, JsError> {
@@ -276,15 +271,11 @@ pub fn solar_envelope_js(input: JsValue, on_progress: Option<js_sys::Function>) 
             return Err(JsError::new(&format!("protect: the site has no area {id:?}")));
         }
     }
-    let kinds = [AreaKind::Garden, AreaKind::Terrace, AreaKind::Amenity];
-    let protected: Vec<Polygon<f64>> = model
-        .areas
-        .iter()
-        .filter(|a| {
-            a.id != lot.id && if i.protect.is_empty() { kinds.contains(&a.kind) } else { i.protect.contains(&a.id) }
-        })
-        .map(|a| a.polygon.clone())
-        .collect();
+    let protected: Vec<Polygon<f64>> = if i.protect.is_empty() {
+        crate::envelope::default_protected(&model, &lot.id).iter().map(|a| a.polygon.clone()).collect()
+    } else {
+        model.areas.iter().filter(|a| i.protect.contains(&a.id)).map(|a| a.polygon.clone()).collect()
+    };
     let grid = Grid::over_polygon(&lot.polygon, i.cell_m, crate::exposure::DEFAULT_MAX_CELLS)
         .map_err(|e| JsError::new(&format!("cellM: {e}")))?;
     let first = date(&i.date, "date")?;

@@ -8,7 +8,6 @@ use serde_json::json;
 use sunlot::envelope::{height_bands, solar_envelope, EnvelopeRequest};
 use sunlot::exposure::{map_stats, Grid, Period, Window, DEFAULT_MAX_CELLS};
 use sunlot::rules::CAUTION;
-use sunlot::site::AreaKind;
 
 use crate::args::{self, DeltaTArgs};
 use crate::maps::{self, Layer, MapFiles, Picture};
@@ -67,8 +66,7 @@ pub fn run(a: &EnvelopeArgs) -> Result<String, String> {
     let model = &loaded.model;
     let lot = maps::pick_areas(model, std::slice::from_ref(&a.lot), "--lot")?[0];
     let protected: Vec<_> = if a.protect.is_empty() {
-        let kinds = [AreaKind::Garden, AreaKind::Terrace, AreaKind::Amenity];
-        model.areas.iter().filter(|x| x.id != lot.id && kinds.contains(&x.kind)).collect()
+        sunlot::envelope::default_protected(model, &lot.id)
     } else {
         maps::pick_areas(model, &a.protect, "--protect")?
     };

@@ -2,7 +2,6 @@
 
 use std::path::PathBuf;
 
-use chrono::NaiveTime;
 use clap::Args;
 use geo::{MultiPolygon, Polygon};
 use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
@@ -34,10 +33,7 @@ pub struct PeriodArgs {
 
 /// A daily window `HH:MM-HH:MM`.
 pub fn window(text: &str, flag: &str) -> Result<Window, String> {
-    let bad = || format!("{flag}: {text:?} is not HH:MM-HH:MM");
-    let (a, b) = text.split_once('-').ok_or_else(bad)?;
-    let t = |s: &str| NaiveTime::parse_from_str(s.trim(), "%H:%M").map_err(|_| bad());
-    Ok(Window::Clock { from: t(a)?, to: t(b)? })
+    Window::parse(text).map_err(|e| format!("{flag}: {e}"))
 }
 
 impl PeriodArgs {
