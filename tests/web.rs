@@ -190,3 +190,40 @@ fn bad_map_input_throws_errors_naming_the_field() {
     let input = format!(r#"{{"site": {site}, "areas": ["garden-16"], "date": "2026-03-01", "to": "2026-03-31"}}"#);
     assert!(error_message(sunlot::web::sun_hours_map(js(&input), Some(cancel))).contains("cancelled"));
 }
+
+/// The sun-path diagram drawn on a canvas by the same code as the PNG and SVG exports: pixels checked.
+#[wasm_bindgen_test]
+fn sky_chart_draws_on_a_canvas_and_as_svg() {
+    use wasm_bindgen::JsCast;
+    let doc = web_sys::window().unwrap().document().unwrap();
+    let canvas: web_sys::HtmlCanvasElement = doc.create_element("canvas").unwrap().dyn_into().unwrap();
+    canvas.set_width(900);
+    canvas.set_height(720);
+    let input = format!(
+        r#"{{"site": {}, "year": 2026, "xM": 14, "yM": 41, "zM": 1.5, "localTime": "2026-03-21T15:00"}}"#,
+        demo_site_js()
+    );
+    sunlot::web::draw_sky_chart_js(&canvas, js(&input)).expect("drawn");
+    let ctx: web_sys::CanvasRenderingContext2d = canvas.get_context("2d").unwrap().unwrap().dyn_into().unwrap();
+    let data = ctx.get_image_data(0.0, 0.0, 900.0, 720.0).unwrap().data();
+    let px = data.0;
+    let (mut ink, mut june) = (0, 0);
+    for p in px.chunks_exact(4) {
+        if p[0] < 200 || p[1] < 200 || p[2] < 200 {
+            ink += 1;
+        }
+        // The solstice path (Okabe–Ito yellow, 240 228 66), allowing for anti-aliasing.
+        if (p[0] as i32 - 240).abs() < 12 && (p[1] as i32 - 228).abs() < 12 && (p[2] as i32 - 66).abs() < 30 {
+            june += 1;
+        }
+    }
+    assert!(ink > 20_000, "the chart has ink: {ink}");
+    assert!(june > 200, "the June path is drawn: {june}");
+    let svg = sunlot::web::sky_chart_svg(js(&input), 900, 720).expect("svg");
+    assert!(svg.starts_with("<svg") && svg.contains("obstructions"));
+    assert!(error_message(
+        sunlot::web::sky_chart_svg(js(&format!(r#"{{"site": {}, "year": 2026, "xM": 1}}"#, demo_site_js())), 10, 10)
+            .map(JsValue::from)
+    )
+    .contains("xM"));
+}

@@ -16,7 +16,7 @@ mod svg;
 pub use draw::{footnote, heading, text_width_px, wrap, Anchor, Colour, Draw, Image};
 pub use heat_map::{draw_heat_map, HeatMap, FIGURE_PX};
 pub use pixmap::Pixmap;
-pub use plan::{Outline, OutlineKind, PlanFrame};
+pub use plan::{site_bounds, site_outlines, Outline, OutlineKind, PlanFrame};
 pub use plan_view::{draw_shadow_plan, ShadowPlan};
 pub use ramp::{ramp, ramp_colour};
 pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart};

@@ -1,7 +1,9 @@
 //! What every plan figure shares: fitting the plan into a box, outlines of areas and volumes with
 //! labels where they fit, a scale bar, a true-north arrow and the key of outline styles.
 
-use geo::{BoundingRect, Coord, Polygon, Rect};
+use geo::{BoundingRect, Coord, MultiPolygon, Polygon, Rect};
+
+use crate::site::{SiteModel, Status};
 
 use super::draw::{text_width_px, Anchor, Colour, Draw};
 
@@ -162,4 +164,28 @@ pub fn outline_key(d: &mut dyn Draw, outlines: &[Outline], x: f64, y: f64) -> f6
         }
     }
     y
+}
+
+/// The plan outlines of a site: areas, existing and proposed volumes.
+pub fn site_outlines(model: &SiteModel) -> Vec<Outline> {
+    let mut out: Vec<Outline> = model
+        .areas
+        .iter()
+        .map(|a| Outline { polygon: a.polygon.clone(), label: a.id.clone(), kind: OutlineKind::Area })
+        .collect();
+    for v in &model.volumes {
+        let kind = if v.status == Status::Proposed { OutlineKind::Proposed } else { OutlineKind::Existing };
+        out.push(Outline { polygon: v.footprint.clone(), label: format!("{} m", v.top_m), kind });
+    }
+    out
+}
+
+/// The bounding box of a site's areas and volumes grown by a fifth on each side (the plan a figure
+/// shows); `None` for an empty site.
+pub fn site_bounds(model: &SiteModel) -> Option<Rect<f64>> {
+    let mut polys: Vec<Polygon<f64>> = model.areas.iter().map(|a| a.polygon.clone()).collect();
+    polys.extend(model.volumes.iter().map(|v| v.footprint.clone()));
+    let r = MultiPolygon::new(polys).bounding_rect()?;
+    let m = 0.2 * r.width().max(r.height());
+    Some(Rect::new(Coord { x: r.min().x - m, y: r.min().y - m }, Coord { x: r.max().x + m, y: r.max().y + m }))
 }

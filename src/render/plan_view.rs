@@ -1,10 +1,15 @@
 //! The shadow plan: the site at a moment, with the shade of the existing massing and the shade the
 //! proposal adds, outlines, scale bar, north arrow and key.
 
-use geo::{MultiPolygon, Rect};
+use geo::{BooleanOps, Coord, MultiPolygon, Rect};
 
 use super::draw::{footnote, heading, Anchor, Colour, Draw};
-use super::plan::{draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, Outline, PlanFrame, PROPOSED};
+use super::plan::{
+    draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, site_bounds, site_outlines, Outline, PlanFrame,
+    PROPOSED,
+};
+use crate::shadow::Study;
+use crate::site::SiteModel;
 
 const EXISTING_SHADE: Colour = Colour { r: 60, g: 60, b: 90, a: 110 };
 const ADDED_SHADE: Colour = Colour { r: PROPOSED.r, g: PROPOSED.g, b: PROPOSED.b, a: 120 };
@@ -28,6 +33,43 @@ pub struct ShadowPlan {
     pub plan_rotation_deg: f64,
     /// Footnote (the caution).
     pub caution: String,
+}
+
+impl ShadowPlan {
+    /// The plan of `study` (of `model` at the moment labelled `when`): the site's areas and volumes
+    /// with a margin, the shadows cut to it.
+    pub fn of_study(model: &SiteModel, study: &Study, when: &str) -> ShadowPlan {
+        let shown =
+            site_bounds(model).unwrap_or_else(|| Rect::new(Coord { x: -50.0, y: -50.0 }, Coord { x: 50.0, y: 50.0 }));
+        let frame = MultiPolygon::new(vec![shown.to_polygon()]);
+        let none = || MultiPolygon::new(vec![]);
+        let (subtitle, existing, added) = match study {
+            Study::Sun { sun, existing, combined, clipped, .. } => (
+                format!(
+                    "sun at azimuth {:.1}°, altitude {:.1}°{}",
+                    sun.azimuth_deg,
+                    sun.altitude_deg,
+                    if *clipped { "; long shadows cut at the analysis extent" } else { "" }
+                ),
+                existing.intersection(&frame),
+                combined.difference(existing).intersection(&frame),
+            ),
+            Study::NoSun { .. } => ("the sun is below the horizon: no direct sun".into(), none(), none()),
+            Study::SunBehindGround { .. } => {
+                ("the sun is behind the sloping ground: all of it in the slope's shade".into(), frame.clone(), none())
+            }
+        };
+        ShadowPlan {
+            title: format!("Shadows at {when} — {}", model.name),
+            subtitle,
+            outlines: site_outlines(model),
+            existing,
+            added,
+            extent: shown,
+            plan_rotation_deg: model.plan_rotation_deg,
+            caution: crate::rules::CAUTION.into(),
+        }
+    }
 }
 
 /// Draws `plan` onto `d`.

@@ -10,6 +10,9 @@
 use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
 
 use super::draw::{heading, Anchor, Colour, Draw};
+use crate::exposure::Massing;
+use crate::shadow::{analysis_extent, skyline, Receiver, ViewPoint};
+use crate::site::SiteModel;
 use crate::solar::{Atmosphere, InputError, Site, SunAtInstant};
 use crate::time::{DeltaT, Fold, Zone};
 
@@ -63,6 +66,51 @@ pub struct SkyChart {
     pub projection: Projection,
     /// ΔT.
     pub delta_t: DeltaT,
+}
+
+impl SkyChart {
+    /// The chart of `model`'s site: day paths on `dates` (default: the 21st of every month of
+    /// `year`), the sun at `now`, and, seen `from` a point with a massing, the obstruction skyline at
+    /// 1° steps.
+    ///
+    /// # Errors
+    /// A message naming the bad field of the point.
+    pub fn for_site(
+        model: &SiteModel,
+        year: i32,
+        dates: Option<Vec<(NaiveDate, String)>>,
+        now: Option<DateTime<Utc>>,
+        from: Option<(ViewPoint, Massing)>,
+        projection: Projection,
+        delta_t: DeltaT,
+    ) -> Result<SkyChart, String> {
+        let mut title = format!("Sun path — {}", model.name);
+        let mut sky = Vec::new();
+        if let Some((p, massing)) = from {
+            let volumes: Vec<_> = model.volumes.iter().filter(|v| massing.includes(v.status)).cloned().collect();
+            let walls: Vec<_> = model.walls.iter().filter(|w| massing.includes(w.status)).cloned().collect();
+            let reach = analysis_extent(model).map_or(1_000.0, |r| r.width().hypot(r.height()));
+            let ground = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
+            title = format!("Sun path and skyline from ({}, {}, {} m) — {}", p.x_m, p.y_m, p.z_m, model.name);
+            sky = skyline(p, &volumes, &walls, &ground, 1.0, reach)
+                .map_err(|e| e.to_string())?
+                .into_iter()
+                .map(|(az, alt)| ((az + model.plan_rotation_deg).rem_euclid(360.0), alt))
+                .collect();
+            sky.sort_by(|x, y| x.0.total_cmp(&y.0));
+        }
+        Ok(SkyChart {
+            title,
+            site: model.location,
+            zone: model.zone,
+            dates: dates.unwrap_or_else(|| monthly_dates(year)),
+            year,
+            now,
+            skyline: sky,
+            projection,
+            delta_t,
+        })
+    }
 }
 
 /// The default dates: the 21st of every month, labelled (solstices and equinoxes fall within two days

@@ -7,7 +7,9 @@ use chrono::{DateTime, Utc};
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
+mod canvas;
 mod maps;
+pub use canvas::{draw_sky_chart_js, sky_chart_svg, Canvas};
 pub use maps::{check_rule_js, compare_map, point_timeline, solar_envelope_js, sun_hours_map};
 
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};

@@ -7,9 +7,9 @@ use geo::{MultiPolygon, Polygon};
 use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
 use serde_json::json;
 use sunlot::exposure::{Grid, Period, Window, DEFAULT_MAX_CELLS};
-use sunlot::render::{draw_heat_map, HeatMap, Outline, OutlineKind, Pixmap, Svg, FIGURE_PX};
+use sunlot::render::{draw_heat_map, HeatMap, Pixmap, Svg, FIGURE_PX};
 use sunlot::rules::CAUTION;
-use sunlot::site::{SiteModel, Status};
+use sunlot::site::SiteModel;
 
 use crate::args;
 use crate::shadows::Loaded;
@@ -138,20 +138,6 @@ fn write(path: &PathBuf, bytes: &[u8]) -> Result<(), String> {
     std::fs::write(path, bytes).map_err(|e| format!("{}: {e}", path.display()))
 }
 
-/// The plan outlines of a site: areas, existing and proposed volumes.
-pub fn outlines(model: &SiteModel) -> Vec<Outline> {
-    let mut out: Vec<Outline> = model
-        .areas
-        .iter()
-        .map(|a| Outline { polygon: a.polygon.clone(), label: a.id.clone(), kind: OutlineKind::Area })
-        .collect();
-    for v in &model.volumes {
-        let kind = if v.status == Status::Proposed { OutlineKind::Proposed } else { OutlineKind::Existing };
-        out.push(Outline { polygon: v.footprint.clone(), label: format!("{} m", v.top_m), kind });
-    }
-    out
-}
-
 /// Writes the files asked for; returns a note per file written.
 pub fn write_files(
     files: &MapFiles,
@@ -226,7 +212,7 @@ pub fn write_files(
             grid,
             values: layers[picture.layer].values,
             range: picture.range,
-            outlines: outlines(model),
+            outlines: sunlot::render::site_outlines(model),
             plan_rotation_deg: model.plan_rotation_deg,
             caution: CAUTION.into(),
         };
@@ -249,18 +235,4 @@ pub fn write_files(
 /// The largest value of a map (at least `floor`), for a legend's top.
 pub fn top_of(values: &[Option<f64>], floor: f64) -> f64 {
     values.iter().flatten().copied().fold(floor, f64::max)
-}
-
-/// The bounding box of a site's areas and volumes grown by a fifth on each side (the plan a figure
-/// shows); `None` for an empty site.
-pub fn site_bounds(model: &SiteModel) -> Option<geo::Rect<f64>> {
-    use geo::BoundingRect;
-    let mut polys: Vec<Polygon<f64>> = model.areas.iter().map(|a| a.polygon.clone()).collect();
-    polys.extend(model.volumes.iter().map(|v| v.footprint.clone()));
-    let r = MultiPolygon::new(polys).bounding_rect()?;
-    let m = 0.2 * r.width().max(r.height());
-    Some(geo::Rect::new(
-        geo::Coord { x: r.min().x - m, y: r.min().y - m },
-        geo::Coord { x: r.max().x + m, y: r.max().y + m },
-    ))
 }

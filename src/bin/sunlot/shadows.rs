@@ -90,6 +90,20 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
         args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
     let study = shadow_study(&model, t, a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
     let when = args::rfc3339(t, &zone);
+    if a.png.is_some() || a.svg.is_some() {
+        use sunlot::render::{draw_shadow_plan, Pixmap, ShadowPlan, Svg, FIGURE_PX};
+        let plan = ShadowPlan::of_study(&model, &study, &when);
+        if let Some(path) = &a.png {
+            let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
+            draw_shadow_plan(&mut px, &plan);
+            std::fs::write(path, px.to_png()).map_err(|e| format!("{}: {e}", path.display()))?;
+        }
+        if let Some(path) = &a.svg {
+            let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
+            draw_shadow_plan(&mut svg, &plan);
+            std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
+        }
+    }
     let (sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent) = match study {
         Study::Sun { sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent } => {
             (sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent)
@@ -112,37 +126,6 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
             });
         }
     };
-    if a.png.is_some() || a.svg.is_some() {
-        use geo::BooleanOps;
-        use sunlot::render::{draw_shadow_plan, Pixmap, ShadowPlan, Svg, FIGURE_PX};
-        let shown = crate::maps::site_bounds(&model).unwrap_or(extent);
-        let frame = MultiPolygon::new(vec![shown.to_polygon()]);
-        let plan = ShadowPlan {
-            title: format!("Shadows at {when} — {}", model.name),
-            subtitle: format!(
-                "sun at azimuth {:.1}°, altitude {:.1}°{}",
-                sun.azimuth_deg,
-                sun.altitude_deg,
-                if clipped { "; long shadows cut at the analysis extent" } else { "" }
-            ),
-            outlines: crate::maps::outlines(&model),
-            existing: existing.intersection(&frame),
-            added: combined.difference(&existing).intersection(&frame),
-            extent: shown,
-            plan_rotation_deg: model.plan_rotation_deg,
-            caution: sunlot::rules::CAUTION.into(),
-        };
-        if let Some(path) = &a.png {
-            let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
-            draw_shadow_plan(&mut px, &plan);
-            std::fs::write(path, px.to_png()).map_err(|e| format!("{}: {e}", path.display()))?;
-        }
-        if let Some(path) = &a.svg {
-            let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
-            draw_shadow_plan(&mut svg, &plan);
-            std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
-        }
-    }
     if a.format == ShadowFormat::Geojson {
         let mut features = Vec::new();
         let mut add = |geom: GeometryValue, props: serde_json::Value| {

@@ -4,8 +4,8 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
+use sunlot::exposure::Massing;
 use sunlot::render::{draw_sky_chart, monthly_dates, Pixmap, Projection, SkyChart, Svg};
-use sunlot::shadow::{analysis_extent, skyline, Receiver};
 
 use crate::args::{self, DeltaTArgs};
 use crate::point::parse_point;
@@ -77,43 +77,20 @@ pub fn run(a: &SkyArgs) -> Result<String, String> {
         }
         None => None,
     };
-    let mut title = format!("Sun path — {}", model.name);
-    let sky = match &a.at {
+    let from = match &a.at {
         Some(at) => {
-            let p = parse_point(at)?;
-            let mut m = model.clone();
-            if a.existing_only {
-                m.volumes.retain(|v| v.status == sunlot::site::Status::Existing);
-                m.walls.retain(|w| w.status == sunlot::site::Status::Existing);
-            }
-            let reach = analysis_extent(&m).map_or(1_000.0, |r| r.width().hypot(r.height()));
-            let ground = Receiver::on(&m.ground, m.plan_rotation_deg, 0.0);
-            title = format!("Sun path and skyline from ({}, {}, {} m) — {}", p.x_m, p.y_m, p.z_m, model.name);
-            skyline(p, &m.volumes, &m.walls, &ground, 1.0, reach)
-                .map_err(|e| format!("--at: {e}"))?
-                .into_iter()
-                .map(|(az, alt)| ((az + m.plan_rotation_deg).rem_euclid(360.0), alt))
-                .collect::<Vec<_>>()
+            let massing = if a.existing_only { Massing::Existing } else { Massing::WithProposed };
+            Some((parse_point(at)?, massing))
         }
-        None => vec![],
+        None => None,
     };
-    let mut sky = sky;
-    sky.sort_by(|x, y| x.0.total_cmp(&y.0));
-    let chart = SkyChart {
-        title,
-        site: model.location,
-        zone: model.zone,
-        dates,
-        year,
-        now,
-        skyline: sky,
-        projection: match a.projection {
-            ProjectionArg::Stereographic => Projection::Stereographic,
-            ProjectionArg::Equidistant => Projection::Equidistant,
-            ProjectionArg::Rectangular => Projection::Rectangular,
-        },
-        delta_t: a.delta_t.delta_t()?,
+    let projection = match a.projection {
+        ProjectionArg::Stereographic => Projection::Stereographic,
+        ProjectionArg::Equidistant => Projection::Equidistant,
+        ProjectionArg::Rectangular => Projection::Rectangular,
     };
+    let chart = SkyChart::for_site(&model, year, Some(dates), now, from, projection, a.delta_t.delta_t()?)
+        .map_err(|e| format!("--at: {e}"))?;
     let mut notes = String::new();
     if let Some(path) = &a.png {
         let mut px = Pixmap::new(SIZE.0, SIZE.1);

@@ -1,0 +1,179 @@
+//! The canvas back end of the drawing abstraction (wasm32 only), and the facade calls that draw the
+//! figures onto a page's `<canvas>`: the same drawing code as the PNG and SVG exports.
+
+use wasm_bindgen::prelude::*;
+use wasm_bindgen::{Clamped, JsCast};
+use web_sys::{CanvasRenderingContext2d, CanvasWindingRule, HtmlCanvasElement, ImageData};
+
+use crate::render::{Anchor, Colour, Draw, Image};
+
+/// A 2-D canvas context as a drawing surface.
+pub struct Canvas {
+    ctx: CanvasRenderingContext2d,
+    width: u32,
+    height: u32,
+}
+
+impl Canvas {
+    /// The canvas's 2-D context, sized as the canvas.
+    ///
+    /// # Errors
+    /// A `JsError` when the canvas has no 2-D context.
+    pub fn new(canvas: &HtmlCanvasElement) -> Result<Self, JsError> {
+        let ctx = canvas
+            .get_context("2d")
+            .ok()
+            .flatten()
+            .and_then(|c| c.dyn_into::<CanvasRenderingContext2d>().ok())
+            .ok_or_else(|| JsError::new("canvas: no 2-D context"))?;
+        Ok(Canvas { ctx, width: canvas.width(), height: canvas.height() })
+    }
+
+    fn path(&self, points: &[(f64, f64)], closed: bool) {
+        for (i, &(x, y)) in points.iter().enumerate() {
+            if i == 0 {
+                self.ctx.move_to(x, y);
+            } else {
+                self.ctx.line_to(x, y);
+            }
+        }
+        if closed {
+            self.ctx.close_path();
+        }
+    }
+}
+
+impl Draw for Canvas {
+    fn size(&self) -> (u32, u32) {
+        (self.width, self.height)
+    }
+
+    fn fill_polygon(&mut self, rings: &[Vec<(f64, f64)>], fill: Colour) {
+        self.ctx.begin_path();
+        for r in rings {
+            self.path(r, true);
+        }
+        self.ctx.set_fill_style_str(&fill.css());
+        self.ctx.fill_with_canvas_winding_rule(CanvasWindingRule::Evenodd);
+    }
+
+    fn stroke(&mut self, points: &[(f64, f64)], width_px: f64, colour: Colour, closed: bool) {
+        self.ctx.begin_path();
+        self.path(points, closed);
+        self.ctx.set_line_width(width_px);
+        self.ctx.set_line_join("round");
+        self.ctx.set_stroke_style_str(&colour.css());
+        self.ctx.stroke();
+    }
+
+    fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
+        self.ctx.set_font(&format!("{size_px}px monospace"));
+        self.ctx.set_text_align(match anchor {
+            Anchor::Start => "start",
+            Anchor::Middle => "center",
+            Anchor::End => "end",
+        });
+        self.ctx.set_fill_style_str(&colour.css());
+        let _ = self.ctx.fill_text(text, x, y);
+    }
+
+    fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
+        // Through a scratch canvas, so the image is scaled without smoothing like the other back ends.
+        let Some(doc) = web_sys::window().and_then(|w| w.document()) else { return };
+        let Some(scratch) = doc.create_element("canvas").ok().and_then(|e| e.dyn_into::<HtmlCanvasElement>().ok())
+        else {
+            return;
+        };
+        scratch.set_width(image.width);
+        scratch.set_height(image.height);
+        let Ok(sc) = Canvas::new(&scratch) else { return };
+        if let Ok(data) = ImageData::new_with_u8_clamped_array_and_sh(Clamped(image.rgba), image.width, image.height) {
+            let _ = sc.ctx.put_image_data(&data, 0.0, 0.0);
+        }
+        self.ctx.set_image_smoothing_enabled(false);
+        let _ = self.ctx.draw_image_with_html_canvas_element_and_dw_and_dh(&scratch, x, y, width, height);
+    }
+}
+
+#[derive(serde::Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct SkyIn {
+    site: String,
+    year: i32,
+    /// Local wall time `YYYY-MM-DDTHH:MM` of the sun to mark.
+    local_time: Option<String>,
+    /// Dates of the day paths (default: the 21st of every month).
+    #[serde(default)]
+    dates: Vec<String>,
+    /// The skyline is seen from this point, plan metres, if given.
+    x_m: Option<f64>,
+    y_m: Option<f64>,
+    #[serde(default)]
+    z_m: f64,
+    /// "existing" or "withProposed" (default).
+    massing: Option<String>,
+    /// "stereographic" (default), "equidistant" or "rectangular".
+    projection: Option<String>,
+}
+
+fn sky_chart(input: JsValue) -> Result<crate::render::SkyChart, JsError> {
+    use crate::exposure::Massing;
+    use crate::render::{Projection, SkyChart};
+    let i: SkyIn = super::read(input, "skyChart")?;
+    let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
+    let dates = if i.dates.is_empty() {
+        None
+    } else {
+        Some(
+            i.dates
+                .iter()
+                .map(|d| {
+                    chrono::NaiveDate::parse_from_str(d, "%Y-%m-%d")
+                        .map(|x| (x, x.format("%d %b %Y").to_string()))
+                        .map_err(|_| JsError::new(&format!("dates: {d:?} is not YYYY-MM-DD")))
+                })
+                .collect::<Result<Vec<_>, _>>()?,
+        )
+    };
+    let now = match &i.local_time {
+        Some(t) => {
+            let bad = |e: String| JsError::new(&format!("localTime: {e}"));
+            let wall = chrono::NaiveDateTime::parse_from_str(t, "%Y-%m-%dT%H:%M")
+                .map_err(|_| bad(format!("{t:?} is not YYYY-MM-DDTHH:MM")))?;
+            Some(model.zone.resolve(wall, crate::time::Fold::Earlier).map_err(|e| bad(e.to_string()))?)
+        }
+        None => None,
+    };
+    let massing = if i.massing.as_deref() == Some("existing") { Massing::Existing } else { Massing::WithProposed };
+    let from = match (i.x_m, i.y_m) {
+        (Some(x), Some(y)) => Some((crate::shadow::ViewPoint { x_m: x, y_m: y, z_m: i.z_m }, massing)),
+        (None, None) => None,
+        _ => return Err(JsError::new("xM, yM: give both or neither")),
+    };
+    let projection = match i.projection.as_deref() {
+        None | Some("stereographic") => Projection::Stereographic,
+        Some("equidistant") => Projection::Equidistant,
+        Some("rectangular") => Projection::Rectangular,
+        Some(p) => {
+            return Err(JsError::new(&format!("projection: {p:?} is not stereographic, equidistant or rectangular")))
+        }
+    };
+    SkyChart::for_site(&model, i.year, dates, now, from, projection, crate::time::DeltaT::EspenakMeeus)
+        .map_err(|e| JsError::new(&format!("xM: {e}")))
+}
+
+/// Draws the sun-path diagram onto `canvas` (sized by the page).
+#[wasm_bindgen(js_name = drawSkyChart)]
+pub fn draw_sky_chart_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
+    let chart = sky_chart(input)?;
+    crate::render::draw_sky_chart(&mut Canvas::new(canvas)?, &chart).map_err(super::err)
+}
+
+/// The sun-path diagram as an SVG document, `width` × `height` pixels: the same drawing as the canvas.
+#[wasm_bindgen(js_name = skyChartSvg)]
+pub fn sky_chart_svg(input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+    let chart = sky_chart(input)?;
+    let mut svg = crate::render::Svg::new(width, height);
+    crate::render::draw_sky_chart(&mut svg, &chart).map_err(super::err)?;
+    Ok(svg.finish())
+}
