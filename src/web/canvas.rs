@@ -135,15 +135,7 @@ fn sky_chart(input: JsValue) -> Result<crate::render::SkyChart, JsError> {
                 .collect::<Result<Vec<_>, _>>()?,
         )
     };
-    let now = match &i.local_time {
-        Some(t) => {
-            let bad = |e: String| JsError::new(&format!("localTime: {e}"));
-            let wall = chrono::NaiveDateTime::parse_from_str(t, "%Y-%m-%dT%H:%M")
-                .map_err(|_| bad(format!("{t:?} is not YYYY-MM-DDTHH:MM")))?;
-            Some(model.zone.resolve(wall, crate::time::Fold::Earlier).map_err(|e| bad(e.to_string()))?)
-        }
-        None => None,
-    };
+    let now = i.local_time.as_deref().map(|t| local_instant(&model, t)).transpose()?;
     let massing = if i.massing.as_deref() == Some("existing") { Massing::Existing } else { Massing::WithProposed };
     let from = match (i.x_m, i.y_m) {
         (Some(x), Some(y)) => Some((crate::shadow::ViewPoint { x_m: x, y_m: y, z_m: i.z_m }, massing)),
@@ -175,5 +167,46 @@ pub fn sky_chart_svg(input: JsValue, width: u32, height: u32) -> Result<String, 
     let chart = sky_chart(input)?;
     let mut svg = crate::render::Svg::new(width, height);
     crate::render::draw_sky_chart(&mut svg, &chart).map_err(super::err)?;
+    Ok(svg.finish())
+}
+
+/// A local wall time `YYYY-MM-DDTHH:MM` in the site's zone (the earlier of a repeated time).
+fn local_instant(model: &crate::site::SiteModel, t: &str) -> Result<chrono::DateTime<chrono::Utc>, JsError> {
+    let bad = |e: String| JsError::new(&format!("localTime: {e}"));
+    let wall = chrono::NaiveDateTime::parse_from_str(t, "%Y-%m-%dT%H:%M")
+        .map_err(|_| bad(format!("{t:?} is not YYYY-MM-DDTHH:MM")))?;
+    model.zone.resolve(wall, crate::time::Fold::Earlier).map_err(|e| bad(e.to_string()))
+}
+
+#[derive(serde::Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct PlanIn {
+    site: String,
+    /// Local wall time `YYYY-MM-DDTHH:MM` in the site's zone.
+    local_time: String,
+}
+
+fn shadow_plan(input: JsValue) -> Result<crate::render::ShadowPlan, JsError> {
+    let i: PlanIn = super::read(input, "shadowPlan")?;
+    let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
+    let t = local_instant(&model, &i.local_time)?;
+    let study = crate::shadow::shadow_study(&model, t, crate::time::DeltaT::EspenakMeeus).map_err(super::err)?;
+    Ok(crate::render::ShadowPlan::of_study(&model, &study, &super::stamp(t, &model.zone)))
+}
+
+/// Draws the shadow plan at a moment onto `canvas`.
+#[wasm_bindgen(js_name = drawShadowPlan)]
+pub fn draw_shadow_plan_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
+    let plan = shadow_plan(input)?;
+    crate::render::draw_shadow_plan(&mut Canvas::new(canvas)?, &plan);
+    Ok(())
+}
+
+/// The shadow plan as an SVG document, `width` × `height` pixels.
+#[wasm_bindgen(js_name = shadowPlanSvg)]
+pub fn shadow_plan_svg(input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+    let plan = shadow_plan(input)?;
+    let mut svg = crate::render::Svg::new(width, height);
+    crate::render::draw_shadow_plan(&mut svg, &plan);
     Ok(svg.finish())
 }

@@ -9,7 +9,7 @@ use wasm_bindgen::prelude::*;
 
 mod canvas;
 mod maps;
-pub use canvas::{draw_sky_chart_js, sky_chart_svg, Canvas};
+pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, sky_chart_svg, Canvas};
 pub use maps::{check_rule_js, compare_map, point_timeline, solar_envelope_js, sun_hours_map};
 
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};
@@ -300,4 +300,10 @@ pub fn clear_sky(input: JsValue) -> Result<JsValue, JsError> {
         dhi_w_m2: s.dhi_w_m2,
         ghi_w_m2: s.ghi_w_m2,
     })
+}
+
+/// The built-in, invented demo site as site-file text.
+#[wasm_bindgen(js_name = demoSiteText)]
+pub fn demo_site_text() -> String {
+    crate::demo::DEMO_SITE_JSON.to_string()
 }

@@ -1,0 +1,96 @@
+// End to end: www/index.html opened from disk (file://) in Debian's headless Chromium with every
+// request to anything but a local file blocked. Checks that both widgets draw (pixels, not just a
+// canvas), that changing the time moves the shadows, that the exports produce files that parse,
+// that a bad input shows an error, and that there are no console errors. Screenshots go to
+// target/e2e/ as test artefacts. Run: node e2e/page.test.mjs (after ./dev wasm).
+import { chromium } from "playwright-core";
+import { mkdirSync, readFileSync } from "node:fs";
+import { fileURLToPath, pathToFileURL } from "node:url";
+import path from "node:path";
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+const page_url = pathToFileURL(path.join(root, "www", "index.html")).href;
+const shots = path.join(root, "target", "e2e");
+mkdirSync(shots, { recursive: true });
+
+const failures = [];
+const check = (ok, what) => { console.log(`${ok ? "ok  " : "FAIL"} ${what}`); if (!ok) failures.push(what); };
+
+const browser = await chromium.launch({
+  executablePath: "/usr/bin/chromium",
+  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
+         "--disable-component-update", "--disable-sync", "--no-first-run"],
+});
+const context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1400, height: 1000 } });
+const blocked = [];
+await context.route("**/*", route => {
+  const url = route.request().url();
+  if (url.startsWith("file:") || url.startsWith("data:") || url.startsWith("blob:")) return route.continue();
+  blocked.push(url);
+  return route.abort();
+});
+const page = await context.newPage();
+const errors = [];
+page.on("console", m => { if (m.type() === "error") errors.push(m.text()); });
+page.on("pageerror", e => errors.push(String(e)));
+
+const t0 = Date.now();
+await page.goto(page_url);
+await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
+const ready_ms = Date.now() - t0;
+check(await page.evaluate(() => document.body.dataset.ready) === "yes", "the module starts from file://");
+console.log(`     first drawing of both widgets ${ready_ms} ms after navigation`);
+
+// Ink and a fingerprint of a canvas's pixels.
+const pixels = sel => page.evaluate(sel => {
+  const c = document.querySelector(sel);
+  const d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
+  let ink = 0, hash = 0;
+  for (let i = 0; i < d.length; i += 4) {
+    if (d[i] < 200 || d[i + 1] < 200 || d[i + 2] < 200) ink++;
+    hash = (hash * 31 + d[i] + 7 * d[i + 1] + 13 * d[i + 2]) >>> 0;
+  }
+  return { ink, hash };
+}, sel);
+const sky = await pixels("#sky canvas");
+const plan = await pixels("#plan canvas");
+check(sky.ink > 20000, `the sky widget draws (${sky.ink} inked pixels)`);
+check(plan.ink > 20000, `the plan widget draws (${plan.ink} inked pixels)`);
+check((await page.textContent("#summary")).includes("h of direct sun"), "the text summary is written");
+await page.screenshot({ path: path.join(shots, "index-1500.png"), fullPage: true });
+
+// Move the time: the shadows move.
+await page.$eval("#time", el => { el.value = "600"; el.dispatchEvent(new Event("input")); });
+const plan2 = await pixels("#plan canvas");
+check(plan2.hash !== plan.hash, "changing the time redraws the shadows");
+await page.$eval("#date", el => { el.value = "2026-12-21"; el.dispatchEvent(new Event("change")); });
+const plan3 = await pixels("#plan canvas");
+check(plan3.hash !== plan2.hash, "changing the date redraws the shadows");
+await page.screenshot({ path: path.join(shots, "index-december-1000.png"), fullPage: true });
+
+// Exports: PNG and SVG files that parse.
+for (const which of ["sky", "plan"]) {
+  for (const kind of ["png", "svg"]) {
+    const [dl] = await Promise.all([page.waitForEvent("download"), page.click(`[data-export="${which}-${kind}"]`)]);
+    const file = path.join(shots, `${which}.${kind}`);
+    await dl.saveAs(file);
+    const bytes = readFileSync(file);
+    const ok = kind === "png" ? bytes.subarray(1, 4).toString() === "PNG" : bytes.toString().startsWith("<svg");
+    check(ok, `${which} exports a ${kind.toUpperCase()} that parses`);
+  }
+}
+
+// Bad input: an error message, and the page keeps working.
+await page.$eval("#point", el => { el.value = "14,41"; el.dispatchEvent(new Event("change")); });
+check(!(await page.isHidden("#error")), "a bad point shows an error message");
+await page.$eval("#point", el => { el.value = "14,41,1.5"; el.dispatchEvent(new Event("change")); });
+check(await page.isHidden("#error"), "a good point clears it");
+
+check(blocked.length === 0, `no request leaves the disk (${blocked.join(", ") || "none"})`);
+check(errors.length === 0, `no console errors (${errors.join(" | ") || "none"})`);
+await browser.close();
+if (failures.length) {
+  console.error(`${failures.length} end-to-end check(s) failed`);
+  process.exit(1);
+}
+console.log("all end-to-end checks passed");

@@ -1,0 +1,76 @@
+// The demo page: the invented demo site's sun path and shadows, with date and time controls and
+// exports. Classic script: works from file:// with no server and no network.
+(function () {
+  "use strict";
+  const $ = id => document.getElementById(id);
+  const pad = n => String(n).padStart(2, "0");
+
+  function download(name, blob) {
+    const a = document.createElement("a");
+    a.href = URL.createObjectURL(blob);
+    a.download = name;
+    document.body.appendChild(a);
+    a.click();
+    a.remove();
+  }
+
+  window.sunlot.then(module => {
+    const site = module.demoSiteText();
+    const siteObj = JSON.parse(site);
+    $("site-name").textContent = siteObj.name;
+    const state = {};
+
+    function showError(e) {
+      $("error").hidden = false;
+      $("error").textContent = String(e && e.message ? e.message : e);
+    }
+
+    function redraw() {
+      $("error").hidden = true;
+      const date = $("date").value;
+      const minutes = Number($("time").value);
+      const time = `${pad(Math.floor(minutes / 60))}:${pad(minutes % 60)}`;
+      $("time-label").textContent = time;
+      const localTime = `${date}T${time}`;
+      const point = $("point").value.split(",").map(s => Number(s.trim()));
+      if (point.length !== 3 || point.some(v => !Number.isFinite(v)) || point[2] < 0) {
+        showError(`Sky from: "${$("point").value}" is not x, y, height in metres (e.g. 14,41,1.5)`);
+        return;
+      }
+      const [xM, yM, zM] = point;
+      try {
+        $("plan").draw(module, { site, localTime });
+        $("sky").draw(module, { site, year: Number(date.slice(0, 4)), localTime, xM, yM, zM });
+        const day = module.dayEvents({ latitudeDeg: siteObj.location.latitude_deg,
+          longitudeDeg: siteObj.location.longitude_deg, date, zone: siteObj.location.zone });
+        const line = module.pointTimeline({ site, xM, yM, zM, date });
+        $("summary").textContent =
+          `${date}: sunrise ${(day.sunrise || "—").slice(11, 16)}, sunset ${(day.sunset || "—").slice(11, 16)}; ` +
+          `the point (${xM}, ${yM}, ${zM} m) gets ${line.sunHours.toFixed(2)} h of direct sun of ` +
+          `${line.dayHours.toFixed(2)} h.`;
+        state.localTime = localTime;
+      } catch (e) {
+        showError(e);
+      }
+    }
+
+    for (const id of ["date", "time", "point"]) {
+      $(id).addEventListener("input", redraw);
+      $(id).addEventListener("change", redraw);
+    }
+    document.querySelectorAll("[data-export]").forEach(b => b.addEventListener("click", async () => {
+      const [which, kind] = b.dataset.export.split("-");
+      const el = $(which);
+      const name = `sunlot-${which}-${state.localTime || "figure"}.${kind}`;
+      if (kind === "png") download(name, await el.png());
+      else download(name, new Blob([el.svg(module)], { type: "image/svg+xml" }));
+    }));
+    redraw();
+    document.body.dataset.ready = "yes";
+  }).catch(e => {
+    document.body.dataset.ready = "error";
+    const el = document.getElementById("error");
+    el.hidden = false;
+    el.textContent = `sunlot could not start: ${e}`;
+  });
+})();
