@@ -39,7 +39,7 @@ await page.goto(page_url);
 await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
 const ready_ms = Date.now() - t0;
 check(await page.evaluate(() => document.body.dataset.ready) === "yes", "the module starts from file://");
-console.log(`     first drawing of both widgets ${ready_ms} ms after navigation`);
+console.log(`     first drawing of the widgets ${ready_ms} ms after navigation`);
 
 // Ink and a fingerprint of a canvas's pixels.
 const pixels = sel => page.evaluate(sel => {
@@ -56,6 +56,12 @@ const sky = await pixels("#sky canvas");
 const plan = await pixels("#plan canvas");
 check(sky.ink > 20000, `the sky widget draws (${sky.ink} inked pixels)`);
 check(plan.ink > 20000, `the plan widget draws (${plan.ink} inked pixels)`);
+const map = await pixels("#map canvas");
+check(map.ink > 20000, `the map widget draws (${map.ink} inked pixels)`);
+await page.selectOption("#layer", "lost");
+const lost = await pixels("#map canvas");
+check(lost.hash !== map.hash, "switching the map to hours lost redraws it");
+await page.selectOption("#layer", "hours");
 check((await page.textContent("#summary")).includes("h of direct sun"), "the text summary is written");
 await page.screenshot({ path: path.join(shots, "index-1500.png"), fullPage: true });
 
@@ -69,8 +75,8 @@ check(plan3.hash !== plan2.hash, "changing the date redraws the shadows");
 await page.screenshot({ path: path.join(shots, "index-december-1000.png"), fullPage: true });
 
 // Exports: PNG and SVG files that parse.
-for (const which of ["sky", "plan"]) {
-  for (const kind of ["png", "svg"]) {
+for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]], ["map", ["png"]]]) {
+  for (const kind of kinds) {
     const [dl] = await Promise.all([page.waitForEvent("download"), page.click(`[data-export="${which}-${kind}"]`)]);
     const file = path.join(shots, `${which}.${kind}`);
     await dl.saveAs(file);

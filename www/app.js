@@ -48,13 +48,17 @@
           `${date}: sunrise ${(day.sunrise || "—").slice(11, 16)}, sunset ${(day.sunset || "—").slice(11, 16)}; ` +
           `the point (${xM}, ${yM}, ${zM} m) gets ${line.sunHours.toFixed(2)} h of direct sun of ` +
           `${line.dayHours.toFixed(2)} h.`;
+        if (state.mapKey !== `${date}/${$("layer").value}`) {
+          state.mapKey = `${date}/${$("layer").value}`;
+          $("map").draw(module, { site, date, show: $("layer").value, cellM: 0.5, stepMin: 5 });
+        }
         state.localTime = localTime;
       } catch (e) {
         showError(e);
       }
     }
 
-    for (const id of ["date", "time", "point"]) {
+    for (const id of ["date", "time", "point", "layer"]) {
       $(id).addEventListener("input", redraw);
       $(id).addEventListener("change", redraw);
     }

@@ -42,6 +42,18 @@
     svg(module) { return module.shadowPlanSvg(this.opts, 960, 760); }
   }
 
+  class SunlotMap extends SunlotFigure {
+    constructor() { super(960, 760); }
+    /** Computes and draws a day's map: `opts` = { site, date, show: "hours" | "lost", cellM, stepMin }. */
+    draw(module, opts) {
+      this.opts = opts;
+      const out = module.drawMapFigure(this.canvas, opts);
+      this.canvas.setAttribute("aria-label", `Map of ${opts.show === "lost" ? "hours of sun lost" : "hours of sun"} on ${opts.date}`);
+      return out;
+    }
+  }
+
   customElements.define("sunlot-sky", SunlotSky);
+  customElements.define("sunlot-map", SunlotMap);
   customElements.define("sunlot-plan", SunlotPlan);
 })();

@@ -333,3 +333,63 @@ pub fn point_timeline(input: JsValue) -> Result<JsValue, JsError> {
         .collect();
     write(&serde_json::json!({"intervals": intervals, "sunHours": t.sun_hours, "dayHours": t.day_hours}))
 }
+
+/// What a map figure shows.
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct FigureIn {
+    #[serde(flatten)]
+    map: MapIn,
+    /// "hours" (default: hours of direct sun with the chosen massing) or "lost" (hours lost to the
+    /// proposal).
+    show: Option<String>,
+}
+
+/// Computes a one-period map and draws its heat-map figure onto `canvas` (the drawing code of the PNG
+/// and SVG exports). Returns `{grid, openHours}`.
+#[wasm_bindgen(js_name = drawMapFigure)]
+pub fn draw_map_figure(canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
+    let i: FigureIn = read(input, "drawMapFigure")?;
+    let (model, grid, period, massing) = i.map.parts()?;
+    let req = SunHoursRequest {
+        model: &model,
+        grid: &grid,
+        period,
+        plane_m: i.map.plane_m,
+        delta_t: DeltaT::EspenakMeeus,
+        massing,
+    };
+    let describe = format!(
+        "{}{}, {}, {}-minute steps",
+        i.map.date,
+        i.map.to.as_deref().map_or(String::new(), |t| format!(" to {t}")),
+        i.map.window.as_deref().unwrap_or("sunrise to sunset"),
+        i.map.step_min
+    );
+    let (values, open, title, unit, range) = match i.show.as_deref() {
+        None | Some("hours") => {
+            let m = sun_hours(&req, |_| true).map_err(err)?;
+            let top = m.open_hours.max(0.1);
+            (m.hours, m.open_hours, "Hours of direct sun", "hours of direct sun", (0.0, top))
+        }
+        Some("lost") => {
+            let ba = before_after(&req, |_| true).map_err(err)?;
+            let top = ba.lost_h.iter().flatten().copied().fold(0.5, f64::max);
+            (ba.lost_h, ba.before.open_hours, "Hours of direct sun lost to the proposal", "hours lost", (0.0, top))
+        }
+        Some(other) => return Err(JsError::new(&format!("show: {other:?} is not \"hours\" or \"lost\""))),
+    };
+    let map = crate::render::HeatMap {
+        title: format!("{title} — {}", model.name),
+        subtitle: describe,
+        unit: unit.into(),
+        grid: &grid,
+        values: &values,
+        range,
+        outlines: crate::render::site_outlines(&model),
+        plan_rotation_deg: model.plan_rotation_deg,
+        caution: crate::rules::CAUTION.into(),
+    };
+    crate::render::draw_heat_map(&mut super::Canvas::new(canvas)?, &map);
+    write(&serde_json::json!({"grid": grid_out(&grid), "openHours": open}))
+}
