@@ -86,6 +86,23 @@ for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]],
   }
 }
 
+// The year's map in a worker: progress moves, the page stays responsive, the result arrives; a second
+// run is cancelled.
+const t_year = Date.now();
+await page.click("#year-run");
+await page.waitForFunction(() => Number(document.querySelector("#year-progress").value) > 0, null, { timeout: 60000 });
+await page.$eval("#time", el => { el.value = "780"; el.dispatchEvent(new Event("input")); });
+const during = await pixels("#plan canvas");
+check(during.hash !== plan3.hash, "the plan redraws while the year's map runs in the worker");
+await page.waitForFunction(() => /mean \d+ h/.test(document.querySelector("#year-result").textContent), null, { timeout: 120000 });
+console.log(`     the year's map (1 m cells, 15-min steps) took ${Date.now() - t_year} ms in the browser`);
+check(true, `the year's map finishes: ${await page.textContent("#year-result")}`);
+await page.screenshot({ path: path.join(shots, "index-year.png"), fullPage: true });
+await page.click("#year-run");
+await page.click("#year-cancel"); // at once: the worker is still starting, so the run cannot finish first
+await page.waitForFunction(() => document.querySelector("#year-result").textContent === "cancelled", null, { timeout: 10000 });
+check(await page.isHidden("#year-progress"), "a cancelled run says so and hides its progress bar");
+
 // Bad input: an error message, and the page keeps working.
 await page.$eval("#point", el => { el.value = "14,41"; el.dispatchEvent(new Event("change")); });
 check(!(await page.isHidden("#error")), "a bad point shows an error message");

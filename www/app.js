@@ -69,6 +69,27 @@
       if (kind === "png") download(name, await el.png());
       else download(name, new Blob([el.svg(module)], { type: "image/svg+xml" }));
     }));
+    // The year's sun hours on every area, in a worker, with progress and cancel.
+    let job = null;
+    $("year-run").addEventListener("click", () => {
+      if (job) return;
+      const year = $("date").value.slice(0, 4);
+      $("year-progress").hidden = false;
+      $("year-cancel").hidden = false;
+      $("year-result").textContent = "computing…";
+      job = window.sunlotRunInWorker("sunHoursMap",
+        { site, cellM: 1, date: `${year}-01-01`, to: `${year}-12-31`, stepMin: 15 },
+        f => { $("year-progress").value = f; });
+      job.promise.then(out => {
+        const v = Array.from(out.hours).filter(Number.isFinite);
+        const mean = v.reduce((a, b) => a + b, 0) / v.length;
+        $("year-result").textContent = `${year}: ${v.length} cells of 1 m; mean ${mean.toFixed(0)} h of direct sun ` +
+          `(an open site: ${out.openHours.toFixed(0)} h), least ${Math.min(...v).toFixed(0)} h.`;
+      }).catch(e => { $("year-result").textContent = e.message === "cancelled" ? "cancelled" : `error: ${e.message}`; })
+        .finally(() => { job = null; $("year-progress").hidden = true; $("year-cancel").hidden = true; });
+    });
+    $("year-cancel").addEventListener("click", () => { if (job) job.cancel(); });
+
     redraw();
     document.body.dataset.ready = "yes";
   }).catch(e => {

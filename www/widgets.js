@@ -53,6 +53,38 @@
     }
   }
 
+  /**
+   * Runs one long call (`sunHoursMap`, `compareMap`, `solarEnvelope`) in a Web Worker made from a
+   * Blob URL, so the page stays responsive. Returns { promise, cancel }: `onProgress(fraction)` is
+   * called as the work goes; `cancel()` stops the worker at once and rejects with "cancelled".
+   */
+  function runInWorker(fn, input, onProgress) {
+    const source = `const ready = (${self.sunlotBoot.toString()})();
+      self.onmessage = async e => {
+        const m = await ready;
+        try {
+          const out = m[e.data.fn](e.data.input, f => { self.postMessage({ progress: f }); return true; });
+          self.postMessage({ result: out });
+        } catch (err) { self.postMessage({ error: String(err && err.message ? err.message : err) }); }
+      };`;
+    const url = URL.createObjectURL(new Blob([source], { type: "text/javascript" }));
+    const worker = new Worker(url);
+    let reject;
+    const promise = new Promise((res, rej) => {
+      reject = rej;
+      worker.onmessage = e => {
+        if (e.data.progress !== undefined) { if (onProgress) onProgress(e.data.progress); return; }
+        worker.terminate();
+        URL.revokeObjectURL(url);
+        if (e.data.error !== undefined) rej(new Error(e.data.error)); else res(e.data.result);
+      };
+      worker.onerror = e => { worker.terminate(); rej(new Error(e.message || "worker failed")); };
+    });
+    worker.postMessage({ fn, input });
+    return { promise, cancel() { worker.terminate(); URL.revokeObjectURL(url); reject(new Error("cancelled")); } };
+  }
+  self.sunlotRunInWorker = runInWorker;
+
   customElements.define("sunlot-sky", SunlotSky);
   customElements.define("sunlot-map", SunlotMap);
   customElements.define("sunlot-plan", SunlotPlan);
