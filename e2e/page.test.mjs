@@ -109,6 +109,33 @@ check(!(await page.isHidden("#error")), "a bad point shows an error message");
 await page.$eval("#point", el => { el.value = "14,41,1.5"; el.dispatchEvent(new Event("change")); });
 check(await page.isHidden("#error"), "a good point clears it");
 
+// Import: a malformed GeoJSON shows an error naming the feature and leaves the site as it was; a good
+// site file replaces it, is saved in the browser and is restored on reload.
+const name_before = await page.textContent("#site-name");
+const plan_before = await pixels("#plan canvas");
+const bad = JSON.stringify({ type: "FeatureCollection", sunlot: { zone: "Europe/London" }, features: [{ type: "Feature",
+  properties: { sunlot: "volume", id: "tower-x", top_m: -3 },
+  geometry: { type: "Polygon", coordinates: [[[0, 0], [0.0001, 0], [0.0001, 0.0001], [0, 0.0001], [0, 0]]] } }] });
+await page.setInputFiles("#import", { name: "bad.geojson", mimeType: "application/json", buffer: Buffer.from(bad) });
+await page.waitForFunction(() => !document.querySelector("#error").hidden, null, { timeout: 10000 });
+const msg = await page.textContent("#error");
+check(msg.includes("tower-x") && msg.includes("unchanged"), `a malformed GeoJSON names its feature: ${msg}`);
+check(await page.textContent("#site-name") === name_before, "the site is unchanged after a bad import");
+check((await pixels("#plan canvas")).hash === plan_before.hash, "the plan is unchanged after a bad import");
+const good = JSON.parse(readFileSync(path.join(root, "demo-site", "hollin-vale.site.json"), "utf8"));
+good.name = "Imported test site (invented)";
+await page.setInputFiles("#import", { name: "mine.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(good)) });
+await page.waitForFunction(() => document.querySelector("#site-name").textContent.includes("Imported test site"), null, { timeout: 10000 });
+check(true, "a good site file is imported");
+await page.reload();
+await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
+check((await page.textContent("#site-name")).includes("Imported test site"), "the imported site is restored on reload");
+const [dl] = await Promise.all([page.waitForEvent("download"), page.click("#export-site")]);
+await dl.saveAs(path.join(shots, "site.sunlot.json"));
+check(JSON.parse(readFileSync(path.join(shots, "site.sunlot.json"), "utf8")).name === good.name, "the site file saves and parses");
+await page.click("#reset-demo");
+check((await page.textContent("#site-name")) === name_before, "the demo site comes back");
+
 check(blocked.length === 0, `no request leaves the disk (${blocked.join(", ") || "none"})`);
 check(errors.length === 0, `no console errors (${errors.join(" | ") || "none"})`);
 await browser.close();

@@ -14,11 +14,26 @@
     a.remove();
   }
 
+  const STORE = "sunlot.site";
+
   window.sunlot.then(module => {
-    const site = module.demoSiteText();
-    const siteObj = JSON.parse(site);
-    $("site-name").textContent = siteObj.name;
+    // The site: restored from the browser's storage when a valid one was saved, else the demo.
+    let site = module.demoSiteText();
+    let info = module.readSite(site);
+    try {
+      const saved = localStorage.getItem(STORE);
+      if (saved) { info = module.readSite(saved); site = info.siteJson; }
+    } catch (e) { /* a saved site that no longer reads: keep the demo */ }
     const state = {};
+    const useSite = (text, source) => {
+      const next = module.readSite(text); // throws, naming the feature, before anything changes
+      site = next.siteJson;
+      info = next;
+      try { localStorage.setItem(STORE, site); } catch (e) { /* storage full or off: the page still works */ }
+      state.mapKey = null;
+      $("site-name").textContent = `${info.name}${source ? ` (from ${source})` : ""}`;
+    };
+    $("site-name").textContent = info.name;
 
     function showError(e) {
       $("error").hidden = false;
@@ -41,8 +56,8 @@
       try {
         $("plan").draw(module, { site, localTime });
         $("sky").draw(module, { site, year: Number(date.slice(0, 4)), localTime, xM, yM, zM });
-        const day = module.dayEvents({ latitudeDeg: siteObj.location.latitude_deg,
-          longitudeDeg: siteObj.location.longitude_deg, date, zone: siteObj.location.zone });
+        const day = module.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date,
+          zone: info.zone });
         const line = module.pointTimeline({ site, xM, yM, zM, date });
         $("summary").textContent =
           `${date}: sunrise ${(day.sunrise || "—").slice(11, 16)}, sunset ${(day.sunset || "—").slice(11, 16)}; ` +
@@ -69,6 +84,21 @@
       if (kind === "png") download(name, await el.png());
       else download(name, new Blob([el.svg(module)], { type: "image/svg+xml" }));
     }));
+    $("import").addEventListener("change", async () => {
+      const file = $("import").files[0];
+      if (!file) return;
+      try {
+        useSite(await file.text(), file.name);
+        redraw();
+      } catch (e) {
+        showError(`${file.name}: ${e.message} — the current site is unchanged.`);
+      }
+      $("import").value = "";
+    });
+    $("reset-demo").addEventListener("click", () => { useSite(module.demoSiteText(), ""); redraw(); });
+    $("export-site").addEventListener("click", () =>
+      download("site.sunlot.json", new Blob([site], { type: "application/json" })));
+
     // The year's sun hours on every area, in a worker, with progress and cancel.
     let job = null;
     $("year-run").addEventListener("click", () => {

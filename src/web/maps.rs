@@ -393,3 +393,28 @@ pub fn draw_map_figure(canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> R
     crate::render::draw_heat_map(&mut super::Canvas::new(canvas)?, &map);
     write(&serde_json::json!({"grid": grid_out(&grid), "openHours": open}))
 }
+
+/// Reads a site (site file or GeoJSON text) and describes it: `{name, fromGeojson, zone, latitudeDeg,
+/// longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}], siteJson}`,
+/// where `siteJson` is the site in the site-file format. Throws an `Error` naming the bad feature.
+#[wasm_bindgen(js_name = readSite)]
+pub fn read_site(text: &str) -> Result<JsValue, JsError> {
+    let r = SiteModel::read(text).map_err(|e| JsError::new(&format!("site: {e}")))?;
+    let m = &r.model;
+    let status = |s: crate::site::Status| if s == crate::site::Status::Proposed { "proposed" } else { "existing" };
+    let areas: Vec<_> = m
+        .areas
+        .iter()
+        .map(|a| serde_json::json!({"id": a.id, "name": a.name, "kind": a.kind, "status": status(a.status)}))
+        .collect();
+    let volumes: Vec<_> = m
+        .volumes
+        .iter()
+        .map(|v| serde_json::json!({"id": v.id, "status": status(v.status), "baseM": v.base_m, "topM": v.top_m}))
+        .collect();
+    write(&serde_json::json!({
+        "name": m.name, "fromGeojson": r.from_geojson, "zone": m.zone.to_string(),
+        "latitudeDeg": m.location.latitude_deg, "longitudeDeg": m.location.longitude_deg,
+        "areas": areas, "volumes": volumes, "siteJson": m.to_json(),
+    }))
+}

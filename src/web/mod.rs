@@ -10,7 +10,9 @@ use wasm_bindgen::prelude::*;
 mod canvas;
 mod maps;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, sky_chart_svg, Canvas};
-pub use maps::{check_rule_js, compare_map, draw_map_figure, point_timeline, solar_envelope_js, sun_hours_map};
+pub use maps::{
+    check_rule_js, compare_map, draw_map_figure, point_timeline, read_site, solar_envelope_js, sun_hours_map,
+};
 
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};
 use crate::solar::{self, Atmosphere, Crossing, Site, SunAtInstant};
