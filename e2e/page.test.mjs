@@ -136,6 +136,23 @@ check(JSON.parse(readFileSync(path.join(shots, "site.sunlot.json"), "utf8")).nam
 await page.click("#reset-demo");
 check((await page.textContent("#site-name")) === name_before, "the demo site comes back");
 
+// High-DPI: at a device pixel ratio of 2 the canvases carry twice the pixels each way, fully drawn.
+const hidpi = await browser.newContext({ deviceScaleFactor: 2, viewport: { width: 1400, height: 1000 } });
+await hidpi.route("**/*", route => route.request().url().startsWith("file:") ? route.continue() : route.abort());
+const page2 = await hidpi.newPage();
+await page2.goto(page_url);
+await page2.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
+const sky2 = await page2.evaluate(() => {
+  const c = document.querySelector("#sky canvas");
+  const d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
+  let ink = 0;
+  for (let i = 0; i < d.length; i += 4) if (d[i] < 200 || d[i + 1] < 200 || d[i + 2] < 200) ink++;
+  return { width: c.width, ink };
+});
+check(sky2.width === 1800 && sky2.ink > 3 * sky.ink, `high-DPI canvases are drawn at full resolution (${sky2.width} px wide, ${sky2.ink} inked)`);
+await page2.screenshot({ path: path.join(shots, "index-hidpi.png") });
+await hidpi.close();
+
 check(blocked.length === 0, `no request leaves the disk (${blocked.join(", ") || "none"})`);
 check(errors.length === 0, `no console errors (${errors.join(" | ") || "none"})`);
 await browser.close();

@@ -8,8 +8,11 @@
     constructor(width, height) {
       super();
       this.canvas = document.createElement("canvas");
-      this.canvas.width = width;
-      this.canvas.height = height;
+      // Crisp on high-DPI screens: as many canvas pixels as device pixels, drawn at the figure's size.
+      const ratio = Math.min(Math.max(window.devicePixelRatio || 1, 1), 4);
+      this.canvas.width = Math.round(width * ratio);
+      this.canvas.height = Math.round(height * ratio);
+      this.canvas.dataset.scale = String(ratio);
       this.canvas.setAttribute("role", "img");
       this.appendChild(this.canvas);
     }

@@ -15,7 +15,8 @@ pub struct Canvas {
 }
 
 impl Canvas {
-    /// The canvas's 2-D context, sized as the canvas.
+    /// The canvas's 2-D context. A canvas with a `data-scale` attribute (the device pixel ratio, set
+    /// by the widgets for crisp high-DPI drawing) is drawn in its size divided by that scale.
     ///
     /// # Errors
     /// A `JsError` when the canvas has no 2-D context.
@@ -26,7 +27,14 @@ impl Canvas {
             .flatten()
             .and_then(|c| c.dyn_into::<CanvasRenderingContext2d>().ok())
             .ok_or_else(|| JsError::new("canvas: no 2-D context"))?;
-        Ok(Canvas { ctx, width: canvas.width(), height: canvas.height() })
+        let scale = canvas
+            .get_attribute("data-scale")
+            .and_then(|s| s.parse::<f64>().ok())
+            .filter(|s| s.is_finite() && (0.25..=8.0).contains(s))
+            .unwrap_or(1.0);
+        let _ = ctx.set_transform(scale, 0.0, 0.0, scale, 0.0, 0.0);
+        let size = |px: u32| (f64::from(px) / scale).round() as u32;
+        Ok(Canvas { ctx, width: size(canvas.width()), height: size(canvas.height()) })
     }
 
     fn path(&self, points: &[(f64, f64)], closed: bool) {
