@@ -86,6 +86,15 @@ for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]],
   }
 }
 
+// Animation: frames of the shadow plan; the median frame time must allow 30 frames a second.
+await page.click("#play");
+await page.waitForTimeout(1500);
+await page.click("#play");
+const frames = await page.evaluate(() => window.sunlotFrameTimes.slice().sort((a, b) => a - b));
+const median = frames[Math.floor(frames.length / 2)];
+console.log(`     animation: ${frames.length} frames in 1.5 s, median draw ${median.toFixed(1)} ms`);
+check(frames.length >= 30 && median < 33, "the day's animation runs at 30 frames a second or more");
+
 // The year's map in a worker: progress moves, the page stays responsive, the result arrives; a second
 // run is cancelled.
 const t_year = Date.now();

@@ -99,6 +99,29 @@
     $("export-site").addEventListener("click", () =>
       download("site.sunlot.json", new Blob([site], { type: "application/json" })));
 
+    // Animation: the shadows through the day, 5 minutes a frame; the sky chart follows when it stops.
+    let playing = false;
+    window.sunlotFrameTimes = [];
+    const frame = () => {
+      if (!playing) return;
+      const t = (Number($("time").value) + 5) % 1440;
+      $("time").value = String(t);
+      const time = `${pad(Math.floor(t / 60))}:${pad(t % 60)}`;
+      $("time-label").textContent = time;
+      const t0 = performance.now();
+      try {
+        $("plan").draw(module, { site, localTime: `${$("date").value}T${time}` });
+      } catch (e) { showError(e); playing = false; }
+      window.sunlotFrameTimes.push(performance.now() - t0);
+      requestAnimationFrame(frame);
+    };
+    $("play").addEventListener("click", () => {
+      playing = !playing;
+      $("play").setAttribute("aria-pressed", String(playing));
+      $("play").textContent = playing ? "Stop" : "Play the day";
+      if (playing) requestAnimationFrame(frame); else redraw();
+    });
+
     // The year's sun hours on every area, in a worker, with progress and cancel.
     let job = null;
     $("year-run").addEventListener("click", () => {
