@@ -75,13 +75,18 @@ check(plan3.hash !== plan2.hash, "changing the date redraws the shadows");
 await page.screenshot({ path: path.join(shots, "index-december-1000.png"), fullPage: true });
 
 // Exports: PNG and SVG files that parse.
-for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]], ["map", ["png"]]]) {
+for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]], ["map", ["png", "csv"]]]) {
   for (const kind of kinds) {
     const [dl] = await Promise.all([page.waitForEvent("download"), page.click(`[data-export="${which}-${kind}"]`)]);
     const file = path.join(shots, `${which}.${kind}`);
     await dl.saveAs(file);
     const bytes = readFileSync(file);
-    const ok = kind === "png" ? bytes.subarray(1, 4).toString() === "PNG" : bytes.toString().startsWith("<svg");
+    const text = bytes.toString();
+    const csv_ok = () => {
+      const lines = text.trim().split("\n");
+      return lines[0] === "x_m,y_m,sun_hours" && lines.length > 100 && lines.slice(1).every(l => l.split(",").length === 3 && l.split(",").every(v => Number.isFinite(Number(v))));
+    };
+    const ok = kind === "png" ? bytes.subarray(1, 4).toString() === "PNG" : kind === "csv" ? csv_ok() : text.startsWith("<svg");
     check(ok, `${which} exports a ${kind.toUpperCase()} that parses`);
   }
 }

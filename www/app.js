@@ -82,6 +82,7 @@
       const el = $(which);
       const name = `sunlot-${which}-${state.localTime || "figure"}.${kind}`;
       if (kind === "png") download(name, await el.png());
+      else if (kind === "csv") download(name, new Blob([el.csv(module)], { type: "text/csv" }));
       else download(name, new Blob([el.svg(module)], { type: "image/svg+xml" }));
     }));
     $("import").addEventListener("change", async () => {

@@ -54,6 +54,24 @@
       this.canvas.setAttribute("aria-label", `Map of ${opts.show === "lost" ? "hours of sun lost" : "hours of sun"} on ${opts.date}`);
       return out;
     }
+    /** The map's cells as CSV: x_m, y_m (cell centres, plan metres) and the value, cells inside only. */
+    csv(module) {
+      const o = this.opts;
+      const out = o.show === "lost" ? module.compareMap(o) : module.sunHoursMap(o);
+      const values = o.show === "lost" ? out.lostH : out.hours;
+      const g = out.grid;
+      const rows = [`x_m,y_m,${o.show === "lost" ? "lost_h" : "sun_hours"}`];
+      for (let r = 0; r < g.rows; r++) {
+        for (let c = 0; c < g.cols; c++) {
+          const v = values[r * g.cols + c];
+          if (Number.isFinite(v)) {
+            const x = g.originXM + (g.col0 + c + 0.5) * g.cellM, y = g.originYM + (g.row0 + r + 0.5) * g.cellM;
+            rows.push(`${x.toFixed(3)},${y.toFixed(3)},${v.toFixed(4)}`);
+          }
+        }
+      }
+      return rows.join("\n") + "\n";
+    }
   }
 
   /**
