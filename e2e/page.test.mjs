@@ -117,6 +117,16 @@ await page.click("#year-cancel"); // at once: the worker is still starting, so t
 await page.waitForFunction(() => document.querySelector("#year-result").textContent === "cancelled", null, { timeout: 10000 });
 check(await page.isHidden("#year-progress"), "a cancelled run says so and hides its progress bar");
 
+// A click on the plan picks the point whose sky view and day of sun and shade are shown.
+const sky_before = await pixels("#sky canvas");
+const box = await page.$eval("#plan canvas", c => { const r = c.getBoundingClientRect(); return { x: r.left, y: r.top, w: r.width, h: r.height }; });
+await page.mouse.click(box.x + box.w * 0.5, box.y + box.h * 0.45);
+const picked = await page.inputValue("#point");
+check(picked !== "14,41,1.5" && picked.split(",").length === 3, `clicking the plan picks a point (${picked})`);
+check((await pixels("#sky canvas")).hash !== sky_before.hash, "the sky widget shows the picked point's skyline");
+check(/(sun|shade) \d\d:\d\d–\d\d:\d\d/.test(await page.textContent("#summary")), "the summary lists its sun and shade intervals");
+await page.$eval("#point", el => { el.value = "14,41,1.5"; el.dispatchEvent(new Event("change")); });
+
 // Bad input: an error message, and the page keeps working.
 await page.$eval("#point", el => { el.value = "14,41"; el.dispatchEvent(new Event("change")); });
 check(!(await page.isHidden("#error")), "a bad point shows an error message");

@@ -59,10 +59,12 @@
         const day = module.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date,
           zone: info.zone });
         const line = module.pointTimeline({ site, xM, yM, zM, date });
+        const spans = line.intervals.map(i =>
+          `${i.sunlit ? "sun" : "shade"} ${i.from.slice(11, 16)}–${i.to.slice(11, 16)}${i.by ? ` (${i.by})` : ""}`);
         $("summary").textContent =
           `${date}: sunrise ${(day.sunrise || "—").slice(11, 16)}, sunset ${(day.sunset || "—").slice(11, 16)}; ` +
           `the point (${xM}, ${yM}, ${zM} m) gets ${line.sunHours.toFixed(2)} h of direct sun of ` +
-          `${line.dayHours.toFixed(2)} h.`;
+          `${line.dayHours.toFixed(2)} h: ${spans.join(", ") || "no sun"}.`;
         if (state.mapKey !== `${date}/${$("layer").value}`) {
           state.mapKey = `${date}/${$("layer").value}`;
           $("map").draw(module, { site, date, show: $("layer").value, cellM: 0.5, stepMin: 5 });
@@ -72,6 +74,13 @@
         showError(e);
       }
     }
+
+    // A click on the plan moves the point whose sky and day are shown.
+    $("plan").addEventListener("sunlot-point", e => {
+      const z = ($("point").value.split(",")[2] || "1.5").trim();
+      $("point").value = `${e.detail.xM.toFixed(1)},${e.detail.yM.toFixed(1)},${z}`;
+      redraw();
+    });
 
     for (const id of ["date", "time", "point", "layer"]) {
       $(id).addEventListener("input", redraw);

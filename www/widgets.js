@@ -35,10 +35,21 @@
 
   class SunlotPlan extends SunlotFigure {
     constructor() { super(960, 760); }
-    /** Draws the plan: `opts` = { site, localTime }. */
+    /** Draws the plan: `opts` = { site, localTime }. A click on the plan fires `sunlot-point` with
+     * the plan point (metres) under it. */
     draw(module, opts) {
       this.opts = opts;
-      module.drawShadowPlan(this.canvas, opts);
+      this.frame = module.drawShadowPlan(this.canvas, opts);
+      if (!this.listening) {
+        this.listening = true;
+        this.canvas.addEventListener("click", e => {
+          const r = this.canvas.getBoundingClientRect();
+          const px = (e.clientX - r.left) * (960 / r.width), py = (e.clientY - r.top) * (760 / r.height);
+          const f = this.frame;
+          const detail = { xM: f.xAtLeftM + px / f.pxPerM, yM: f.yAtTopM - py / f.pxPerM };
+          this.dispatchEvent(new CustomEvent("sunlot-point", { bubbles: true, detail }));
+        });
+      }
       this.canvas.setAttribute("aria-label", `Site plan with shadows at ${opts.localTime}`);
       this.dispatchEvent(new CustomEvent("sunlot-drawn", { bubbles: true, detail: { localTime: opts.localTime } }));
     }

@@ -86,6 +86,11 @@ impl PlanFrame {
         (self.ox + (c.x - self.ext.min().x) * self.scale, self.oy + (self.ext.max().y - c.y) * self.scale)
     }
 
+    /// The plan point under a pixel (the inverse of [`PlanFrame::to_px`]).
+    pub fn to_plan(&self, x: f64, y: f64) -> Coord<f64> {
+        Coord { x: self.ext.min().x + (x - self.ox) / self.scale, y: self.ext.max().y - (y - self.oy) / self.scale }
+    }
+
     /// A polygon's rings in pixels.
     pub fn rings(&self, p: &Polygon<f64>) -> Vec<Vec<(f64, f64)>> {
         std::iter::once(p.exterior())
@@ -188,4 +193,22 @@ pub fn site_bounds(model: &SiteModel) -> Option<Rect<f64>> {
     let r = MultiPolygon::new(polys).bounding_rect()?;
     let m = 0.2 * r.width().max(r.height());
     Some(Rect::new(Coord { x: r.min().x - m, y: r.min().y - m }, Coord { x: r.max().x + m, y: r.max().y + m }))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn pixels_map_back_to_the_plan() {
+        let ext = Rect::new(Coord { x: -12.0, y: 3.0 }, Coord { x: 40.0, y: 70.0 });
+        let f = PlanFrame::fit(ext, &[], (24.0, 80.0, 700.0, 560.0));
+        for c in [Coord { x: -12.0, y: 3.0 }, Coord { x: 40.0, y: 70.0 }, Coord { x: 7.25, y: 33.5 }] {
+            let (x, y) = f.to_px(c);
+            let back = f.to_plan(x, y);
+            assert!((back.x - c.x).abs() < 1e-9 && (back.y - c.y).abs() < 1e-9, "{c:?} → {back:?}");
+        }
+        // North up: a larger plan y is higher on the figure.
+        assert!(f.to_px(Coord { x: 0.0, y: 60.0 }).1 < f.to_px(Coord { x: 0.0, y: 10.0 }).1);
+    }
 }

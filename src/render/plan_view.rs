@@ -72,8 +72,8 @@ impl ShadowPlan {
     }
 }
 
-/// Draws `plan` onto `d`.
-pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan) {
+/// Draws `plan` onto `d`; returns where the plan lies in the figure (to map clicks back to the plan).
+pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan) -> PlanFrame {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
@@ -98,4 +98,5 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan) {
     }
     outline_key(d, &plan.outlines, lx, ly + 60.0);
     footnote(d, &plan.caution);
+    frame
 }

@@ -202,12 +202,17 @@ fn shadow_plan(input: JsValue) -> Result<crate::render::ShadowPlan, JsError> {
     Ok(crate::render::ShadowPlan::of_study(&model, &study, &super::stamp(t, &model.zone)))
 }
 
-/// Draws the shadow plan at a moment onto `canvas`.
+/// Draws the shadow plan at a moment onto `canvas`. Returns how figure pixels map to the plan:
+/// `{xAtLeftM, yAtTopM, pxPerM}`: plan x = xAtLeftM + px / pxPerM, plan y = yAtTopM − py / pxPerM, in
+/// the figure's pixels (before any high-DPI scale), metres.
 #[wasm_bindgen(js_name = drawShadowPlan)]
-pub fn draw_shadow_plan_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
+pub fn draw_shadow_plan_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
     let plan = shadow_plan(input)?;
-    crate::render::draw_shadow_plan(&mut Canvas::new(canvas)?, &plan);
-    Ok(())
+    let frame = crate::render::draw_shadow_plan(&mut Canvas::new(canvas)?, &plan);
+    let (o, far) = (frame.to_plan(0.0, 0.0), frame.to_plan(1.0, 1.0));
+    super::write(&serde_json::json!({
+        "xAtLeftM": o.x, "yAtTopM": o.y, "pxPerM": 1.0 / (far.x - o.x),
+    }))
 }
 
 /// The shadow plan as an SVG document, `width` × `height` pixels.
