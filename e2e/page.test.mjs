@@ -75,7 +75,7 @@ check(plan3.hash !== plan2.hash, "changing the date redraws the shadows");
 await page.screenshot({ path: path.join(shots, "index-december-1000.png"), fullPage: true });
 
 // Exports: PNG and SVG files that parse.
-for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]], ["map", ["png", "csv"]]]) {
+for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg", "geojson"]], ["map", ["png", "csv"]]]) {
   for (const kind of kinds) {
     const [dl] = await Promise.all([page.waitForEvent("download"), page.click(`[data-export="${which}-${kind}"]`)]);
     const file = path.join(shots, `${which}.${kind}`);
@@ -86,7 +86,12 @@ for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg"]],
       const lines = text.trim().split("\n");
       return lines[0] === "x_m,y_m,sun_hours" && lines.length > 100 && lines.slice(1).every(l => l.split(",").length === 3 && l.split(",").every(v => Number.isFinite(Number(v))));
     };
-    const ok = kind === "png" ? bytes.subarray(1, 4).toString() === "PNG" : kind === "csv" ? csv_ok() : text.startsWith("<svg");
+    const geojson_ok = () => {
+      const fc = JSON.parse(text);
+      return fc.type === "FeatureCollection" && fc.features.some(f => f.properties.layer === "shadow_union");
+    };
+    const ok = kind === "png" ? bytes.subarray(1, 4).toString() === "PNG" : kind === "csv" ? csv_ok()
+      : kind === "geojson" ? geojson_ok() : text.startsWith("<svg");
     check(ok, `${which} exports a ${kind.toUpperCase()} that parses`);
   }
 }

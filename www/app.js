@@ -92,6 +92,7 @@
       const name = `sunlot-${which}-${state.localTime || "figure"}.${kind}`;
       if (kind === "png") download(name, await el.png());
       else if (kind === "csv") download(name, new Blob([el.csv(module)], { type: "text/csv" }));
+      else if (kind === "geojson") download(name, new Blob([el.geojson(module)], { type: "application/geo+json" }));
       else download(name, new Blob([el.svg(module)], { type: "image/svg+xml" }));
     }));
     $("import").addEventListener("change", async () => {

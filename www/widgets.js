@@ -54,6 +54,7 @@
       this.dispatchEvent(new CustomEvent("sunlot-drawn", { bubbles: true, detail: { localTime: opts.localTime } }));
     }
     svg(module) { return module.shadowPlanSvg(this.opts, 960, 760); }
+    geojson(module) { return module.shadowsGeojson(this.opts); }
   }
 
   class SunlotMap extends SunlotFigure {

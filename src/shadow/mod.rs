@@ -7,6 +7,7 @@
 //! fills with the shadow of its own walls as the sun lowers. Unions are `geo`'s boolean operations.
 
 mod cast;
+mod geojson_out;
 mod ground;
 mod ray;
 mod study;
@@ -15,6 +16,7 @@ mod table;
 pub use cast::{
     cast_shadows, shadow_length_per_m, shadow_offset_per_m, volume_shadow, wall_shadow, ShadowError, Shadows,
 };
+pub use geojson_out::study_geojson;
 pub use ground::{volume_faces_on, volume_levels_m, volume_shadow_on, wall_faces_on, wall_shadow_on, Receiver};
 pub use ray::{exposure, skyline, Exposure, ViewPoint};
 pub use study::{analysis_extent, shadow_study, AreaShade, Study, StudyError, EXTENT_HEIGHTS, MIN_MARGIN_M};

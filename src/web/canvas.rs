@@ -194,12 +194,27 @@ struct PlanIn {
     local_time: String,
 }
 
-fn shadow_plan(input: JsValue) -> Result<crate::render::ShadowPlan, JsError> {
+/// The site, its study at the moment, the moment's label, and whether the site came from GeoJSON.
+fn study_at(input: JsValue) -> Result<(crate::site::SiteModel, crate::shadow::Study, String, bool), JsError> {
     let i: PlanIn = super::read(input, "shadowPlan")?;
-    let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
-    let t = local_instant(&model, &i.local_time)?;
-    let study = crate::shadow::shadow_study(&model, t, crate::time::DeltaT::EspenakMeeus).map_err(super::err)?;
-    Ok(crate::render::ShadowPlan::of_study(&model, &study, &super::stamp(t, &model.zone)))
+    let read = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?;
+    let t = local_instant(&read.model, &i.local_time)?;
+    let study = crate::shadow::shadow_study(&read.model, t, crate::time::DeltaT::EspenakMeeus).map_err(super::err)?;
+    let when = super::stamp(t, &read.model.zone);
+    Ok((read.model, study, when, read.from_geojson))
+}
+
+fn shadow_plan(input: JsValue) -> Result<crate::render::ShadowPlan, JsError> {
+    let (model, study, when, _) = study_at(input)?;
+    Ok(crate::render::ShadowPlan::of_study(&model, &study, &when))
+}
+
+/// The shadows at a moment as GeoJSON text (each feature's shadow, the unions and the areas with
+/// their shaded figures; WGS84 when the site came from GeoJSON, else plan metres).
+#[wasm_bindgen(js_name = shadowsGeojson)]
+pub fn shadows_geojson(input: JsValue) -> Result<String, JsError> {
+    let (model, study, when, wgs84) = study_at(input)?;
+    Ok(crate::shadow::study_geojson(&model, &study, &when, wgs84))
 }
 
 /// Draws the shadow plan at a moment onto `canvas`. Returns how figure pixels map to the plan:

@@ -9,7 +9,7 @@ use wasm_bindgen::prelude::*;
 
 mod canvas;
 mod maps;
-pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, sky_chart_svg, Canvas};
+pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
 pub use maps::{
     check_rule_js, compare_map, draw_map_figure, point_timeline, read_site, solar_envelope_js, sun_hours_map,
 };

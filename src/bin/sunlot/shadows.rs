@@ -4,11 +4,8 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
-use geo::{Coord, MapCoords, MultiPolygon};
-use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
-use serde_json::json;
 use sunlot::shadow::{shadow_study, shadow_table, Study};
-use sunlot::site::{SiteModel, Status};
+use sunlot::site::SiteModel;
 
 use crate::args::{self, input_message, DeltaTArgs, Fold};
 use crate::output::{Cell, Format, Table};
@@ -104,74 +101,20 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
             std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
         }
     }
-    let (sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent) = match study {
-        Study::Sun { sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent } => {
-            (sun, plan_azimuth_deg, per_feature, existing, proposed, combined, areas, clipped, extent)
-        }
+    if a.format == ShadowFormat::Geojson {
+        return Ok(sunlot::shadow::study_geojson(&model, &study, &when, from_geojson));
+    }
+    let (sun, areas, clipped) = match study {
+        Study::Sun { sun, areas, clipped, .. } => (sun, areas, clipped),
         other => {
             let why = if matches!(other, Study::NoSun { .. }) {
                 "the sun is below the horizon: no direct sun, no shadows"
             } else {
                 "the sun is behind the sloping ground: the whole site is in the slope's own shade"
             };
-            return Ok(match a.format {
-                ShadowFormat::Geojson => {
-                    let mut fc = FeatureCollection::new(vec![]);
-                    let mut members = JsonObject::new();
-                    members.insert("sunlot".into(), json!({"time": when, "sun": why}));
-                    fc.foreign_members = Some(members);
-                    serde_json::to_string_pretty(&fc).unwrap_or_default() + "\n"
-                }
-                _ => format!("At {when} at {}, {why}.\n", model.name),
-            });
+            return Ok(format!("At {when} at {}, {why}.\n", model.name));
         }
     };
-    if a.format == ShadowFormat::Geojson {
-        let mut features = Vec::new();
-        let mut add = |geom: GeometryValue, props: serde_json::Value| {
-            let properties: Option<JsonObject> = props.as_object().cloned();
-            features.push(Feature { geometry: Some(Geometry::new(geom)), properties, ..Default::default() });
-        };
-        // Plan metres to the micrometre (the boolean operations leave nanometre noise in the last
-        // digits), or WGS84 degrees for a site that came from GeoJSON.
-        let frame = model.frame();
-        let out = |mp: &MultiPolygon<f64>| {
-            if from_geojson {
-                mp.map_coords(|c| model.plan_to_wgs84(&frame, c))
-            } else {
-                mp.map_coords(|c| Coord { x: (c.x * 1e6).round() / 1e6, y: (c.y * 1e6).round() / 1e6 })
-            }
-        };
-        for (id, status, s) in &per_feature {
-            add(
-                GeometryValue::from(&out(s)),
-                json!({"layer": "feature_shadow", "source": id, "status": status_name(*status)}),
-            );
-        }
-        for (group, s) in [("existing", &existing), ("proposed", &proposed), ("combined", &combined)] {
-            add(GeometryValue::from(&out(s)), json!({"layer": "shadow_union", "group": group}));
-        }
-        for (a, m) in areas.iter().zip(&model.areas) {
-            add(
-                GeometryValue::from(&out(&MultiPolygon::new(vec![m.polygon.clone()]))),
-                json!({"layer": "area", "id": a.id, "name": a.name, "area_m2": a.area_m2,
-                       "shaded_existing_m2": a.existing_m2, "shaded_proposed_m2": a.proposed_m2,
-                       "shaded_combined_m2": a.combined_m2}),
-            );
-        }
-        let mut fc = FeatureCollection::new(features);
-        let mut members = JsonObject::new();
-        members.insert(
-            "sunlot".into(),
-            json!({"coordinates": if from_geojson { "WGS84 longitude, latitude" } else { "local plan metres (x right, y up the plan), not WGS84" },
-                   "plan_rotation_deg": model.plan_rotation_deg, "time": when,
-                   "sun_altitude_deg": sun.altitude_deg, "sun_azimuth_deg": sun.azimuth_deg,
-                   "sun_plan_azimuth_deg": plan_azimuth_deg, "clipped_to_extent": clipped,
-                   "extent_m": [extent.min().x, extent.min().y, extent.max().x, extent.max().y]}),
-        );
-        fc.foreign_members = Some(members);
-        return Ok(serde_json::to_string_pretty(&fc).map_err(|e| e.to_string())? + "\n");
-    }
     let mut t = Table::new(
         format!("Shade on the areas of {} at {when}", model.name),
         vec![
@@ -218,13 +161,6 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
         _ => Format::Table,
     };
     Ok(t.render(format))
-}
-
-fn status_name(s: Status) -> &'static str {
-    match s {
-        Status::Existing => "existing",
-        Status::Proposed => "proposed",
-    }
 }
 
 #[derive(Debug, Args)]
