@@ -53,7 +53,9 @@ proptest! {
         let midday = date.and_hms_opt(12, 0, 0).unwrap().and_utc();
         prop_assert!((ev.transit - midday).num_minutes().abs() < 12 * 60 + 20);
         let len = ev.day_length();
-        prop_assert!(len > Duration::hours(2) && len < Duration::hours(22), "day length {len}");
+        // At 65° the solstice day with refraction and the sun's semidiameter runs a little over 22 h
+        // (common practice; found by this test at 64.99° N: 22 h 01 min), and the winter day about 3 h.
+        prop_assert!(len > Duration::hours(2) && len < Duration::hours(23), "day length {len}");
         // Civil twilight brackets the day.
         if let Crossing::Crosses { rise: dawn, set: dusk } = ev.civil_twilight {
             prop_assert!(dawn < rise && set < dusk);
