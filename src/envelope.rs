@@ -21,7 +21,7 @@ use geo::{BooleanOps, Coord, Line, LineString, MultiPolygon, Polygon};
 use serde::Serialize;
 
 use crate::exposure::{ExposureError, Grid, Period};
-use crate::shadow::{shadow_offset_per_m, Receiver};
+use crate::shadow::Receiver;
 use crate::site::SiteModel;
 use crate::solar::Ephemeris;
 use crate::time::DeltaT;
@@ -167,13 +167,9 @@ pub fn solar_envelope(req: &EnvelopeRequest, mut progress: impl FnMut(f64) -> bo
     let mut eph = Ephemeris::new();
     for date in req.period.dates() {
         for s in req.period.steps_of(model, date, req.delta_t, &mut eph)? {
-            let az = model.plan_azimuth_deg(s.sun.azimuth_deg);
-            let alt = s.sun.altitude_deg.max(crate::exposure::MIN_CAST_ALTITUDE_DEG);
-            let Some(o) = shadow_offset_per_m(az, alt) else { continue };
+            // No offset when the sun is behind the slope: nothing casts a shadow then.
+            let Some(o) = crate::exposure::step_offset(model, &ground, &s) else { continue };
             let f = 1.0 + k.x * o.x + k.y * o.y;
-            if f <= 1e-9 {
-                continue; // the sun is behind the slope: nothing casts a shadow
-            }
             let o = Coord { x: o.x / f, y: o.y / f };
             let len = o.x.hypot(o.y);
             dirs.push((Coord { x: o.x / len, y: o.y / len }, len));

@@ -37,7 +37,8 @@ pub fn map_stats(values: &[Option<f64>], cell_m: f64, threshold: f64) -> Option<
     }
     let n = inside.len();
     let cell_m2 = cell_m * cell_m;
-    // A tolerance of a microsecond-hour keeps cells at exactly the threshold from flickering on sums.
+    // A tolerance of 1e-9 of the map's unit (for hours, about 4 µs) keeps a cell at exactly the
+    // threshold from falling under it by rounding in the sums.
     let hits = inside.iter().filter(|&&v| v >= threshold - 1e-9).count();
     Some(MapStats {
         cells: n,

@@ -21,6 +21,7 @@ pub use period::{Period, Step, Window};
 pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;
 pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};
+pub(crate) use sun_hours::step_offset;
 pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};
 pub use tiles::{massing_near, shadow_halo_m};
 pub use timeline::{day_timeline, Interval, Timeline};

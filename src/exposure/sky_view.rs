@@ -16,7 +16,7 @@ use geo::Coord;
 
 use super::grid::{ExposureError, Grid};
 use super::shade::{Cast, Massing, ShadeSums};
-use crate::shadow::{exposure, shadow_offset_per_m, Exposure, Receiver, ViewPoint};
+use crate::shadow::{shadow_offset_per_m, Exposure, Receiver, ViewPoint};
 use crate::site::SiteModel;
 
 /// Default patch size, degrees.
@@ -86,15 +86,12 @@ pub fn sky_view_map(
 /// # Errors
 /// [`ExposureError`] for a bad step or a non-finite point.
 pub fn sky_view_at(model: &SiteModel, point: ViewPoint, massing: Massing, step_deg: f64) -> Result<f64, ExposureError> {
-    let ground = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
-    let volumes: Vec<_> = model.volumes.iter().filter(|v| massing.includes(v.status)).cloned().collect();
-    let walls: Vec<_> = model.walls.iter().filter(|w| massing.includes(w.status)).cloned().collect();
+    // ΔT plays no part: the patches are directions, not moments.
+    let sky = super::timeline::PointSky::new(model, point, massing, crate::time::DeltaT::EspenakMeeus);
     // Summed as the hidden share, as the map does, so an open point gets exactly 1.
     let mut hidden = 0.0;
     for p in sky_patches(step_deg)? {
-        let e = exposure(point, &volumes, &walls, &ground, p.azimuth_deg, p.altitude_deg)
-            .map_err(|e| ExposureError::Period(e.to_string()))?;
-        if e != Exposure::Sunlit {
+        if sky.toward(p.azimuth_deg, p.altitude_deg)? != Exposure::Sunlit {
             hidden += p.weight;
         }
     }

@@ -256,6 +256,8 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         // breaks the clock-time figure into two.
         let mut pts: Vec<(f64, f64)> = Vec::new();
         let mut offset: Option<i32> = None;
+        // The hour is labelled at the highest point of its figure (the summer-solstice end).
+        let mut best: Option<(f64, f64)> = None;
         let flush = |d: &mut dyn Draw, pts: &mut Vec<(f64, f64)>| {
             for line in polylines(&frame, pts) {
                 d.stroke(&line, 0.8, HOUR, false);
@@ -272,6 +274,9 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             }
             offset = Some(off);
             let (az, alt) = sun(&chart.site, t, dt)?;
+            if alt > 2.0 && best.is_none_or(|b| alt > b.1) {
+                best = Some((az, alt));
+            }
             if alt > 0.0 {
                 pts.push((az, alt));
             } else {
@@ -279,17 +284,6 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             }
         }
         flush(d, &mut pts);
-        // Label the hour at its summer-solstice-side end (the highest point of its figure).
-        let mut best: Option<(f64, f64)> = None;
-        for k in (0..366).step_by(5) {
-            let date = jan1 + Duration::days(k);
-            let Some(time) = NaiveTime::from_hms_opt(hour, 0, 0) else { continue };
-            let Ok(t) = chart.zone.resolve(date.and_time(time), Fold::Earlier) else { continue };
-            let (az, alt) = sun(&chart.site, t, dt)?;
-            if alt > 2.0 && best.is_none_or(|b| alt > b.1) {
-                best = Some((az, alt));
-            }
-        }
         if let Some((az, alt)) = best {
             let (x, y) = frame.at(az, alt);
             d.text(x, y - 6.0, 10.0, &format!("{hour:02}"), HOUR, Anchor::Middle);

@@ -95,6 +95,19 @@ impl MapIn {
     }
 }
 
+impl MapIn {
+    /// The sun-hours request of this input on `model` and `grid`.
+    fn request<'a>(
+        &self,
+        model: &'a SiteModel,
+        grid: &'a Grid,
+        period: Period,
+        massing: Massing,
+    ) -> SunHoursRequest<'a> {
+        SunHoursRequest { model, grid, period, plane_m: self.plane_m, delta_t: DeltaT::EspenakMeeus, massing }
+    }
+}
+
 /// A grid's geometry for the page.
 #[derive(Serialize)]
 #[serde(rename_all = "camelCase")]
@@ -145,14 +158,7 @@ fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -> bool + '_
 pub fn sun_hours_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "sunHoursMap")?;
     let (model, grid, period, massing) = i.parts()?;
-    let req = SunHoursRequest {
-        model: &model,
-        grid: &grid,
-        period,
-        plane_m: i.plane_m,
-        delta_t: DeltaT::EspenakMeeus,
-        massing,
-    };
+    let req = i.request(&model, &grid, period, massing);
     let map = sun_hours(&req, progress(&on_progress)).map_err(err)?;
     #[derive(Serialize)]
     #[serde(rename_all = "camelCase")]
@@ -171,14 +177,7 @@ pub fn sun_hours_map(input: JsValue, on_progress: Option<js_sys::Function>) -> R
 pub fn compare_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "compareMap")?;
     let (model, grid, period, _) = i.parts()?;
-    let req = SunHoursRequest {
-        model: &model,
-        grid: &grid,
-        period,
-        plane_m: i.plane_m,
-        delta_t: DeltaT::EspenakMeeus,
-        massing: Massing::WithProposed,
-    };
+    let req = i.request(&model, &grid, period, Massing::WithProposed);
     let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
     let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours}))?;
     set(&out, "before", &array(&ba.before.hours))?;
@@ -351,14 +350,7 @@ struct FigureIn {
 pub fn draw_map_figure(canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
     let i: FigureIn = read(input, "drawMapFigure")?;
     let (model, grid, period, massing) = i.map.parts()?;
-    let req = SunHoursRequest {
-        model: &model,
-        grid: &grid,
-        period,
-        plane_m: i.map.plane_m,
-        delta_t: DeltaT::EspenakMeeus,
-        massing,
-    };
+    let req = i.map.request(&model, &grid, period, massing);
     let describe = format!(
         "{}{}, {}, {}-minute steps",
         i.map.date,

@@ -1,7 +1,7 @@
 //! `sunlot hours`: hours of direct sun per cell over a site's areas.
 
 use clap::Args;
-use sunlot::exposure::{map_stats, sun_hours, Grid, Massing, SunHoursRequest};
+use sunlot::exposure::{map_stats, sun_hours, Grid, SunHoursRequest};
 use sunlot::rules::CAUTION;
 use sunlot::site::SiteModel;
 
@@ -34,9 +34,13 @@ pub struct HoursArgs {
     pub format: Format,
 }
 
+/// The largest threshold accepted, hours: ten leap years of round-the-clock sun, a bound no real
+/// period reaches (a sanity cap on typing errors, not a rule of the trade).
+const MAX_MIN_HOURS: f64 = 24.0 * 366.0 * 10.0;
+
 /// Checks a threshold in hours.
 pub fn check_min_hours(h: f64) -> Result<(), String> {
-    if h.is_finite() && (0.0..=24.0 * 366.0 * 10.0).contains(&h) {
+    if h.is_finite() && (0.0..=MAX_MIN_HOURS).contains(&h) {
         Ok(())
     } else {
         Err(format!("--min-hours must be 0 or more, got {h}"))
@@ -73,7 +77,7 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
     let loaded = a.site.load()?;
     let model = &loaded.model;
     let grid = a.grid.grid(model)?;
-    let massing = if a.existing_only { Massing::Existing } else { Massing::WithProposed };
+    let massing = maps::massing(a.existing_only);
     let req = SunHoursRequest {
         model,
         grid: &grid,

@@ -1,7 +1,7 @@
 //! `sunlot insolation`: clear-sky energy per cell (beam in direct sun plus diffuse by sky view).
 
 use clap::Args;
-use sunlot::exposure::{insolation, map_stats, InsolationRequest, Massing, DEFAULT_SKY_STEP_DEG};
+use sunlot::exposure::{insolation, map_stats, InsolationRequest, DEFAULT_SKY_STEP_DEG};
 use sunlot::rules::CAUTION;
 
 use crate::args::{AirArgs, ClearSkyArgs, DeltaTArgs};
@@ -41,7 +41,7 @@ pub fn run(a: &InsolationArgs) -> Result<String, String> {
     let loaded = a.site.load()?;
     let model = &loaded.model;
     let grid = a.grid.grid(model)?;
-    let massing = if a.existing_only { Massing::Existing } else { Massing::WithProposed };
+    let massing = maps::massing(a.existing_only);
     let req = InsolationRequest {
         model,
         grid: &grid,

@@ -14,6 +14,16 @@ use sunlot::site::SiteModel;
 use crate::args;
 use crate::shadows::Loaded;
 
+/// The massing a command's `--existing-only` flag asks for.
+pub fn massing(existing_only: bool) -> sunlot::exposure::Massing {
+    use sunlot::exposure::Massing;
+    if existing_only {
+        Massing::Existing
+    } else {
+        Massing::WithProposed
+    }
+}
+
 /// Dates, daily window and step.
 #[derive(Debug, Args)]
 pub struct PeriodArgs {

@@ -4,7 +4,6 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
-use sunlot::exposure::Massing;
 use sunlot::render::{draw_sky_chart, monthly_dates, Pixmap, Projection, SkyChart, Svg};
 
 use crate::args::{self, DeltaTArgs};
@@ -78,10 +77,7 @@ pub fn run(a: &SkyArgs) -> Result<String, String> {
         None => None,
     };
     let from = match &a.at {
-        Some(at) => {
-            let massing = if a.existing_only { Massing::Existing } else { Massing::WithProposed };
-            Some((parse_point(at)?, massing))
-        }
+        Some(at) => Some((parse_point(at)?, crate::maps::massing(a.existing_only))),
         None => None,
     };
     let projection = match a.projection {

@@ -1,7 +1,7 @@
 //! `sunlot timeline` and `sunlot year`: a point's day of sun and shade, and its months.
 
 use clap::Args;
-use sunlot::exposure::{day_timeline, year_profile, Massing};
+use sunlot::exposure::{day_timeline, year_profile};
 
 use crate::args::{self, AirArgs, ClearSkyArgs, DeltaTArgs};
 use crate::output::{Cell, Format, Table};
@@ -29,19 +29,12 @@ pub struct TimelineArgs {
     pub format: Format,
 }
 
-fn massing(existing_only: bool) -> Massing {
-    if existing_only {
-        Massing::Existing
-    } else {
-        Massing::WithProposed
-    }
-}
-
 pub fn run_timeline(a: &TimelineArgs) -> Result<String, String> {
     let model = a.site.load()?.model;
     let p = parse_point(&a.at)?;
     let date = args::date(&a.date, "--date")?;
-    let t = day_timeline(&model, p, date, massing(a.existing_only), a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
+    let t = day_timeline(&model, p, date, crate::maps::massing(a.existing_only), a.delta_t.delta_t()?)
+        .map_err(|e| e.to_string())?;
     let mut out = Table::new(
         format!("Sun and shade at ({}, {}, {} m) on {date}", p.x_m, p.y_m, p.z_m),
         vec!["from", "to", "hours", "state", "shaded_by"],
@@ -98,9 +91,16 @@ pub fn run_year(a: &YearArgs) -> Result<String, String> {
     let year = a.year.unwrap_or_else(|| chrono::Datelike::year(&chrono::Utc::now()));
     let atm = a.sky.bird(a.air.pressure_hpa)?;
     let mut bar = Bar::new("year profile", a.quiet);
-    let y = year_profile(&model, p, year, a.step_min, massing(a.existing_only), &atm, a.delta_t.delta_t()?, |f| {
-        bar.update(f)
-    })
+    let y = year_profile(
+        &model,
+        p,
+        year,
+        a.step_min,
+        crate::maps::massing(a.existing_only),
+        &atm,
+        a.delta_t.delta_t()?,
+        |f| bar.update(f),
+    )
     .map_err(|e| e.to_string())?;
     drop(bar);
     let mut t = Table::new(
