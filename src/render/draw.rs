@@ -19,6 +19,17 @@ impl Colour {
         Colour { r, g, b, a: 255 }
     }
 
+    /// An opaque colour from CSS hex `#rrggbb` (or `#rgb`); `None` for anything else.
+    pub fn from_hex(text: &str) -> Option<Self> {
+        let h = text.trim().strip_prefix('#')?;
+        let digit = |i: usize, n: usize| u8::from_str_radix(h.get(i..i + n)?, 16).ok();
+        match h.len() {
+            6 => Some(Colour::rgb(digit(0, 2)?, digit(2, 2)?, digit(4, 2)?)),
+            3 => Some(Colour::rgb(digit(0, 1)? * 17, digit(1, 1)? * 17, digit(2, 1)? * 17)),
+            _ => None,
+        }
+    }
+
     /// `#rrggbb`, or `rgba(…)` when not opaque (SVG and CSS).
     pub fn css(&self) -> String {
         if self.a == 255 {
@@ -88,6 +99,8 @@ pub trait Draw {
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor);
     /// Draws `image` scaled into the rectangle at (`x`, `y`), `width` × `height`, without smoothing.
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image);
+    /// Limits what is drawn next to the rectangle `(x, y, width, height)`; `None` lifts the limit.
+    fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>);
     /// Fills a rectangle.
     fn fill_rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: Colour) {
         self.fill_polygon(&[vec![(x, y), (x + w, y), (x + w, y + h), (x, y + h)]], fill);

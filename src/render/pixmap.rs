@@ -16,6 +16,8 @@ pub struct Pixmap {
     rgba: Vec<u8>,
     /// The pixels as a grid of unit cells (y down), for the rasteriser.
     lattice: Grid,
+    /// The clip rectangle: left, top, right, bottom, pixels.
+    clip: Option<(f64, f64, f64, f64)>,
 }
 
 /// PNG bytes of an RGBA image.
@@ -45,7 +47,7 @@ impl Pixmap {
             rows: h as usize,
             inside: Vec::new(),
         };
-        Pixmap { width: w, height: h, rgba: vec![255; (w * h * 4) as usize], lattice }
+        Pixmap { width: w, height: h, rgba: vec![255; (w * h * 4) as usize], lattice, clip: None }
     }
 
     /// The pixels, RGBA row-major from the top.
@@ -61,6 +63,12 @@ impl Pixmap {
     fn blend(&mut self, x: usize, y: usize, c: Colour) {
         if x >= self.width as usize || y >= self.height as usize {
             return;
+        }
+        if let Some((x0, y0, x1, y1)) = self.clip {
+            let (fx, fy) = (x as f64 + 0.5, y as f64 + 0.5);
+            if fx < x0 || fx >= x1 || fy < y0 || fy >= y1 {
+                return;
+            }
         }
         let i = (y * self.width as usize + x) * 4;
         let a = u32::from(c.a);
@@ -145,6 +153,10 @@ impl Draw for Pixmap {
                 }
             }
         }
+    }
+
+    fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
+        self.clip = rect.map(|(x, y, w, h)| (x, y, x + w, y + h));
     }
 
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {

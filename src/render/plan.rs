@@ -81,6 +81,21 @@ impl PlanFrame {
         PlanFrame { ext, scale, ox, oy, bx, by, bw, bh }
     }
 
+    /// A view of the plan: the point `centre` (plan metres) at the middle of the box and `width_m`
+    /// metres across it (pan and zoom). Widths are kept between 1 mm and 100 km.
+    pub fn view(centre: Coord<f64>, width_m: f64, (bx, by, bw, bh): (f64, f64, f64, f64)) -> Self {
+        let width_m = if width_m.is_finite() { width_m.clamp(1e-3, 1e5) } else { 100.0 };
+        let scale = bw / width_m;
+        let (hw, hh) = (bw / scale / 2.0, bh / scale / 2.0);
+        let ext = Rect::new(Coord { x: centre.x - hw, y: centre.y - hh }, Coord { x: centre.x + hw, y: centre.y + hh });
+        PlanFrame { ext, scale, ox: bx, oy: by, bx, by, bw, bh }
+    }
+
+    /// The box as `(x, y, width, height)`, pixels.
+    pub fn bounds_px(&self) -> (f64, f64, f64, f64) {
+        (self.bx, self.by, self.bw, self.bh)
+    }
+
     /// Pixel position of a plan point.
     pub fn to_px(&self, c: Coord<f64>) -> (f64, f64) {
         (self.ox + (c.x - self.ext.min().x) * self.scale, self.oy + (self.ext.max().y - c.y) * self.scale)
@@ -210,5 +225,15 @@ mod tests {
         }
         // North up: a larger plan y is higher on the figure.
         assert!(f.to_px(Coord { x: 0.0, y: 60.0 }).1 < f.to_px(Coord { x: 0.0, y: 10.0 }).1);
+    }
+
+    #[test]
+    fn a_view_puts_its_centre_mid_box_at_its_width() {
+        let f = PlanFrame::view(Coord { x: 10.0, y: 20.0 }, 50.0, (24.0, 80.0, 700.0, 560.0));
+        let (x, y) = f.to_px(Coord { x: 10.0, y: 20.0 });
+        assert!((x - 374.0).abs() < 1e-9 && (y - 360.0).abs() < 1e-9, "{x} {y}");
+        assert!((f.scale - 14.0).abs() < 1e-12);
+        let left = f.to_plan(24.0, 360.0);
+        assert!((left.x - -15.0).abs() < 1e-9);
     }
 }

@@ -12,6 +12,9 @@ pub struct Svg {
     width: u32,
     height: u32,
     body: String,
+    /// Clip paths made so far, and whether a clipped group is open.
+    clips: usize,
+    clipped: bool,
 }
 
 fn esc(s: &str) -> String {
@@ -32,15 +35,16 @@ fn path(points: &[(f64, f64)], closed: bool) -> String {
 impl Svg {
     /// A blank document.
     pub fn new(width: u32, height: u32) -> Self {
-        Svg { width, height, body: String::new() }
+        Svg { width, height, body: String::new(), clips: 0, clipped: false }
     }
 
     /// The document.
     pub fn finish(&self) -> String {
         format!(
             "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" \
-             font-family=\"monospace\">\n{}</svg>\n",
+             font-family=\"monospace\">\n{}{}</svg>\n",
             self.body,
+            if self.clipped { "</g>\n" } else { "" },
             w = self.width,
             h = self.height
         )
@@ -78,6 +82,23 @@ impl Draw for Svg {
             colour.css(),
             esc(text)
         );
+    }
+
+    fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
+        if self.clipped {
+            self.body.push_str("</g>\n");
+            self.clipped = false;
+        }
+        if let Some((x, y, w, h)) = rect {
+            self.clips += 1;
+            let _ = writeln!(
+                self.body,
+                "<clipPath id=\"clip{n}\"><rect x=\"{x:.2}\" y=\"{y:.2}\" width=\"{w:.2}\" height=\"{h:.2}\"/></clipPath>\n\
+                 <g clip-path=\"url(#clip{n})\">",
+                n = self.clips
+            );
+            self.clipped = true;
+        }
     }
 
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {

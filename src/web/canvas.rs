@@ -12,11 +12,16 @@ pub struct Canvas {
     ctx: CanvasRenderingContext2d,
     width: u32,
     height: u32,
+    /// Whether a clip is in force (saved on the context's stack).
+    clipped: bool,
+    /// The CSS font family of text (the canvas's `data-font`, else monospace).
+    font: String,
 }
 
 impl Canvas {
     /// The canvas's 2-D context. A canvas with a `data-scale` attribute (the device pixel ratio, set
-    /// by the widgets for crisp high-DPI drawing) is drawn in its size divided by that scale.
+    /// by the widgets for crisp high-DPI drawing) is drawn in its size divided by that scale; its
+    /// `data-font` attribute (a CSS font family, from the page's `--sunlot-font`) sets the text font.
     ///
     /// # Errors
     /// A `JsError` when the canvas has no 2-D context.
@@ -33,8 +38,12 @@ impl Canvas {
             .filter(|s| s.is_finite() && (0.25..=8.0).contains(s))
             .unwrap_or(1.0);
         let _ = ctx.set_transform(scale, 0.0, 0.0, scale, 0.0, 0.0);
+        let font = canvas
+            .get_attribute("data-font")
+            .filter(|f| !f.is_empty() && f.len() < 200 && !f.contains(';'))
+            .unwrap_or_else(|| "monospace".into());
         let size = |px: u32| (f64::from(px) / scale).round() as u32;
-        Ok(Canvas { ctx, width: size(canvas.width()), height: size(canvas.height()) })
+        Ok(Canvas { ctx, width: size(canvas.width()), height: size(canvas.height()), clipped: false, font })
     }
 
     fn path(&self, points: &[(f64, f64)], closed: bool) {
@@ -75,7 +84,7 @@ impl Draw for Canvas {
     }
 
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
-        self.ctx.set_font(&format!("{size_px}px monospace"));
+        self.ctx.set_font(&format!("{size_px}px {}", self.font));
         self.ctx.set_text_align(match anchor {
             Anchor::Start => "start",
             Anchor::Middle => "center",
@@ -83,6 +92,20 @@ impl Draw for Canvas {
         });
         self.ctx.set_fill_style_str(&colour.css());
         let _ = self.ctx.fill_text(text, x, y);
+    }
+
+    fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
+        if self.clipped {
+            self.ctx.restore();
+            self.clipped = false;
+        }
+        if let Some((x, y, w, h)) = rect {
+            self.ctx.save();
+            self.ctx.begin_path();
+            self.ctx.rect(x, y, w, h);
+            self.ctx.clip();
+            self.clipped = true;
+        }
     }
 
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
