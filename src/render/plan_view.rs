@@ -168,11 +168,11 @@ mod tests {
         };
         // Just inside the box's corners: the layer (under shade or outlines, never paper); just
         // outside the box (left margin, under the box): paper.
-        for (x, y) in [(30, 90), (716, 90), (30, 672), (716, 672)] {
+        for (x, y) in [(30, 90), (716, 90), (30, 634), (716, 634)] {
             assert_ne!(at(x, y), [255, 255, 255], "({x}, {y})");
         }
         assert_eq!(at(10, 300), [255, 255, 255]);
-        assert_eq!(at(300, 700), [255, 255, 255]);
+        assert_eq!(at(300, 650), [255, 255, 255]);
     }
 
     #[test]
