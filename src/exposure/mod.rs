@@ -3,6 +3,7 @@
 //! and the periods they run over.
 
 mod compare;
+mod geojson_out;
 mod grid;
 mod insolation;
 mod period;
@@ -15,6 +16,7 @@ mod timeline;
 mod year_profile;
 
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
+pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};
 pub use period::{Period, Step, Window};

@@ -1,14 +1,16 @@
 //! The site model: massing volumes and walls in a local plan frame (x east, y north, metres, heights
-//! above local ground), the lots and areas, and sunlot's site file.
+//! above local ground), the lots and areas, sunlot's site file, and the placing of a scanned plan under it.
 
 mod file;
 mod frame;
 mod geojson_io;
 mod massing;
 mod terrain;
+mod underlay;
 
 pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SITE_FILE_VERSION};
 pub use frame::LocalFrame;
 pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};
 pub use massing::{SiteError, Status, Volume, Wall};
 pub use terrain::Ground;
+pub use underlay::{Placement, UnderlayError};

@@ -5,7 +5,8 @@ use wasm_bindgen::prelude::*;
 use wasm_bindgen::{Clamped, JsCast};
 use web_sys::{CanvasRenderingContext2d, CanvasWindingRule, HtmlCanvasElement, ImageData};
 
-use crate::render::{Anchor, Colour, Draw, Image};
+use super::layer::PlanLayer;
+use crate::render::{Anchor, Colour, Draw, Image, Restyle};
 
 /// A 2-D canvas context as a drawing surface.
 pub struct Canvas {
@@ -145,9 +146,12 @@ struct SkyIn {
     massing: Option<String>,
     /// "stereographic" (default), "equidistant" or "rectangular".
     projection: Option<String>,
+    /// Page colours.
+    #[serde(default)]
+    palette: super::layer::PaletteIn,
 }
 
-fn sky_chart(input: JsValue) -> Result<crate::render::SkyChart, JsError> {
+fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::Palette), JsError> {
     use crate::exposure::Massing;
     use crate::render::{Projection, SkyChart};
     let i: SkyIn = super::read(input, "skyChart")?;
@@ -181,23 +185,26 @@ fn sky_chart(input: JsValue) -> Result<crate::render::SkyChart, JsError> {
             return Err(JsError::new(&format!("projection: {p:?} is not stereographic, equidistant or rectangular")))
         }
     };
-    SkyChart::for_site(&model, i.year, dates, now, from, projection, crate::time::DeltaT::EspenakMeeus)
-        .map_err(|e| JsError::new(&format!("xM: {e}")))
+    let palette = i.palette.palette()?;
+    let chart = SkyChart::for_site(&model, i.year, dates, now, from, projection, crate::time::DeltaT::EspenakMeeus)
+        .map_err(|e| JsError::new(&format!("xM: {e}")))?;
+    Ok((chart, palette))
 }
 
 /// Draws the sun-path diagram onto `canvas` (sized by the page).
 #[wasm_bindgen(js_name = drawSkyChart)]
 pub fn draw_sky_chart_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
-    let chart = sky_chart(input)?;
-    crate::render::draw_sky_chart(&mut Canvas::new(canvas)?, &chart).map_err(super::err)
+    let (chart, palette) = sky_chart(input)?;
+    let mut surface = Canvas::new(canvas)?;
+    crate::render::draw_sky_chart(&mut Restyle { inner: &mut surface, palette }, &chart).map_err(super::err)
 }
 
 /// The sun-path diagram as an SVG document, `width` × `height` pixels: the same drawing as the canvas.
 #[wasm_bindgen(js_name = skyChartSvg)]
 pub fn sky_chart_svg(input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
-    let chart = sky_chart(input)?;
+    let (chart, palette) = sky_chart(input)?;
     let mut svg = crate::render::Svg::new(width, height);
-    crate::render::draw_sky_chart(&mut svg, &chart).map_err(super::err)?;
+    crate::render::draw_sky_chart(&mut Restyle { inner: &mut svg, palette }, &chart).map_err(super::err)?;
     Ok(svg.finish())
 }
 
@@ -215,49 +222,101 @@ struct PlanIn {
     site: String,
     /// Local wall time `YYYY-MM-DDTHH:MM` in the site's zone.
     local_time: String,
+    /// Pan and zoom: the plan point at the middle of the plan and the metres across it (default:
+    /// the whole site).
+    view: Option<ViewIn>,
+    /// Page colours.
+    #[serde(default)]
+    palette: super::layer::PaletteIn,
 }
 
-/// The site, its study at the moment, the moment's label, and whether the site came from GeoJSON.
-fn study_at(input: JsValue) -> Result<(crate::site::SiteModel, crate::shadow::Study, String, bool), JsError> {
+#[derive(serde::Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct ViewIn {
+    x_m: f64,
+    y_m: f64,
+    width_m: f64,
+}
+
+/// What a plan call draws: the study of the site at the moment, how, and in which colours.
+struct PlanJob {
+    model: crate::site::SiteModel,
+    study: crate::shadow::Study,
+    when: String,
+    wgs84: bool,
+    view: Option<(geo::Coord<f64>, f64)>,
+    palette: crate::render::Palette,
+}
+
+fn plan_job(input: JsValue) -> Result<PlanJob, JsError> {
     let i: PlanIn = super::read(input, "shadowPlan")?;
     let read = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?;
     let t = local_instant(&read.model, &i.local_time)?;
     let study = crate::shadow::shadow_study(&read.model, t, crate::time::DeltaT::EspenakMeeus).map_err(super::err)?;
     let when = super::stamp(t, &read.model.zone);
-    Ok((read.model, study, when, read.from_geojson))
+    let view = match i.view {
+        Some(v) if [v.x_m, v.y_m, v.width_m].iter().all(|x| x.is_finite()) && v.width_m > 0.0 => {
+            Some((geo::Coord { x: v.x_m, y: v.y_m }, v.width_m))
+        }
+        Some(v) => {
+            return Err(JsError::new(&format!(
+                "view: ({}, {}) across {} m is not a plan point and a positive width",
+                v.x_m, v.y_m, v.width_m
+            )))
+        }
+        None => None,
+    };
+    Ok(PlanJob { model: read.model, study, when, wgs84: read.from_geojson, view, palette: i.palette.palette()? })
 }
 
-fn shadow_plan(input: JsValue) -> Result<crate::render::ShadowPlan, JsError> {
-    let (model, study, when, _) = study_at(input)?;
-    Ok(crate::render::ShadowPlan::of_study(&model, &study, &when))
+impl PlanJob {
+    fn draw(&self, d: &mut dyn crate::render::Draw, layer: Option<&PlanLayer>) -> crate::render::PlanFrame {
+        let plan = crate::render::ShadowPlan::of_study(&self.model, &self.study, &self.when);
+        let extras = crate::render::PlanExtras { layer: layer.map(PlanLayer::parts), view: self.view };
+        crate::render::draw_shadow_plan(&mut Restyle { inner: d, palette: self.palette }, &plan, &extras)
+    }
 }
 
 /// The shadows at a moment as GeoJSON text (each feature's shadow, the unions and the areas with
 /// their shaded figures; WGS84 when the site came from GeoJSON, else plan metres).
 #[wasm_bindgen(js_name = shadowsGeojson)]
 pub fn shadows_geojson(input: JsValue) -> Result<String, JsError> {
-    let (model, study, when, wgs84) = study_at(input)?;
-    Ok(crate::shadow::study_geojson(&model, &study, &when, wgs84))
+    let j = plan_job(input)?;
+    Ok(crate::shadow::study_geojson(&j.model, &j.study, &j.when, j.wgs84))
 }
 
-/// Draws the shadow plan at a moment onto `canvas`. Returns how figure pixels map to the plan:
-/// `{xAtLeftM, yAtTopM, pxPerM}`: plan x = xAtLeftM + px / pxPerM, plan y = yAtTopM − py / pxPerM, in
-/// the figure's pixels (before any high-DPI scale), metres.
+/// Draws the shadow plan at a moment onto `canvas` (with a map under the shadows:
+/// [`PlanLayer::draw_plan`]). Returns how figure pixels map to the plan: `{xAtLeftM, yAtTopM, pxPerM, box}`:
+/// plan x = xAtLeftM + px / pxPerM, plan y = yAtTopM − py / pxPerM, in the figure's pixels (before
+/// any high-DPI scale), metres; `box` = `[x, y, width, height]` is the plan's box in those pixels.
 #[wasm_bindgen(js_name = drawShadowPlan)]
 pub fn draw_shadow_plan_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
-    let plan = shadow_plan(input)?;
-    let frame = crate::render::draw_shadow_plan(&mut Canvas::new(canvas)?, &plan);
+    draw_plan(canvas, input, None)
+}
+
+pub(crate) fn draw_plan(
+    canvas: &HtmlCanvasElement,
+    input: JsValue,
+    layer: Option<&PlanLayer>,
+) -> Result<JsValue, JsError> {
+    let j = plan_job(input)?;
+    let frame = j.draw(&mut Canvas::new(canvas)?, layer);
     let (o, far) = (frame.to_plan(0.0, 0.0), frame.to_plan(1.0, 1.0));
+    let (bx, by, bw, bh) = frame.bounds_px();
     super::write(&serde_json::json!({
-        "xAtLeftM": o.x, "yAtTopM": o.y, "pxPerM": 1.0 / (far.x - o.x),
+        "xAtLeftM": o.x, "yAtTopM": o.y, "pxPerM": 1.0 / (far.x - o.x), "box": [bx, by, bw, bh],
     }))
 }
 
 /// The shadow plan as an SVG document, `width` × `height` pixels.
 #[wasm_bindgen(js_name = shadowPlanSvg)]
 pub fn shadow_plan_svg(input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
-    let plan = shadow_plan(input)?;
+    plan_svg(input, width, height, None)
+}
+
+pub(crate) fn plan_svg(input: JsValue, width: u32, height: u32, layer: Option<&PlanLayer>) -> Result<String, JsError> {
+    let j = plan_job(input)?;
     let mut svg = crate::render::Svg::new(width, height);
-    crate::render::draw_shadow_plan(&mut svg, &plan);
+    j.draw(&mut svg, layer);
     Ok(svg.finish())
 }

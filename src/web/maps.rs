@@ -189,6 +189,51 @@ pub fn compare_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Res
 
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct InsolationIn {
+    #[serde(flatten)]
+    map: MapIn,
+    /// Aerosol optical depth at 500 nm of the Bird clear sky (default 0.1).
+    aod500: Option<f64>,
+    /// Sky patch size for the sky-view factor, degrees (default 5).
+    sky_step_deg: Option<f64>,
+}
+
+/// Clear-sky insolation on a horizontal plane per cell (Bird clear sky, beam while in direct sun
+/// plus diffuse times the sky-view factor): `{grid, totalKwhM2, beamKwhM2, diffuseKwhM2, skyView,
+/// sunHours, open: {totalKwhM2, beamKwhM2, diffuseKwhM2, sunHours}}`, maps as Float64Arrays.
+#[wasm_bindgen(js_name = insolationMap)]
+pub fn insolation_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+    let i: InsolationIn = read(input, "insolationMap")?;
+    let (model, grid, period, massing) = i.map.parts()?;
+    let mut atmosphere = crate::sky::BirdAtmosphere::default();
+    if let Some(a) = i.aod500 {
+        atmosphere.aod_500 = a;
+    }
+    let req = crate::exposure::InsolationRequest {
+        model: &model,
+        grid: &grid,
+        period,
+        plane_m: i.map.plane_m,
+        delta_t: DeltaT::EspenakMeeus,
+        massing,
+        atmosphere,
+        sky_step_deg: i.sky_step_deg.unwrap_or(crate::exposure::DEFAULT_SKY_STEP_DEG),
+    };
+    let m = crate::exposure::insolation(&req, progress(&on_progress)).map_err(err)?;
+    let o = m.open;
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "open": {
+        "totalKwhM2": o.total_kwh_m2, "beamKwhM2": o.beam_kwh_m2, "diffuseKwhM2": o.diffuse_kwh_m2,
+        "sunHours": o.sun_hours}}))?;
+    set(&out, "totalKwhM2", &array(&m.total_kwh_m2))?;
+    set(&out, "beamKwhM2", &array(&m.beam_kwh_m2))?;
+    set(&out, "diffuseKwhM2", &array(&m.diffuse_kwh_m2))?;
+    set(&out, "skyView", &array(&m.sky_view))?;
+    set(&out, "sunHours", &array(&m.sun_hours))?;
+    Ok(out)
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
 struct CheckIn {
     site: String,
     /// A preset id (default: the BRE BR 209 amenity preset) …
@@ -342,6 +387,9 @@ struct FigureIn {
     /// "hours" (default: hours of direct sun with the chosen massing) or "lost" (hours lost to the
     /// proposal).
     show: Option<String>,
+    /// Page colours.
+    #[serde(default)]
+    palette: super::layer::PaletteIn,
 }
 
 /// Computes a one-period map and draws its heat-map figure onto `canvas` (the drawing code of the PNG
@@ -382,7 +430,9 @@ pub fn draw_map_figure(canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> R
         plan_rotation_deg: model.plan_rotation_deg,
         caution: crate::rules::CAUTION.into(),
     };
-    crate::render::draw_heat_map(&mut super::Canvas::new(canvas)?, &map);
+    let mut surface = super::Canvas::new(canvas)?;
+    let palette = i.palette.palette()?;
+    crate::render::draw_heat_map(&mut crate::render::Restyle { inner: &mut surface, palette }, &map);
     write(&serde_json::json!({"grid": grid_out(&grid), "openHours": open}))
 }
 

@@ -8,10 +8,13 @@ use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
 mod canvas;
+mod layer;
 mod maps;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
+pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
-    check_rule_js, compare_map, draw_map_figure, point_timeline, read_site, solar_envelope_js, sun_hours_map,
+    check_rule_js, compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js,
+    sun_hours_map,
 };
 
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};

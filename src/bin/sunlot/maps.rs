@@ -4,9 +4,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 use geo::{MultiPolygon, Polygon};
-use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
-use serde_json::json;
-use sunlot::exposure::{Grid, Period, Window, DEFAULT_MAX_CELLS};
+use sunlot::exposure::{map_geojson, Grid, MapColumn, Period, Window, DEFAULT_MAX_CELLS};
 use sunlot::render::{draw_heat_map, HeatMap, Pixmap, Svg, FIGURE_PX};
 use sunlot::rules::CAUTION;
 use sunlot::site::SiteModel;
@@ -179,39 +177,9 @@ pub fn write_files(
         notes.push(format!("cells written to {} (CSV)", path.display()));
     }
     if let Some(path) = &files.geojson {
-        let frame = model.frame();
-        let mut features = Vec::new();
-        for row in 0..grid.rows {
-            for col in 0..grid.cols {
-                let i = row * grid.cols + col;
-                if !grid.inside[i] {
-                    continue;
-                }
-                let sq = sunlot::envelope::cell_footprint(grid, col, row);
-                let sq = if loaded.from_geojson { model.polygon_to_wgs84(&frame, &sq) } else { sq };
-                let mut props = JsonObject::new();
-                for l in layers {
-                    props.insert(
-                        l.name.into(),
-                        l.values[i].map_or(serde_json::Value::Null, |v| json!((v * 1e4).round() / 1e4)),
-                    );
-                }
-                features.push(Feature {
-                    geometry: Some(Geometry::new(GeometryValue::from(&sq))),
-                    properties: Some(props),
-                    ..Default::default()
-                });
-            }
-        }
-        let mut fc = FeatureCollection::new(features);
-        let mut members = JsonObject::new();
-        members.insert(
-            "sunlot".into(),
-            json!({"map": picture.title, "period": picture.subtitle, "cell_m": grid.cell_m,
-                   "crs": if loaded.from_geojson { "WGS84" } else { "site plan metres" }, "caution": CAUTION}),
-        );
-        fc.foreign_members = Some(members);
-        write(path, serde_json::to_string(&fc).unwrap_or_default().as_bytes())?;
+        let columns: Vec<MapColumn> = layers.iter().map(|l| MapColumn { name: l.name, values: l.values }).collect();
+        let text = map_geojson(model, grid, &columns, (&picture.title, &picture.subtitle), loaded.from_geojson);
+        write(path, text.as_bytes())?;
         notes.push(format!("cells written to {} (GeoJSON)", path.display()));
     }
     if files.png.is_some() || files.svg.is_some() {

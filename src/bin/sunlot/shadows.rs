@@ -88,7 +88,7 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
     let study = shadow_study(&model, t, a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
     let when = args::rfc3339(t, &zone);
     if a.png.is_some() || a.svg.is_some() {
-        use sunlot::render::{draw_shadow_plan, PlanExtras, Pixmap, ShadowPlan, Svg, FIGURE_PX};
+        use sunlot::render::{draw_shadow_plan, Pixmap, PlanExtras, ShadowPlan, Svg, FIGURE_PX};
         let plan = ShadowPlan::of_study(&model, &study, &when);
         if let Some(path) = &a.png {
             let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
