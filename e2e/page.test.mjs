@@ -1,10 +1,12 @@
 // End to end: www/index.html opened from disk (file://) in Debian's headless Chromium with every
 // request to anything but a local file blocked. Checks that both widgets draw (pixels, not just a
-// canvas), that changing the time moves the shadows, that the exports produce files that parse,
-// that a bad input shows an error, and that there are no console errors. Screenshots go to
+// canvas), that changing the time moves the shadows, map layers, pan and zoom, keyboard, editing with
+// undo and redo, drawing a volume, an underlay, the worker's annual map with cancel, that the exports
+// produce files that parse (and the SVG renders like the canvas), import errors, restore on reload,
+// print, an embedding page, high-DPI, no network and no console errors. Screenshots go to
 // target/e2e/ as test artefacts. Run: node e2e/page.test.mjs (after ./dev wasm).
 import { chromium } from "playwright-core";
-import { mkdirSync, readFileSync } from "node:fs";
+import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import path from "node:path";
 
@@ -39,7 +41,9 @@ await page.goto(page_url);
 await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
 const ready_ms = Date.now() - t0;
 check(await page.evaluate(() => document.body.dataset.ready) === "yes", "the module starts from file://");
-console.log(`     first drawing of the widgets ${ready_ms} ms after navigation`);
+const timing = await page.evaluate(() => ({ nav: performance.getEntriesByType("navigation")[0].startTime,
+  now: performance.now(), draw: window.sunlotFirstDrawMs }));
+console.log(`     both widgets drawn ${ready_ms} ms after navigation (drawing ${timing.draw.toFixed(0)} ms)`);
 
 // Ink and a fingerprint of a canvas's pixels.
 const pixels = sel => page.evaluate(sel => {
@@ -52,16 +56,36 @@ const pixels = sel => page.evaluate(sel => {
   }
   return { ink, hash };
 }, sel);
+// Polls until a canvas's pixels differ from `before` (a fingerprint), or times out.
+async function changed(sel, before, timeout = 20000) {
+  const end = Date.now() + timeout;
+  let now = await pixels(sel);
+  while (now.hash === before.hash && Date.now() < end) { await page.waitForTimeout(50); now = await pixels(sel); }
+  return now;
+}
+const mapDone = () => page.waitForFunction(() => /cells, mean/.test(document.querySelector("#map-status").textContent),
+  null, { timeout: 120000 });
+
 const sky = await pixels("#sky canvas");
 const plan = await pixels("#plan canvas");
 check(sky.ink > 20000, `the sky widget draws (${sky.ink} inked pixels)`);
 check(plan.ink > 20000, `the plan widget draws (${plan.ink} inked pixels)`);
-const map = await pixels("#map canvas");
-check(map.ink > 20000, `the map widget draws (${map.ink} inked pixels)`);
+await mapDone();
+const map = await changed("#map canvas", { hash: -1 });
+check(map.ink > 20000, `the map widget draws (${map.ink} inked pixels): ${await page.textContent("#map-status")}`);
 await page.selectOption("#layer", "lost");
-const lost = await pixels("#map canvas");
+const lost = await changed("#map canvas", map);
 check(lost.hash !== map.hash, "switching the map to hours lost redraws it");
-await page.selectOption("#layer", "hours");
+await page.selectOption("#layer", "insolation");
+const insol = await changed("#map canvas", lost);
+check(insol.hash !== lost.hash && /kWh/.test(await page.textContent("#map-status")), "the insolation map draws in kWh/m²");
+await page.selectOption("#layer", "sun-hours");
+await changed("#map canvas", insol);
+await page.check("#on-plan");
+const layered = await changed("#plan canvas", plan);
+check(layered.ink > plan.ink * 1.2, `the map draws under the plan's shadows (${plan.ink} → ${layered.ink} inked pixels)`);
+await page.uncheck("#on-plan");
+await changed("#plan canvas", layered);
 check((await page.textContent("#summary")).includes("h of direct sun"), "the text summary is written");
 await page.screenshot({ path: path.join(shots, "index-1500.png"), fullPage: true });
 
@@ -72,10 +96,18 @@ check(plan2.hash !== plan.hash, "changing the time redraws the shadows");
 await page.$eval("#date", el => { el.value = "2026-12-21"; el.dispatchEvent(new Event("change")); });
 const plan3 = await pixels("#plan canvas");
 check(plan3.hash !== plan2.hash, "changing the date redraws the shadows");
+await mapDone();
 await page.screenshot({ path: path.join(shots, "index-december-1000.png"), fullPage: true });
 
-// Exports: PNG and SVG files that parse.
-for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg", "geojson"]], ["map", ["png", "csv"]]]) {
+// Keyboard: ] on the focused plan steps the time by 15 minutes and the page's slider follows.
+await page.focus("#plan canvas");
+await page.keyboard.press("]");
+check(await page.textContent("#time-label") === "10:15", `] on the plan steps the time (${await page.textContent("#time-label")})`);
+await page.keyboard.press("[");
+
+// Exports: files that parse.
+for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg", "geojson"]],
+                              ["map", ["png", "svg", "csv", "geojson"]]]) {
   for (const kind of kinds) {
     const [dl] = await Promise.all([page.waitForEvent("download"), page.click(`[data-export="${which}-${kind}"]`)]);
     const file = path.join(shots, `${which}.${kind}`);
@@ -88,13 +120,41 @@ for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg", "
     };
     const geojson_ok = () => {
       const fc = JSON.parse(text);
-      return fc.type === "FeatureCollection" && fc.features.some(f => f.properties.layer === "shadow_union");
+      if (fc.type !== "FeatureCollection") return false;
+      return which === "plan" ? fc.features.some(f => f.properties.layer === "shadow_union")
+        : fc.features.length > 100 && fc.features.every(f => f.geometry.type === "Polygon" && Number.isFinite(f.properties.sun_hours));
     };
     const ok = kind === "png" ? bytes.subarray(1, 4).toString() === "PNG" : kind === "csv" ? csv_ok()
       : kind === "geojson" ? geojson_ok() : text.startsWith("<svg");
     check(ok, `${which} exports a ${kind.toUpperCase()} that parses`);
   }
 }
+
+// The SVG is the same drawing as the canvas: rendered back into pixels, it matches the widget.
+const svg_vs_canvas = await page.evaluate(async () => {
+  const el = document.querySelector("#plan");
+  const img = new Image();
+  img.src = URL.createObjectURL(new Blob([el.svg()], { type: "image/svg+xml" }));
+  await img.decode();
+  const c = document.createElement("canvas");
+  c.width = 960; c.height = 760;
+  const ctx = c.getContext("2d");
+  ctx.drawImage(img, 0, 0);
+  const a = ctx.getImageData(0, 0, 960, 760).data;
+  const d = document.createElement("canvas");
+  d.width = 960; d.height = 760;
+  d.getContext("2d").drawImage(el.canvas, 0, 0, 960, 760);
+  const b = d.getContext("2d").getImageData(0, 0, 960, 760).data;
+  let diff = 0, far = 0;
+  for (let i = 0; i < a.length; i += 4) {
+    const e = Math.abs(a[i] - b[i]) + Math.abs(a[i + 1] - b[i + 1]) + Math.abs(a[i + 2] - b[i + 2]);
+    diff += e;
+    if (e > 120) far++;
+  }
+  return { mean: diff / (a.length / 4) / 3, far: far / (a.length / 4) };
+});
+check(svg_vs_canvas.mean < 3 && svg_vs_canvas.far < 0.01,
+  `the plan's SVG renders like its canvas (mean difference ${svg_vs_canvas.mean.toFixed(2)}/255, ${(100 * svg_vs_canvas.far).toFixed(2)}% of pixels far apart)`);
 
 // Animation: frames of the shadow plan; the median frame time must allow 30 frames a second.
 await page.click("#play");
@@ -105,32 +165,130 @@ const median = frames[Math.floor(frames.length / 2)];
 console.log(`     animation: ${frames.length} frames in 1.5 s, median draw ${median.toFixed(1)} ms`);
 check(frames.length >= 30 && median < 33, "the day's animation runs at 30 frames a second or more");
 
-// The year's map in a worker: progress moves, the page stays responsive, the result arrives; a second
-// run is cancelled.
+// The year's map in a worker: progress moves, the page stays responsive, the result arrives; the
+// envelope run after it is cancelled.
 const t_year = Date.now();
-await page.click("#year-run");
-await page.waitForFunction(() => Number(document.querySelector("#year-progress").value) > 0, null, { timeout: 60000 });
+const map_before_year = await pixels("#map canvas");
+await page.selectOption("#layer", "year-hours");
+await page.waitForFunction(() => Number(document.querySelector("#map-progress").value) > 0, null, { timeout: 60000 });
 await page.$eval("#time", el => { el.value = "780"; el.dispatchEvent(new Event("input")); });
 const during = await pixels("#plan canvas");
 check(during.hash !== plan3.hash, "the plan redraws while the year's map runs in the worker");
-await page.waitForFunction(() => /mean \d+ h/.test(document.querySelector("#year-result").textContent), null, { timeout: 120000 });
-console.log(`     the year's map (1 m cells, 15-min steps) took ${Date.now() - t_year} ms in the browser`);
-check(true, `the year's map finishes: ${await page.textContent("#year-result")}`);
+await page.waitForFunction(() => /over the year: \d+ cells/.test(document.querySelector("#map-status").textContent), null, { timeout: 120000 });
+console.log(`     the year's map (1 m cells, 15-min steps) took ${Date.now() - t_year} ms in the browser ` +
+  `(${(await page.evaluate(() => window.sunlotLastMapMs)).toFixed(0)} ms in the worker)`);
+check((await changed("#map canvas", map_before_year)).ink > 20000, `the year's map is drawn: ${await page.textContent("#map-status")}`);
 await page.screenshot({ path: path.join(shots, "index-year.png"), fullPage: true });
-await page.click("#year-run");
-await page.click("#year-cancel"); // at once: the worker is still starting, so the run cannot finish first
-await page.waitForFunction(() => document.querySelector("#year-result").textContent === "cancelled", null, { timeout: 10000 });
-check(await page.isHidden("#year-progress"), "a cancelled run says so and hides its progress bar");
+await page.selectOption("#layer", "envelope");
+await page.click("#map-cancel"); // at once: the worker is still starting, so the run cannot finish first
+await page.waitForFunction(() => document.querySelector("#map-status").textContent === "cancelled", null, { timeout: 10000 });
+check(await page.isHidden("#map-progress"), "a cancelled run says so and hides its progress bar");
+await page.selectOption("#layer", "sun-hours");
+await mapDone();
+
+// Pan and zoom: the wheel zooms about the cursor, arrows pan, 0 fits the whole site again.
+// Figure pixels → page pixels, measured again before each use (clicks elsewhere scroll the page).
+let box;
+const measure = async () => {
+  await page.$eval("#plan canvas", c => c.scrollIntoView({ block: "center" }));
+  box = await page.$eval("#plan canvas", c => { const r = c.getBoundingClientRect(); return { x: r.left, y: r.top, w: r.width, h: r.height }; });
+};
+const fx = x => box.x + x * box.w / 960, fy = y => box.y + y * box.h / 760;
+await measure();
+const unzoomed = await pixels("#plan canvas");
+const fitted_width = await page.evaluate(() => document.querySelector("#plan").currentView().widthM);
+await page.mouse.move(fx(370), fy(420));
+for (let k = 0; k < 3; k++) { await page.mouse.wheel(0, -120); await page.waitForTimeout(50); }
+const zoomed = await changed("#plan canvas", unzoomed);
+const view = await page.evaluate(() => document.querySelector("#plan").view);
+check(view && view.widthM < fitted_width / 1.9,
+  `the wheel zooms the plan (${fitted_width.toFixed(1)} → ${view && view.widthM.toFixed(1)} m across)`);
+await page.focus("#plan canvas");
+await page.keyboard.press("ArrowLeft");
+check((await changed("#plan canvas", zoomed)).hash !== zoomed.hash, "an arrow key pans the zoomed plan");
+await page.keyboard.press("0");
+check(await page.evaluate(() => document.querySelector("#plan").view === null), "0 fits the whole site again");
+await page.screenshot({ path: path.join(shots, "index-zoomed.png") });
 
 // A click on the plan picks the point whose sky view and day of sun and shade are shown.
 const sky_before = await pixels("#sky canvas");
-const box = await page.$eval("#plan canvas", c => { const r = c.getBoundingClientRect(); return { x: r.left, y: r.top, w: r.width, h: r.height }; });
+await measure();
 await page.mouse.click(box.x + box.w * 0.5, box.y + box.h * 0.45);
 const picked = await page.inputValue("#point");
 check(picked !== "14,41,1.5" && picked.split(",").length === 3, `clicking the plan picks a point (${picked})`);
 check((await pixels("#sky canvas")).hash !== sky_before.hash, "the sky widget shows the picked point's skyline");
 check(/(sun|shade) \d\d:\d\d–\d\d:\d\d/.test(await page.textContent("#summary")), "the summary lists its sun and shade intervals");
 await page.$eval("#point", el => { el.value = "14,41,1.5"; el.dispatchEvent(new Event("change")); });
+
+// Editing: select the proposal, raise it, undo and redo; draw a new volume and see its shadow; move
+// a vertex; delete the new volume.
+const toFig = (x, y) => page.evaluate(([x, y]) => document.querySelector("#plan").toPx(x, y), [x, y]);
+const site_now = () => page.evaluate(() => JSON.parse(localStorage.getItem("sunlot.site") || "null"));
+const proposal = (await page.evaluate(() => JSON.parse(document.querySelector("#plan").state.site)))
+  .volumes.find(v => v.status === "proposed");
+const inner = proposal.outline.reduce((a, p) => [a[0] + p[0] / proposal.outline.length, a[1] + p[1] / proposal.outline.length], [0, 0]);
+await measure();
+let [px, py] = await toFig(inner[0], inner[1]);
+await page.mouse.click(fx(px), fy(py));
+check(!(await page.isHidden("#feature")) && (await page.inputValue("#f-id")).length > 0,
+  `clicking a volume selects it (${await page.inputValue("#f-id")})`);
+const before_raise = await pixels("#plan canvas");
+await page.fill("#f-top", "30");
+await page.click("#feature button[type=submit]");
+const raised = await changed("#plan canvas", before_raise);
+check(raised.ink > before_raise.ink, "raising the selected volume lengthens its shadow");
+check(!(await page.isDisabled("#undo")), "the edit can be undone");
+await page.click("#undo");
+check((await changed("#plan canvas", raised)).hash === before_raise.hash, "undo restores the plan");
+await page.click("#redo");
+check((await changed("#plan canvas", before_raise)).hash === raised.hash, "redo repeats the edit");
+await page.click("#undo");
+await changed("#plan canvas", raised);
+
+const before_draw = await pixels("#plan canvas");
+await page.click("#draw-volume");
+await measure();
+for (const [x, y] of [[-30, 45], [-20, 45], [-20, 55], [-30, 55]]) {
+  [px, py] = await toFig(x, y);
+  await page.mouse.click(fx(px), fy(py));
+}
+await page.keyboard.press("Enter");
+const drawn = await changed("#plan canvas", before_draw);
+const saved = await site_now();
+const added = saved && saved.volumes.find(v => v.id === "volume-1");
+check(added && added.outline.length === 4 && Math.abs(added.outline[0][0] + 30) < 0.5,
+  `drawing a volume adds it to the site (${added && JSON.stringify(added.outline)})`);
+check(drawn.ink > before_draw.ink + 2000, `the new volume casts a shadow (${before_draw.ink} → ${drawn.ink} inked pixels)`);
+await page.screenshot({ path: path.join(shots, "index-drawn.png") });
+await measure();
+[px, py] = await toFig(-20, 55);
+await page.mouse.move(fx(px), fy(py));
+await page.mouse.down();
+const [qx, qy] = await toFig(-14, 60);
+await page.mouse.move(fx(qx), fy(qy), { steps: 5 });
+await page.mouse.up();
+const moved = (await site_now()).volumes.find(v => v.id === "volume-1");
+check(moved && moved.outline.some(p => Math.abs(p[0] + 14) < 0.6 && Math.abs(p[1] - 60) < 0.6),
+  `dragging a vertex moves it (${moved && JSON.stringify(moved.outline)})`);
+await page.click("#f-delete");
+check(!(await site_now()).volumes.some(v => v.id === "volume-1"), "the drawn volume can be deleted");
+
+// A site-plan image under the plan, placed by two reference points.
+const before_under = await pixels("#plan canvas");
+await page.click(".underlay summary");
+await page.setInputFiles("#u-file", path.join(shots, "map.png"));
+await page.waitForFunction(() => /click A/.test(document.querySelector("#u-status").textContent));
+await page.$eval("#u-preview", c => c.scrollIntoView({ block: "center" }));
+const ub = await page.$eval("#u-preview", c => { const r = c.getBoundingClientRect(); return { x: r.left, y: r.top }; });
+await page.mouse.click(ub.x + 60, ub.y + 200);
+await page.mouse.click(ub.x + 300, ub.y + 200);
+await page.fill("#u-distance", "40");
+await page.fill("#u-plan-a", "-10,10");
+await page.click("#u-place");
+check((await changed("#plan canvas", before_under)).hash !== before_under.hash && await page.isHidden("#error"),
+  "a site-plan image is placed under the plan by two reference points");
+await page.screenshot({ path: path.join(shots, "index-underlay.png") });
+await page.click("#u-remove");
 
 // Bad input: an error message, and the page keeps working.
 await page.$eval("#point", el => { el.value = "14,41"; el.dispatchEvent(new Event("change")); });
@@ -163,7 +321,43 @@ const [dl] = await Promise.all([page.waitForEvent("download"), page.click("#expo
 await dl.saveAs(path.join(shots, "site.sunlot.json"));
 check(JSON.parse(readFileSync(path.join(shots, "site.sunlot.json"), "utf8")).name === good.name, "the site file saves and parses");
 await page.click("#reset-demo");
-check((await page.textContent("#site-name")) === name_before, "the demo site comes back");
+await page.waitForFunction(n => document.querySelector("#site-name").textContent === n, name_before, { timeout: 10000 });
+check(true, "the demo site comes back");
+
+// Print: the one-page sheet hides the controls and keeps the figures and the caution.
+await page.emulateMedia({ media: "print" });
+check(await page.isHidden("#controls") && await page.isVisible("#plan canvas") && await page.isVisible(".caution"),
+  "the print sheet shows the figures and the caution without the controls");
+await page.screenshot({ path: path.join(shots, "index-print.png"), fullPage: true });
+await page.emulateMedia({ media: "screen" });
+
+// Embedding: a page of its own with one script tag for the module, the widgets, attributes and CSS
+// custom properties; the paper colour reaches the figure.
+const embed = path.join(shots, "embed.html");
+writeFileSync(embed, `<!doctype html><html><head><meta charset="utf-8">
+<style>sunlot-plan { --sunlot-paper: #fdf6e3; --sunlot-ink: #073642; width: 640px; display: block; }</style></head><body>
+<sunlot-plan id="p" date="2026-06-21" time="09:00" layer="sun-hours"><script type="application/json">${
+  readFileSync(path.join(root, "demo-site", "hollin-vale.site.json"), "utf8")}</script></sunlot-plan>
+<sunlot-sky id="s" date="2026-06-21" time="09:00" point="14,41,1.5" projection="rectangular"></sunlot-sky>
+<script src="${pathToFileURL(path.join(root, "www", "build", "sunlot.bundle.js")).href}"></script>
+<script src="${pathToFileURL(path.join(root, "www", "widgets.js")).href}"></script>
+<script>document.addEventListener("sunlot-layer", () => { document.body.dataset.layer = "yes"; });
+document.querySelector("#p").addEventListener("sunlot-drawn", () => {
+  document.querySelector("#s").setSite(document.querySelector("#p").state.site); }, { once: true });</script>
+</body></html>`);
+const page3 = await context.newPage();
+page3.on("pageerror", e => errors.push(String(e)));
+await page3.goto(pathToFileURL(embed).href);
+await page3.waitForFunction(() => document.body.dataset.layer === "yes", null, { timeout: 30000 });
+const corner = await page3.evaluate(() => {
+  const c = document.querySelector("#p canvas");
+  return Array.from(c.getContext("2d").getImageData(2, 2, 1, 1).data.slice(0, 3));
+});
+check(corner.join(",") === "253,246,227", `an embedded plan draws on the page's --sunlot-paper (${corner})`);
+await page3.waitForFunction(() => document.querySelector("#s canvas").getAttribute("aria-label"), null, { timeout: 10000 });
+check(true, "an embedded sky widget draws from its attributes");
+await page3.screenshot({ path: path.join(shots, "embed.png"), fullPage: true });
+await page3.close();
 
 // High-DPI: at a device pixel ratio of 2 the canvases carry twice the pixels each way, fully drawn.
 const hidpi = await browser.newContext({ deviceScaleFactor: 2, viewport: { width: 1400, height: 1000 } });

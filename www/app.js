@@ -1,9 +1,11 @@
-// The demo page: the invented demo site's sun path and shadows, with date and time controls and
-// exports. Classic script: works from file:// with no server and no network.
+// The demo page: the invented demo site's sun path, shadows and maps, with date and time controls,
+// editing, a site-plan underlay and exports. Classic script: works from file:// with no server and no
+// network. The widgets (widgets.js) do the drawing; this file wires the page's controls to them.
 (function () {
   "use strict";
   const $ = id => document.getElementById(id);
   const pad = n => String(n).padStart(2, "0");
+  const STORE = "sunlot.site";
 
   function download(name, blob) {
     const a = document.createElement("a");
@@ -13,116 +15,278 @@
     a.click();
     a.remove();
   }
+  function showError(e) {
+    $("error").hidden = false;
+    $("error").textContent = String(e && e.message ? e.message : e);
+  }
+  const hideError = () => { $("error").hidden = true; };
 
-  const STORE = "sunlot.site";
+  window.sunlot.then(async module => {
+    const plan = $("plan"), sky = $("sky"), mapEl = $("map");
+    await Promise.all([plan, sky, mapEl].map(el => el.ready));
 
-  window.sunlot.then(module => {
     // The site: restored from the browser's storage when a valid one was saved, else the demo.
     let site = module.demoSiteText();
-    let info = module.readSite(site);
     try {
       const saved = localStorage.getItem(STORE);
-      if (saved) { info = module.readSite(saved); site = info.siteJson; }
+      if (saved) site = module.readSite(saved).siteJson;
     } catch (e) { /* a saved site that no longer reads: keep the demo */ }
-    const state = {};
-    const useSite = (text, source) => {
-      const next = module.readSite(text); // throws, naming the feature, before anything changes
+    let info = module.readSite(site);
+
+    const moment = () => {
+      const minutes = Number($("time").value);
+      return { date: $("date").value, time: `${pad(Math.floor(minutes / 60))}:${pad(minutes % 60)}` };
+    };
+    const point = () => {
+      const v = $("point").value.split(",").map(s => Number(s.trim()));
+      if (v.length !== 3 || v.some(x => !Number.isFinite(x)) || v[2] < 0) {
+        throw new Error(`Sky from: "${$("point").value}" is not x, y, height in metres (e.g. 14,41,1.5)`);
+      }
+      return v;
+    };
+
+    /** Makes `text` the page's site (throws, naming the feature, before anything changes). */
+    async function useSite(text, source) {
+      const next = module.readSite(text);
       site = next.siteJson;
       info = next;
       try { localStorage.setItem(STORE, site); } catch (e) { /* storage full or off: the page still works */ }
-      state.mapKey = null;
       $("site-name").textContent = `${info.name}${source ? ` (from ${source})` : ""}`;
-    };
-    $("site-name").textContent = info.name;
+      await Promise.all([plan.setSite(site), sky.setSite(site), mapEl.setSite(site)]);
+      refreshMap();
+    }
 
-    function showError(e) {
-      $("error").hidden = false;
-      $("error").textContent = String(e && e.message ? e.message : e);
+    function summary() {
+      const { date } = moment();
+      const [xM, yM, zM] = point();
+      const day = module.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date, zone: info.zone });
+      const line = module.pointTimeline({ site, xM, yM, zM, date });
+      const spans = line.intervals.map(i =>
+        `${i.sunlit ? "sun" : "shade"} ${i.from.slice(11, 16)}–${i.to.slice(11, 16)}${i.by ? ` (${i.by})` : ""}`);
+      $("summary").textContent =
+        `${date}: sunrise ${(day.sunrise || "—").slice(11, 16)}, sunset ${(day.sunset || "—").slice(11, 16)}; ` +
+        `the point (${xM}, ${yM}, ${zM} m) gets ${line.sunHours.toFixed(2)} h of direct sun of ` +
+        `${line.dayHours.toFixed(2)} h: ${spans.join(", ") || "no sun"}.`;
     }
 
     function redraw() {
-      $("error").hidden = true;
-      const date = $("date").value;
-      const minutes = Number($("time").value);
-      const time = `${pad(Math.floor(minutes / 60))}:${pad(minutes % 60)}`;
+      hideError();
+      const { date, time } = moment();
       $("time-label").textContent = time;
-      const localTime = `${date}T${time}`;
-      const point = $("point").value.split(",").map(s => Number(s.trim()));
-      if (point.length !== 3 || point.some(v => !Number.isFinite(v)) || point[2] < 0) {
-        showError(`Sky from: "${$("point").value}" is not x, y, height in metres (e.g. 14,41,1.5)`);
-        return;
-      }
-      const [xM, yM, zM] = point;
       try {
-        $("plan").draw(module, { site, localTime });
-        $("sky").draw(module, { site, year: Number(date.slice(0, 4)), localTime, xM, yM, zM });
-        const day = module.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date,
-          zone: info.zone });
-        const line = module.pointTimeline({ site, xM, yM, zM, date });
-        const spans = line.intervals.map(i =>
-          `${i.sunlit ? "sun" : "shade"} ${i.from.slice(11, 16)}–${i.to.slice(11, 16)}${i.by ? ` (${i.by})` : ""}`);
-        $("summary").textContent =
-          `${date}: sunrise ${(day.sunrise || "—").slice(11, 16)}, sunset ${(day.sunset || "—").slice(11, 16)}; ` +
-          `the point (${xM}, ${yM}, ${zM} m) gets ${line.sunHours.toFixed(2)} h of direct sun of ` +
-          `${line.dayHours.toFixed(2)} h: ${spans.join(", ") || "no sun"}.`;
-        if (state.mapKey !== `${date}/${$("layer").value}`) {
-          state.mapKey = `${date}/${$("layer").value}`;
-          $("map").draw(module, { site, date, show: $("layer").value, cellM: 0.5, stepMin: 5 });
-        }
-        state.localTime = localTime;
-      } catch (e) {
-        showError(e);
-      }
+        const [xM, yM, zM] = point();
+        sky.point = { xM, yM, zM };
+        sky.projection = $("projection").value;
+        plan.setMoment(date, time);
+        sky.setMoment(date, time);
+        summary();
+      } catch (e) { showError(e); }
     }
 
-    // A click on the plan moves the point whose sky and day are shown.
-    $("plan").addEventListener("sunlot-point", e => {
+    // ---- maps: computed in a worker with progress and cancel, shown in the map widget and, if
+    // asked, under the plan's shadows -------------------------------------------------------------
+    let job = null, mapKey = null;
+    function refreshMap(force) {
+      const kind = $("layer").value, { date } = moment();
+      const yearly = kind === "year-hours";
+      const key = `${kind}/${yearly ? date.slice(0, 4) : date}/${site.length}/${site}`;
+      if (!force && key === mapKey) return;
+      mapKey = key;
+      if (job) job.cancel();
+      $("map-progress").hidden = false;
+      $("map-progress").value = 0;
+      $("map-cancel").hidden = false;
+      $("map-status").textContent = "computing…";
+      const t0 = performance.now();
+      const mine = window.sunlotComputeMap(module, kind, site, date, f => { $("map-progress").value = f; });
+      job = mine;
+      mine.promise.then(map => {
+        const ms = performance.now() - t0;
+        window.sunlotLastMapMs = ms;
+        mapEl.setMap(map);
+        plan.setMap($("on-plan").checked ? map : null);
+        const v = Array.from(map.values).filter(Number.isFinite);
+        const mean = v.reduce((a, b) => a + b, 0) / Math.max(v.length, 1);
+        const least = v.reduce((a, b) => Math.min(a, b), Infinity);
+        $("map-status").textContent = `${map.spec.title}: ${v.length} cells, mean ${mean.toFixed(2)} ${map.spec.unit}, ` +
+          `least ${least.toFixed(2)} ${map.spec.unit} (${(ms / 1000).toFixed(2)} s).`;
+      }).catch(e => {
+        if (mapKey === key) mapKey = null;
+        $("map-status").textContent = e.message === "cancelled" ? "cancelled" : "";
+        if (e.message !== "cancelled") showError(`map: ${e.message}`);
+      }).finally(() => {
+        if (job !== mine) return;
+        job = null;
+        $("map-progress").hidden = true;
+        $("map-cancel").hidden = true;
+      });
+    }
+    $("map-cancel").addEventListener("click", () => { if (job) job.cancel(); });
+    $("layer").addEventListener("change", () => refreshMap());
+    $("on-plan").addEventListener("change", () => plan.setMap($("on-plan").checked ? mapEl.map || null : null));
+
+    // ---- controls -------------------------------------------------------------------------------
+    for (const id of ["date", "time", "point", "projection"]) {
+      $(id).addEventListener("input", redraw);
+      $(id).addEventListener("change", redraw);
+    }
+    $("date").addEventListener("change", () => refreshMap());
+    $("fit").addEventListener("click", () => plan.fit());
+
+    // A click on the plan moves the point whose sky and day are shown; keys on the plan step the time.
+    plan.addEventListener("sunlot-point", e => {
       const z = ($("point").value.split(",")[2] || "1.5").trim();
       $("point").value = `${e.detail.xM.toFixed(1)},${e.detail.yM.toFixed(1)},${z}`;
       redraw();
     });
+    plan.addEventListener("sunlot-time", e => {
+      $("time").value = String(Number(e.detail.time.slice(0, 2)) * 60 + Number(e.detail.time.slice(3, 5)));
+      redraw();
+    });
+    for (const el of [plan, sky, mapEl]) el.addEventListener("sunlot-error", e => showError(e.detail.message));
 
-    for (const id of ["date", "time", "point", "layer"]) {
-      $(id).addEventListener("input", redraw);
-      $(id).addEventListener("change", redraw);
-    }
     document.querySelectorAll("[data-export]").forEach(b => b.addEventListener("click", async () => {
       const [which, kind] = b.dataset.export.split("-");
       const el = $(which);
-      const name = `sunlot-${which}-${state.localTime || "figure"}.${kind}`;
-      if (kind === "png") download(name, await el.png());
-      else if (kind === "csv") download(name, new Blob([el.csv(module)], { type: "text/csv" }));
-      else if (kind === "geojson") download(name, new Blob([el.geojson(module)], { type: "application/geo+json" }));
-      else download(name, new Blob([el.svg(module)], { type: "image/svg+xml" }));
+      const { date, time } = moment();
+      const name = `sunlot-${which}-${date}T${time.replace(":", "")}.${kind}`;
+      try {
+        if (kind === "png") download(name, await el.png());
+        else if (kind === "csv") download(name, new Blob([el.csv()], { type: "text/csv" }));
+        else if (kind === "geojson") {
+          const text = which === "plan" ? el.shadowsGeojson() : el.geojson();
+          download(name, new Blob([text], { type: "application/geo+json" }));
+        } else download(name, new Blob([el.svg()], { type: "image/svg+xml" }));
+      } catch (e) { showError(`export: ${e.message}`); }
     }));
+
     $("import").addEventListener("change", async () => {
       const file = $("import").files[0];
       if (!file) return;
       try {
-        useSite(await file.text(), file.name);
+        await useSite(await file.text(), file.name);
+        plan.history = []; plan.future = [];
         redraw();
       } catch (e) {
         showError(`${file.name}: ${e.message} — the current site is unchanged.`);
       }
       $("import").value = "";
+      updateEditButtons();
     });
-    $("reset-demo").addEventListener("click", () => { useSite(module.demoSiteText(), ""); redraw(); });
+    $("reset-demo").addEventListener("click", async () => { await useSite(module.demoSiteText(), ""); redraw(); });
     $("export-site").addEventListener("click", () =>
       download("site.sunlot.json", new Blob([site], { type: "application/json" })));
 
-    // Animation: the shadows through the day, 5 minutes a frame; the sky chart follows when it stops.
+    // ---- editing --------------------------------------------------------------------------------
+    const updateEditButtons = () => { $("undo").disabled = !plan.canUndo; $("redo").disabled = !plan.canRedo; };
+    const setEditable = () => plan.toggleAttribute("editable", $("edit-on").checked);
+    $("edit-on").addEventListener("change", setEditable);
+    setEditable();
+    $("draw-volume").addEventListener("click", () => { plan.startDrawing("volumes"); plan.canvas.focus(); });
+    $("draw-area").addEventListener("click", () => { plan.startDrawing("areas"); plan.canvas.focus(); });
+    $("undo").addEventListener("click", () => plan.undo());
+    $("redo").addEventListener("click", () => plan.redo());
+    plan.addEventListener("sunlot-edit", async e => {
+      site = e.detail.site;
+      info = module.readSite(site);
+      try { localStorage.setItem(STORE, site); } catch (err) { /* the page still works */ }
+      await Promise.all([sky.setSite(site), mapEl.setSite(site)]);
+      showFeature();
+      updateEditButtons();
+      try { summary(); } catch (err) { showError(err); }
+      refreshMap();
+    });
+    function showFeature() {
+      const f = plan.feature();
+      $("feature").hidden = !f;
+      if (!f) return;
+      const volume = plan.selected.kind === "volumes";
+      $("feature-title").textContent = volume ? "Volume" : "Area";
+      document.querySelectorAll(".volume-only").forEach(el => { el.hidden = !volume; });
+      document.querySelectorAll(".area-only").forEach(el => { el.hidden = volume; });
+      $("f-id").value = f.id;
+      $("f-status").value = f.status || "existing";
+      if (volume) { $("f-base").value = f.base_m ?? 0; $("f-top").value = f.top_m; } else {
+        $("f-name").value = f.name || "";
+        $("f-kind").value = f.kind || "other";
+      }
+    }
+    plan.addEventListener("sunlot-select", showFeature);
+    $("feature").addEventListener("submit", e => {
+      e.preventDefault();
+      hideError();
+      const volume = plan.selected && plan.selected.kind === "volumes";
+      const fields = { id: $("f-id").value.trim(), status: $("f-status").value };
+      if (volume) { fields.base_m = Number($("f-base").value); fields.top_m = Number($("f-top").value); } else {
+        fields.name = $("f-name").value;
+        fields.kind = $("f-kind").value;
+      }
+      plan.setFields(fields);
+    });
+    $("f-delete").addEventListener("click", () => { plan.vertex = -1; plan.deleteSelected(); showFeature(); });
+
+    // ---- underlay -------------------------------------------------------------------------------
+    const under = { image: null, a: null, b: null, scale: 1 };
+    function drawPreview() {
+      const c = $("u-preview"), ctx = c.getContext("2d");
+      ctx.clearRect(0, 0, c.width, c.height);
+      if (!under.image) return;
+      under.scale = Math.min(c.width / under.image.width, c.height / under.image.height);
+      ctx.drawImage(under.image, 0, 0, under.image.width * under.scale, under.image.height * under.scale);
+      for (const [p, label] of [[under.a, "A"], [under.b, "B"]]) {
+        if (!p) continue;
+        const [x, y] = [p[0] * under.scale, p[1] * under.scale];
+        ctx.strokeStyle = "#0a5fd0"; ctx.lineWidth = 2;
+        ctx.beginPath(); ctx.arc(x, y, 6, 0, 2 * Math.PI); ctx.stroke();
+        ctx.fillStyle = "#0a5fd0"; ctx.font = "14px sans-serif"; ctx.fillText(label, x + 8, y - 8);
+      }
+    }
+    $("u-file").addEventListener("change", () => {
+      const file = $("u-file").files[0];
+      if (!file) return;
+      const img = new Image();
+      img.onload = () => { under.image = img; under.a = under.b = null; drawPreview(); $("u-status").textContent = "click A on the image"; };
+      img.onerror = () => showError(`${file.name}: not an image the browser can read`);
+      img.src = URL.createObjectURL(file);
+    });
+    $("u-preview").addEventListener("click", e => {
+      if (!under.image) return;
+      const r = e.target.getBoundingClientRect();
+      const px = [(e.clientX - r.left) * (e.target.width / r.width) / under.scale,
+        (e.clientY - r.top) * (e.target.height / r.height) / under.scale];
+      if (!under.a || under.b) { under.a = px; under.b = null; $("u-status").textContent = "now click B"; } else {
+        under.b = px; $("u-status").textContent = "A and B set: place it";
+      }
+      drawPreview();
+    });
+    $("u-place").addEventListener("click", () => {
+      hideError();
+      try {
+        if (!under.image || !under.a || !under.b) throw new Error("open an image and click A and B on it first");
+        const planA = $("u-plan-a").value.split(",").map(s => Number(s.trim()));
+        const bearing = $("u-bearing").value.trim();
+        const placement = module.underlayPlacement({ imageA: under.a, imageB: under.b, planA,
+          distanceM: Number($("u-distance").value), ...(bearing === "" ? {} : { bearingDeg: Number(bearing) }) });
+        plan.setUnderlay(under.image, placement, Number($("u-opacity").value));
+        $("u-status").textContent = "placed";
+      } catch (e) { showError(`underlay: ${e.message}`); }
+    });
+    $("u-opacity").addEventListener("input", () => {
+      if (plan.underlay) plan.setUnderlay(plan.underlay.image, plan.underlay.placement, Number($("u-opacity").value));
+    });
+    $("u-remove").addEventListener("click", () => { plan.setUnderlay(null); $("u-status").textContent = ""; });
+
+    // ---- animation: the shadows through the day, 5 minutes a frame; the sky follows when it stops --
     let playing = false;
     window.sunlotFrameTimes = [];
     const frame = () => {
       if (!playing) return;
       const t = (Number($("time").value) + 5) % 1440;
       $("time").value = String(t);
-      const time = `${pad(Math.floor(t / 60))}:${pad(t % 60)}`;
+      const { date, time } = moment();
       $("time-label").textContent = time;
       const t0 = performance.now();
-      try {
-        $("plan").draw(module, { site, localTime: `${$("date").value}T${time}` });
-      } catch (e) { showError(e); playing = false; }
+      plan.setMoment(date, time);
       window.sunlotFrameTimes.push(performance.now() - t0);
       requestAnimationFrame(frame);
     };
@@ -133,28 +297,12 @@
       if (playing) requestAnimationFrame(frame); else redraw();
     });
 
-    // The year's sun hours on every area, in a worker, with progress and cancel.
-    let job = null;
-    $("year-run").addEventListener("click", () => {
-      if (job) return;
-      const year = $("date").value.slice(0, 4);
-      $("year-progress").hidden = false;
-      $("year-cancel").hidden = false;
-      $("year-result").textContent = "computing…";
-      job = window.sunlotRunInWorker("sunHoursMap",
-        { site, cellM: 1, date: `${year}-01-01`, to: `${year}-12-31`, stepMin: 15 },
-        f => { $("year-progress").value = f; });
-      job.promise.then(out => {
-        const v = Array.from(out.hours).filter(Number.isFinite);
-        const mean = v.reduce((a, b) => a + b, 0) / v.length;
-        $("year-result").textContent = `${year}: ${v.length} cells of 1 m; mean ${mean.toFixed(0)} h of direct sun ` +
-          `(an open site: ${out.openHours.toFixed(0)} h), least ${Math.min(...v).toFixed(0)} h.`;
-      }).catch(e => { $("year-result").textContent = e.message === "cancelled" ? "cancelled" : `error: ${e.message}`; })
-        .finally(() => { job = null; $("year-progress").hidden = true; $("year-cancel").hidden = true; });
-    });
-    $("year-cancel").addEventListener("click", () => { if (job) job.cancel(); });
-
+    $("site-name").textContent = info.name;
+    const t0 = performance.now();
+    await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false)]);
     redraw();
+    window.sunlotFirstDrawMs = performance.now() - t0;
+    refreshMap();
     document.body.dataset.ready = "yes";
   }).catch(e => {
     document.body.dataset.ready = "error";

@@ -64,6 +64,7 @@ struct LayerIn {
 pub struct PlanLayer {
     layer: MapLayer,
     rgba: Vec<u8>,
+    grid: Grid,
 }
 
 #[wasm_bindgen]
@@ -84,7 +85,7 @@ impl PlanLayer {
         let values = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
         let layer = MapLayer::on_grid(&grid, values, &i.label, &i.unit, (lo, hi));
         let rgba = layer.rgba();
-        Ok(PlanLayer { layer, rgba })
+        Ok(PlanLayer { layer, rgba, grid })
     }
 
     /// Draws the shadow plan (input as `drawShadowPlan`) with this map under the shadows and its
@@ -100,6 +101,22 @@ impl PlanLayer {
         super::canvas::plan_svg(input, width, height, Some(self))
     }
 
+    /// Draws the map alone as a heat-map figure (as the CLI's PNG): `drawMap(canvas, {site, title,
+    /// subtitle, palette?})`.
+    #[wasm_bindgen(js_name = drawMap)]
+    pub fn draw_map(&self, canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
+        let mut surface = super::Canvas::new(canvas)?;
+        self.heat_map(input, &mut surface)
+    }
+
+    /// The heat-map figure as an SVG document, `width` × `height` pixels.
+    #[wasm_bindgen(js_name = mapSvg)]
+    pub fn map_svg(&self, input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+        let mut svg = crate::render::Svg::new(width, height);
+        self.heat_map(input, &mut svg)?;
+        Ok(svg.finish())
+    }
+
     /// The plan rectangle the layer covers: `[xMin, yMin, xMax, yMax]`, metres.
     #[wasm_bindgen(getter, js_name = boundsM)]
     pub fn bounds_m(&self) -> Vec<f64> {
@@ -108,7 +125,37 @@ impl PlanLayer {
     }
 }
 
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct MapFigureIn {
+    site: String,
+    title: String,
+    #[serde(default)]
+    subtitle: String,
+    #[serde(default)]
+    palette: PaletteIn,
+}
+
 impl PlanLayer {
+    fn heat_map(&self, input: JsValue, d: &mut dyn crate::render::Draw) -> Result<(), JsError> {
+        let i: MapFigureIn = read(input, "drawMap")?;
+        let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
+        let map = crate::render::HeatMap {
+            title: format!("{} — {}", i.title, model.name),
+            subtitle: i.subtitle,
+            unit: format!("{} ({})", self.layer.label, self.layer.unit),
+            grid: &self.grid,
+            values: &self.layer.values,
+            range: self.layer.range,
+            outlines: crate::render::site_outlines(&model),
+            plan_rotation_deg: model.plan_rotation_deg,
+            caution: crate::rules::CAUTION.into(),
+        };
+        let palette = i.palette.palette()?;
+        crate::render::draw_heat_map(&mut crate::render::Restyle { inner: d, palette }, &map);
+        Ok(())
+    }
+
     /// The layer and its pixels, for drawing.
     pub(crate) fn parts(&self) -> (&MapLayer, &[u8]) {
         (&self.layer, &self.rgba)
