@@ -227,3 +227,86 @@ fn sky_chart_draws_on_a_canvas_and_as_svg() {
     )
     .contains("xM"));
 }
+
+/// Insolation through the facade equals the core's map; the map layer, its GeoJSON and the plan with
+/// a view, a layer and a page palette draw; bad layer, view, palette and underlay input is named.
+#[wasm_bindgen_test]
+fn insolation_layers_views_palettes_and_underlays_through_the_facade() {
+    use wasm_bindgen::JsCast;
+    let site = demo_site_js();
+    let input =
+        format!(r#"{{"site": {site}, "areas": ["garden-16"], "cellM": 1, "date": "2026-06-21", "stepMin": 20}}"#);
+    let out = sunlot::web::insolation_map(js(&input), None).expect("insolation");
+    let total: js_sys::Float64Array = get(&out, "totalKwhM2").into();
+    let m = sunlot::demo::demo();
+    let garden = m.areas.iter().find(|a| a.id == "garden-16").unwrap();
+    let g = sunlot::exposure::Grid::over_polygon(&garden.polygon, 1.0, sunlot::exposure::DEFAULT_MAX_CELLS).unwrap();
+    let req = sunlot::exposure::InsolationRequest {
+        model: &m,
+        grid: &g,
+        period: sunlot::exposure::Period::day(chrono::NaiveDate::from_ymd_opt(2026, 6, 21).unwrap(), 20),
+        plane_m: 0.0,
+        delta_t: sunlot::time::DeltaT::EspenakMeeus,
+        massing: sunlot::exposure::Massing::WithProposed,
+        atmosphere: sunlot::sky::BirdAtmosphere::default(),
+        sky_step_deg: sunlot::exposure::DEFAULT_SKY_STEP_DEG,
+    };
+    let core = sunlot::exposure::insolation(&req, |_| true).unwrap();
+    for (k, want) in core.total_kwh_m2.iter().enumerate() {
+        let got = total.get_index(k as u32);
+        match want {
+            Some(v) => assert_eq!(got, *v),
+            None => assert!(got.is_nan()),
+        }
+    }
+
+    // A layer from the map, drawn under the plan in a zoomed view with a page paper colour.
+    let values = total.to_vec();
+    let grid = get(&out, "grid");
+    let spec = js_sys::Object::new();
+    Reflect::set(&spec, &"grid".into(), &grid).unwrap();
+    Reflect::set(&spec, &"label".into(), &"insolation".into()).unwrap();
+    Reflect::set(&spec, &"unit".into(), &"kWh/m²".into()).unwrap();
+    let layer = sunlot::web::PlanLayer::new(spec.clone().into(), &values).expect("layer");
+    let doc = web_sys::window().unwrap().document().unwrap();
+    let canvas: web_sys::HtmlCanvasElement = doc.create_element("canvas").unwrap().dyn_into().unwrap();
+    canvas.set_width(960);
+    canvas.set_height(760);
+    let plan_in = format!(
+        r##"{{"site": {site}, "localTime": "2026-06-21T09:00", "view": {{"xM": 31, "yM": 26, "widthM": 20}},
+             "palette": {{"paper": "#fdf6e3"}}}}"##
+    );
+    let frame = layer.draw_plan(&canvas, js(&plan_in)).expect("plan drawn");
+    assert!((num(&frame, "pxPerM") - 700.0 / 20.0).abs() < 1e-9, "the view is 20 m across 700 px");
+    let ctx: web_sys::CanvasRenderingContext2d = canvas.get_context("2d").unwrap().unwrap().dyn_into().unwrap();
+    let corner = ctx.get_image_data(2.0, 2.0, 1.0, 1.0).unwrap().data().0;
+    assert_eq!(&corner[..3], &[0xfd, 0xf6, 0xe3], "the page's paper colour");
+    let svg = layer.plan_svg(js(&plan_in), 960, 760).expect("svg");
+    assert!(svg.contains("clip-path") && svg.contains("insolation (kWh/m²)") && svg.contains("#fdf6e3"));
+    let text = sunlot::web::map_geojson_js(
+        js(&format!(
+            r#"{{"site": {site}, "grid": {}, "name": "insolation_kwh_m2"}}"#,
+            String::from(JSON::stringify(&grid).unwrap())
+        )),
+        &values,
+    )
+    .expect("geojson");
+    let fc: serde_json::Value = serde_json::from_str(&text).unwrap();
+    assert_eq!(fc["features"].as_array().unwrap().len(), values.iter().filter(|v| v.is_finite()).count());
+
+    // Bad input names its field.
+    assert!(error_message(sunlot::web::PlanLayer::new(spec.into(), &values[1..]).map(JsValue::from)).contains("grid"));
+    let bad_view = plan_in.replace(r#""widthM": 20"#, r#""widthM": -2"#);
+    assert!(error_message(sunlot::web::draw_shadow_plan_js(&canvas, js(&bad_view))).contains("view"));
+    let bad_paper = plan_in.replace("#fdf6e3", "ivory");
+    assert!(error_message(sunlot::web::draw_shadow_plan_js(&canvas, js(&bad_paper))).contains("palette.paper"));
+    let placed = sunlot::web::underlay_placement(js(
+        r#"{"imageA": [100, 400], "imageB": [400, 400], "planA": [0, 0], "distanceM": 30, "bearingDeg": 90}"#,
+    ))
+    .unwrap();
+    assert!((num(&placed, "a") - 0.1).abs() < 1e-12);
+    assert!(error_message(sunlot::web::underlay_placement(js(
+        r#"{"imageA": [1, 1], "imageB": [1, 1], "planA": [0, 0], "distanceM": 30}"#
+    )))
+    .contains("imageA"));
+}
