@@ -6,6 +6,8 @@
   const $ = id => document.getElementById(id);
   const pad = n => String(n).padStart(2, "0");
   const STORE = "sunlot.site";
+  // Milestones since navigation began, for benches/page_speed.mjs.
+  window.sunlotTimes = { scripts: performance.now() };
 
   function download(name, blob) {
     const a = document.createElement("a");
@@ -22,6 +24,7 @@
   const hideError = () => { $("error").hidden = true; };
 
   window.sunlot.then(async module => {
+    window.sunlotTimes.module = performance.now();
     const plan = $("plan"), sky = $("sky"), mapEl = $("map");
     await Promise.all([plan, sky, mapEl].map(el => el.ready));
 
@@ -302,6 +305,7 @@
     await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false)]);
     redraw();
     window.sunlotFirstDrawMs = performance.now() - t0;
+    window.sunlotReadyMs = performance.now(); // since navigation began
     refreshMap();
     document.body.dataset.ready = "yes";
   }).catch(e => {

@@ -13,7 +13,7 @@ use super::draw::{heading, Anchor, Colour, Draw};
 use crate::exposure::Massing;
 use crate::shadow::{analysis_extent, skyline, Receiver, ViewPoint};
 use crate::site::SiteModel;
-use crate::solar::{Atmosphere, InputError, Site, SunAtInstant};
+use crate::solar::{Atmosphere, Ephemeris, InputError, Site};
 use crate::time::{DeltaT, Fold, Zone};
 
 const INK: Colour = Colour::rgb(30, 30, 30);
@@ -120,8 +120,10 @@ pub fn monthly_dates(year: i32) -> Vec<(NaiveDate, String)> {
 }
 
 /// (azimuth, altitude) of the sun, true north, apparent altitude.
-fn sun(site: &Site, t: DateTime<Utc>, dt: DeltaT) -> Result<(f64, f64), InputError> {
-    let p = SunAtInstant::new(t, dt)?.observe(site, &Atmosphere::default());
+/// The sun's azimuth and refracted altitude, degrees, through the hourly interpolated ephemeris
+/// (within 1e-9° of the direct NREL SPA; the charts ask for thousands of positions).
+fn sun(eph: &mut Ephemeris, site: &Site, t: DateTime<Utc>, dt: DeltaT) -> Result<(f64, f64), InputError> {
+    let p = eph.sun_at(t, dt)?.observe(site, &Atmosphere::default());
     Ok((p.azimuth_deg, p.altitude_deg))
 }
 
@@ -179,6 +181,7 @@ fn polylines(frame: &Frame, pts: &[(f64, f64)]) -> Vec<Vec<(f64, f64)>> {
 pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputError> {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
+    let mut eph = Ephemeris::new();
     d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
     let sub = format!(
         "{:.3}° {}, {:.3}° {}, clock times {}",
@@ -273,7 +276,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
                 flush(d, &mut pts);
             }
             offset = Some(off);
-            let (az, alt) = sun(&chart.site, t, dt)?;
+            let (az, alt) = sun(&mut eph, &chart.site, t, dt)?;
             if alt > 2.0 && best.is_none_or(|b| alt > b.1) {
                 best = Some((az, alt));
             }
@@ -324,7 +327,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         let start = chart.zone.start_of_day(*date);
         let mut pts = Vec::new();
         for m in (0..=24 * 60).step_by(5) {
-            let (az, alt) = sun(&chart.site, start + Duration::minutes(m), dt)?;
+            let (az, alt) = sun(&mut eph, &chart.site, start + Duration::minutes(m), dt)?;
             if alt > 0.0 {
                 pts.push((az, alt));
             }
@@ -335,7 +338,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
     }
 
     if let Some(t) = chart.now {
-        let (az, alt) = sun(&chart.site, t, dt)?;
+        let (az, alt) = sun(&mut eph, &chart.site, t, dt)?;
         if alt > 0.0 {
             let (x, y) = frame.at(az, alt);
             let disc: Vec<(f64, f64)> = (0..24)
