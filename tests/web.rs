@@ -300,6 +300,8 @@ fn insolation_layers_views_palettes_and_underlays_through_the_facade() {
     assert!(error_message(sunlot::web::draw_shadow_plan_js(&canvas, js(&bad_view))).contains("view"));
     let bad_paper = plan_in.replace("#fdf6e3", "ivory");
     assert!(error_message(sunlot::web::draw_shadow_plan_js(&canvas, js(&bad_paper))).contains("palette.paper"));
+    let timeline = format!(r#"{{"site": {site}, "xM": 14, "yM": 41, "date": "2026-03-21", "massing": "both"}}"#);
+    assert!(error_message(sunlot::web::point_timeline(js(&timeline))).contains("massing"));
     let placed = sunlot::web::underlay_placement(js(
         r#"{"imageA": [100, 400], "imageB": [400, 400], "planA": [0, 0], "distanceM": 30, "bearingDeg": 90}"#,
     ))

@@ -152,7 +152,6 @@ struct SkyIn {
 }
 
 fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::Palette), JsError> {
-    use crate::exposure::Massing;
     use crate::render::{Projection, SkyChart};
     let i: SkyIn = super::read(input, "skyChart")?;
     let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
@@ -171,7 +170,7 @@ fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::
         )
     };
     let now = i.local_time.as_deref().map(|t| local_instant(&model, t)).transpose()?;
-    let massing = if i.massing.as_deref() == Some("existing") { Massing::Existing } else { Massing::WithProposed };
+    let massing = super::maps::massing_of(i.massing.as_deref())?;
     let from = match (i.x_m, i.y_m) {
         (Some(x), Some(y)) => Some((crate::shadow::ViewPoint { x_m: x, y_m: y, z_m: i.z_m }, massing)),
         (None, None) => None,

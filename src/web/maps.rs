@@ -51,6 +51,15 @@ struct MapIn {
     max_cells: Option<usize>,
 }
 
+/// "existing" or "withProposed" (the default); anything else is an error naming the field.
+pub(crate) fn massing_of(text: Option<&str>) -> Result<Massing, JsError> {
+    match text {
+        None | Some("withProposed") => Ok(Massing::WithProposed),
+        Some("existing") => Ok(Massing::Existing),
+        Some(other) => Err(JsError::new(&format!("massing: {other:?} is not \"existing\" or \"withProposed\""))),
+    }
+}
+
 fn half() -> f64 {
     0.5
 }
@@ -84,14 +93,7 @@ impl MapIn {
         let first = date(&self.date, "date")?;
         let last = self.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
         let period = Period { first, last, window: window(self.window.as_deref())?, step_min: self.step_min };
-        let massing = match self.massing.as_deref() {
-            None | Some("withProposed") => Massing::WithProposed,
-            Some("existing") => Massing::Existing,
-            Some(other) => {
-                return Err(JsError::new(&format!("massing: {other:?} is not \"existing\" or \"withProposed\"")))
-            }
-        };
-        Ok((model, grid, period, massing))
+        Ok((model, grid, period, massing_of(self.massing.as_deref())?))
     }
 }
 
@@ -357,7 +359,7 @@ struct TimelineIn {
 pub fn point_timeline(input: JsValue) -> Result<JsValue, JsError> {
     let i: TimelineIn = read(input, "pointTimeline")?;
     let model = site(&i.site)?;
-    let massing = if i.massing.as_deref() == Some("existing") { Massing::Existing } else { Massing::WithProposed };
+    let massing = massing_of(i.massing.as_deref())?;
     let t = day_timeline(
         &model,
         ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
