@@ -331,7 +331,7 @@ check(await page.isHidden("#controls") && await page.isVisible("#plan canvas") &
 await page.screenshot({ path: path.join(shots, "index-print.png"), fullPage: true });
 await page.emulateMedia({ media: "screen" });
 
-// Embedding: a page of its own with one script tag for the module, the widgets, attributes and CSS
+// Embedding: a page of its own with one script tag for the module and the widgets, attributes and CSS
 // custom properties; the paper colour reaches the figure.
 const embed = path.join(shots, "embed.html");
 writeFileSync(embed, `<!doctype html><html><head><meta charset="utf-8">
@@ -339,8 +339,7 @@ writeFileSync(embed, `<!doctype html><html><head><meta charset="utf-8">
 <sunlot-plan id="p" date="2026-06-21" time="09:00" layer="sun-hours"><script type="application/json">${
   readFileSync(path.join(root, "demo-site", "hollin-vale.site.json"), "utf8")}</script></sunlot-plan>
 <sunlot-sky id="s" date="2026-06-21" time="09:00" point="14,41,1.5" projection="rectangular"></sunlot-sky>
-<script src="${pathToFileURL(path.join(root, "www", "build", "sunlot.bundle.js")).href}"></script>
-<script src="${pathToFileURL(path.join(root, "www", "widgets.js")).href}"></script>
+<script src="${pathToFileURL(path.join(root, "www", "build", "sunlot-widgets.bundle.js")).href}"></script>
 <script>document.addEventListener("sunlot-layer", () => { document.body.dataset.layer = "yes"; });
 document.querySelector("#p").addEventListener("sunlot-drawn", () => {
   document.querySelector("#s").setSite(document.querySelector("#p").state.site); }, { once: true });</script>

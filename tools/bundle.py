@@ -2,9 +2,10 @@
 bytes inlined as base64, and a loader, so a page opened straight from disk (file://, where browsers
 refuse ES modules and fetch) can use sunlot with one script tag. After the script runs,
 `window.sunlot` is a promise of the module's functions, and `window.sunlotBoot` starts another copy
-(for Web Workers).
+(for Web Workers). Given the widgets' script as well, it is appended, so that one script tag brings
+the module and the custom elements.
 
-Usage: python3 tools/bundle.py <wasm-bindgen no-modules out dir> <bundle path>
+Usage: python3 tools/bundle.py <wasm-bindgen no-modules out dir> <bundle path> [widgets.js]
 """
 import base64
 import pathlib
@@ -28,6 +29,8 @@ scope.sunlotBoot = sunlotBoot;
 scope.sunlot = sunlotBoot();
 }})(self);
 """
+if len(sys.argv) > 3:
+    bundle += "\n" + pathlib.Path(sys.argv[3]).read_text()
 out.parent.mkdir(parents=True, exist_ok=True)
 out.write_text(bundle)
 print(f"{out}: {len(bundle.encode())} bytes")
