@@ -147,7 +147,7 @@ fn set(obj: &JsValue, key: &str, value: &JsValue) -> Result<(), JsError> {
         .map_err(|_| JsError::new("could not build the result"))
 }
 
-fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -> bool + '_ {
+pub(crate) fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -> bool + '_ {
     move |f| match callback {
         Some(cb) => cb.call1(&JsValue::NULL, &JsValue::from_f64(f)).map_or(true, |r| r.as_bool() != Some(false)),
         None => true,

@@ -10,12 +10,14 @@ use wasm_bindgen::prelude::*;
 mod canvas;
 mod layer;
 mod maps;
+mod studies;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
 pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
     check_rule_js, compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js,
     sun_hours_map,
 };
+pub use studies::{shadow_table_js, sky_view_js, year_profile_js};
 
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};
 use crate::solar::{self, Atmosphere, Crossing, Site, SunAtInstant};

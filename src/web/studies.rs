@@ -1,0 +1,118 @@
+//! Studies of a site for report pages (wasm32 only): the hourly shadow-length table, a point's year
+//! and a point's sky-view factor. Each call takes the site as text; errors name the field.
+
+use serde::Deserialize;
+use wasm_bindgen::prelude::*;
+
+use super::maps::massing_of;
+use super::{err, read, write};
+use crate::shadow::ViewPoint;
+use crate::site::SiteModel;
+use crate::time::DeltaT;
+
+fn site(text: &str) -> Result<SiteModel, JsError> {
+    SiteModel::read(text).map(|r| r.model).map_err(|e| JsError::new(&format!("site: {e}")))
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct TableIn {
+    site: String,
+    date: String,
+    #[serde(default = "sixty")]
+    step_min: u32,
+}
+
+fn sixty() -> u32 {
+    60
+}
+
+/// The shadow-length table of a day: `[{time, altitudeDeg, azimuthDeg, lengthPerM, directionDeg,
+/// tipsM: {volumeId: metres}}]` from sunrise to sunset every `stepMin` minutes (default 60) from local
+/// midnight; times local RFC 3339. Shadow length per metre of height is 1 / tan(altitude) on flat ground.
+#[wasm_bindgen(js_name = shadowTable)]
+pub fn shadow_table_js(input: JsValue) -> Result<JsValue, JsError> {
+    let i: TableIn = read(input, "shadowTable")?;
+    let model = site(&i.site)?;
+    let date = chrono::NaiveDate::parse_from_str(&i.date, "%Y-%m-%d")
+        .map_err(|_| JsError::new(&format!("date: {:?} is not YYYY-MM-DD", i.date)))?;
+    let rows = crate::shadow::shadow_table(&model, date, i.step_min, DeltaT::EspenakMeeus).map_err(err)?;
+    let out: Vec<_> = rows
+        .iter()
+        .map(|r| {
+            let tips: serde_json::Map<String, serde_json::Value> =
+                r.tips_m.iter().map(|(id, m)| (id.clone(), serde_json::json!(m))).collect();
+            serde_json::json!({"time": super::stamp(r.time, &model.zone), "altitudeDeg": r.altitude_deg,
+                "azimuthDeg": r.azimuth_deg, "lengthPerM": r.length_per_m, "directionDeg": r.direction_deg,
+                "tipsM": tips})
+        })
+        .collect();
+    write(&out)
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct PointIn {
+    site: String,
+    x_m: f64,
+    y_m: f64,
+    #[serde(default)]
+    z_m: f64,
+    year: Option<i32>,
+    #[serde(default = "fifteen")]
+    step_min: u32,
+    massing: Option<String>,
+    #[serde(default = "five")]
+    sky_step_deg: f64,
+}
+
+fn fifteen() -> u32 {
+    15
+}
+fn five() -> f64 {
+    5.0
+}
+
+/// A point's year: `{year, skyView, months: [{month, sunHours, openHours, kwhM2, openKwhM2}]}` — hours
+/// of direct sun and clear-sky horizontal insolation per month at the point against an open point.
+#[wasm_bindgen(js_name = yearProfile)]
+pub fn year_profile_js(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+    let i: PointIn = read(input, "yearProfile")?;
+    let model = site(&i.site)?;
+    let year = i.year.ok_or_else(|| JsError::new("year: missing"))?;
+    let p = crate::exposure::year_profile(
+        &model,
+        ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
+        year,
+        i.step_min,
+        massing_of(i.massing.as_deref())?,
+        &crate::sky::BirdAtmosphere::default(),
+        DeltaT::EspenakMeeus,
+        super::maps::progress(&on_progress),
+    )
+    .map_err(err)?;
+    let months: Vec<_> = p
+        .months
+        .iter()
+        .map(|m| {
+            serde_json::json!({"month": m.month, "sunHours": m.sun_hours, "openHours": m.open_hours,
+                "kwhM2": m.kwh_m2, "openKwhM2": m.open_kwh_m2})
+        })
+        .collect();
+    write(&serde_json::json!({"year": p.year, "skyView": p.sky_view, "months": months}))
+}
+
+/// A point's sky-view factor (0–1, the cosine-weighted share of the sky it sees past the massing,
+/// in patches of `skyStepDeg`, default 5°).
+#[wasm_bindgen(js_name = skyView)]
+pub fn sky_view_js(input: JsValue) -> Result<f64, JsError> {
+    let i: PointIn = read(input, "skyView")?;
+    let model = site(&i.site)?;
+    crate::exposure::sky_view_at(
+        &model,
+        ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
+        massing_of(i.massing.as_deref())?,
+        i.sky_step_deg,
+    )
+    .map_err(err)
+}
