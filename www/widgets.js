@@ -5,7 +5,8 @@
 //
 // Embedding: <sunlot-plan site-src="lot.site.json" date="2026-06-21" time="15:00" layer="sun-hours">
 // (or the site file as <script type="application/json"> inside the element). Attributes: site-src,
-// date, time, layer (plan, map), point ("x,y,height" in metres) and projection (sky), editable (plan).
+// date, time, layer (plan, map), point ("x,y,height" in metres), projection and massing ("existing" or
+// "withProposed") (sky), editable (plan).
 // Events (bubbling CustomEvents): sunlot-drawn, sunlot-point {xM, yM}, sunlot-time {date, time},
 // sunlot-view {xM, yM, widthM}, sunlot-select {kind, id}, sunlot-edit {site, action},
 // sunlot-layer {kind}, sunlot-error {message}. CSS custom properties on the element or above it:
@@ -20,6 +21,10 @@
   const MAPS = {
     "sun-hours": { fn: "sunHoursMap", title: "Hours of direct sun", label: "hours of direct sun", unit: "h",
       column: "sun_hours", input: (site, date) => ({ site, date, cellM: 0.5, stepMin: 5 }),
+      values: o => o.hours, top: o => o.openHours },
+    "sun-hours-existing": { fn: "sunHoursMap", title: "Hours of direct sun, existing massing only",
+      label: "hours of direct sun", unit: "h", column: "sun_hours",
+      input: (site, date) => ({ site, date, cellM: 0.5, stepMin: 5, massing: "existing" }),
       values: o => o.hours, top: o => o.openHours },
     "lost": { fn: "compareMap", title: "Hours of direct sun lost to the proposal", label: "hours of sun lost",
       unit: "h", column: "lost_h", input: (site, date) => ({ site, date, cellM: 0.5, stepMin: 5 }),
@@ -98,7 +103,7 @@
       else if (this.hasAttribute("site-src")) this.loadSite(this.getAttribute("site-src"));
     }
 
-    static get observedAttributes() { return ["date", "time", "site-src", "layer", "point", "projection"]; }
+    static get observedAttributes() { return ["date", "time", "site-src", "layer", "point", "projection", "massing"]; }
     attributeChangedCallback(name, old, value) {
       if (!this.started || old === value) return;
       if (name === "site-src") this.loadSite(value);
@@ -177,15 +182,18 @@
       super(SKY);
       this.point = { xM: 14, yM: 41, zM: 1.5 };
       this.projection = "stereographic";
+      this.massing = "withProposed";
     }
     connectedCallback() {
       if (this.hasAttribute("point")) this.setPointText(this.getAttribute("point"));
       if (this.hasAttribute("projection")) this.projection = this.getAttribute("projection");
+      if (this.hasAttribute("massing")) this.massing = this.getAttribute("massing");
       super.connectedCallback();
     }
     attributeChanged(name, value) {
       if (name === "point") this.setPointText(value);
       if (name === "projection") this.projection = value;
+      if (name === "massing") this.massing = value;
       this.render();
     }
     setPointText(text) {
@@ -199,7 +207,7 @@
     input() {
       const s = this.state;
       return { site: s.site, year: Number(s.date.slice(0, 4)), localTime: `${s.date}T${s.time}`,
-        ...this.point, projection: this.projection, palette: this.palette() };
+        ...this.point, projection: this.projection, massing: this.massing, palette: this.palette() };
     }
     draw() {
       this.module.drawSkyChart(this.canvas, this.input());

@@ -1,0 +1,261 @@
+// The demo proposal site: pages of an architect's sun and shadow report on the invented Hollin Vale
+// scenario, built from the sunlot widgets and the module's calls. Classic script after
+// ../www/build/sunlot-widgets.bundle.js; each page names itself in <body data-page="…">. Works from
+// file:// with no network, and served over HTTP.
+(function () {
+  "use strict";
+  const $ = id => document.getElementById(id);
+  const el = (tag, attrs = {}, ...children) => {
+    const e = document.createElement(tag);
+    for (const [k, v] of Object.entries(attrs)) {
+      if (k === "text") e.textContent = v; else if (v !== false && v !== undefined) e.setAttribute(k, v === true ? "" : v);
+    }
+    for (const c of children) e.append(c);
+    return e;
+  };
+  const hhmm = t => (t ? t.slice(11, 16) : "—");
+  const fixed = (v, d = 1) => (Number.isFinite(v) ? v.toFixed(d) : "—");
+
+  /** The neighbours' ground-floor windows (plan metres, 5 cm in front of the façade, sill + 0.2 m). */
+  const WINDOWS = [
+    { id: "w16-side", name: "16 Tenter Lane, side window facing the lot", xM: 27.95, yM: 9.0, zM: 1.2 },
+    { id: "w12-side", name: "12 Tenter Lane, side window facing the lot", xM: 0.05, yM: 9.0, zM: 1.2 },
+    { id: "w9-west", name: "9 Weir Close, front window (west)", xM: 8.0, yM: 62.95, zM: 1.2 },
+    { id: "w9-east", name: "9 Weir Close, front window (east)", xM: 20.0, yM: 62.95, zM: 1.2 },
+    { id: "w16-rear", name: "16 Tenter Lane, rear kitchen window (faces north)", xM: 31.5, yM: 12.05, zM: 1.2 },
+  ];
+
+
+  function download(name, blob) {
+    const a = el("a", { href: URL.createObjectURL(blob), download: name });
+    document.body.append(a);
+    a.click();
+    a.remove();
+  }
+
+  /** Export buttons for a widget or a table. */
+  function exports(target, stem, kinds) {
+    const span = el("span", { class: "exports" });
+    for (const kind of kinds) {
+      const b = el("button", { type: "button", "data-export": `${stem}.${kind}`, text: kind.toUpperCase() });
+      b.addEventListener("click", async () => {
+        const name = `hollin-vale-${stem}.${kind}`;
+        if (target instanceof HTMLTableElement) download(name, new Blob([tableCsv(target)], { type: "text/csv" }));
+        else if (kind === "png") download(name, await target.png());
+        else if (kind === "svg") download(name, new Blob([target.svg()], { type: "image/svg+xml" }));
+        else if (kind === "csv") download(name, new Blob([target.csv()], { type: "text/csv" }));
+        else if (kind === "geojson") {
+          const text = target.localName === "sunlot-plan" ? target.shadowsGeojson() : target.geojson();
+          download(name, new Blob([text], { type: "application/geo+json" }));
+        }
+      });
+      span.append(" ", b);
+    }
+    return span;
+  }
+
+  function tableCsv(table) {
+    const q = s => (/[",\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+    return Array.from(table.rows).map(r => Array.from(r.cells).map(c => q(c.textContent.trim())).join(",")).join("\n") + "\n";
+  }
+
+  /** A table with a header row, rows of cells, a caption and a CSV export. */
+  function table(stem, caption, head, rows) {
+    const t = el("table", { id: `table-${stem}` });
+    t.append(el("caption", { text: caption }));
+    t.append(el("thead", {}, el("tr", {}, ...head.map(h => el("th", { scope: "col", text: h })))));
+    t.append(el("tbody", {}, ...rows.map(r => el("tr", {}, ...r.map(c => el("td", { text: String(c) }))))));
+    const wrap = el("div", { class: "table" }, t);
+    wrap.append(el("p", { class: "table-exports" }, "Table as", exports(t, stem, ["csv"])));
+    return wrap;
+  }
+
+  /** A widget in a figure with its caption and exports; resolves when it has drawn. */
+  function figure(parent, tag, attrs, caption, kinds, site) {
+    const w = el(tag, attrs);
+    const f = el("figure", {}, w, el("figcaption", {}, caption, exports(w, attrs.id, kinds)));
+    parent.append(f);
+    const drawn = new Promise(res => w.addEventListener(attrs.layer ? "sunlot-layer" : "sunlot-drawn", res, { once: true }));
+    w.addEventListener("sunlot-error", e => showError(`${attrs.id}: ${e.detail.message}`));
+    w.ready.then(() => w.setSite(site));
+    return { widget: w, drawn };
+  }
+
+  function showError(message) {
+    const e = $("error");
+    e.hidden = false;
+    e.textContent = message;
+  }
+
+  /** The seasons of the site's year, as local dates and RFC 3339 instants. */
+  function seasons(m, info, year) {
+    const s = m.seasonInstants(year, info.zone);
+    return [["March equinox", s.marchEquinox], ["June solstice", s.juneSolstice],
+      ["September equinox", s.septemberEquinox], ["December solstice", s.decemberSolstice]]
+      .map(([name, t]) => ({ name, instant: t, date: t.slice(0, 10) }));
+  }
+
+  const PAGES = {
+    // The one-page summary for a planning file.
+    async summary(m, site, info) {
+      const [march, june, , december] = seasons(m, info, 2026);
+      const figs = $("figures");
+      const plan = figure(figs, "sunlot-plan", { id: "summary-plan", date: march.date, time: "15:00" },
+        `Shadows at 15:00 on the March equinox (${march.date})`, ["png", "svg", "geojson"], site);
+      const lost = figure(figs, "sunlot-map", { id: "summary-lost", date: march.date, layer: "lost" },
+        `Hours of direct sun lost to the proposal on ${march.date}`, ["png", "svg", "csv", "geojson"], site);
+      ruleTable(m, site, $("rule"));
+      windowTable(m, site, $("windows"), [march, december]);
+      await Promise.all([plan.drawn, lost.drawn]);
+      $("print").addEventListener("click", () => window.print());
+      void june;
+    },
+
+    async sun(m, site, info) {
+      const year = 2026;
+      const all = seasons(m, info, year);
+      const sky = figure($("figures"), "sunlot-sky", { id: "sun-sky", date: all[0].date, time: "12:00",
+        point: "31.5,26,1.5" }, "Sun path over the year and the skyline from the middle of 16's garden (1.5 m up)",
+      ["png", "svg"], site);
+      $("tables").append(table("seasons", `Equinoxes and solstices ${year}, local time (${info.zone})`,
+        ["Event", "Instant"], all.map(s => [s.name, s.instant])));
+      const rows = all.map(s => {
+        const d = m.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date: s.date, zone: info.zone });
+        return [s.date, s.name, hhmm(d.civilDawn), hhmm(d.sunrise), hhmm(d.solarNoon), fixed(d.noonAltitudeDeg),
+          hhmm(d.sunset), hhmm(d.civilDusk), fixed(d.dayLengthH, 2)];
+      });
+      $("tables").append(table("day-events", "Sun on the season days at the site (NREL SPA; sunrise and sunset at the upper limb with standard refraction)",
+        ["Date", "Day", "Civil dawn", "Sunrise", "Solar noon", "Noon altitude °", "Sunset", "Civil dusk", "Day length h"], rows));
+      const point = { site, xM: 31.5, yM: 26, zM: 1.5, year, stepMin: 30 };
+      const before = m.yearProfile({ ...point, massing: "existing" });
+      const after = m.yearProfile({ ...point, massing: "withProposed" });
+      const months = before.months.map((b, k) => {
+        const a = after.months[k];
+        return [b.month, fixed(b.openHours, 0), fixed(b.sunHours, 0), fixed(a.sunHours, 0), fixed(b.kwhM2, 1), fixed(a.kwhM2, 1)];
+      });
+      $("tables").append(table("year-profile",
+        `The year at the middle of 16's garden (31.5, 26, 1.5 m): sky view ${fixed(before.skyView, 2)} before, ${fixed(after.skyView, 2)} with the proposal (30-minute steps, Bird clear sky)`,
+        ["Month", "Sun up h", "Direct sun now h", "With proposal h", "Insolation now kWh/m²", "With proposal kWh/m²"], months));
+      await sky.drawn;
+    },
+
+    async shadows(m, site, info) {
+      const all = seasons(m, info, 2026);
+      const days = [all[0], all[1], all[3]];
+      const grid = $("figures");
+      const drawn = [];
+      for (const d of days) {
+        for (const time of ["09:00", "12:00", "15:00"]) {
+          drawn.push(figure(grid, "sunlot-plan", { id: `plan-${d.date}-${time.replace(":", "")}`, date: d.date, time },
+            `${d.name} (${d.date}), ${time}`, ["png", "svg", "geojson"], site).drawn);
+        }
+      }
+      for (const d of days) {
+        const rows = m.shadowTable({ site, date: d.date, stepMin: 60 }).map(r => [hhmm(r.time), fixed(r.altitudeDeg),
+          fixed(r.azimuthDeg), fixed(r.lengthPerM, 2), fixed(r.directionDeg), fixed(r.tipsM["proposal-upper"], 1),
+          fixed(r.tipsM["proposal-podium"], 1)]);
+        $("tables").append(table(`shadow-lengths-${d.date}`, `${d.name} (${d.date}): the sun and shadow lengths on the hour`,
+          ["Time", "Altitude °", "Azimuth °", "Shadow per m of height, m", "Shadow points to °", "Upper block tip m", "Podium tip m"], rows));
+      }
+      await Promise.all(drawn);
+    },
+
+    async gardens(m, site) {
+      const date = "2026-03-21";
+      const figs = $("figures");
+      const drawn = [
+        figure(figs, "sunlot-map", { id: "gardens-before", date, layer: "sun-hours-existing" },
+          `Before: hours of direct sun on ${date}, existing buildings`, ["png", "svg", "csv", "geojson"], site).drawn,
+        figure(figs, "sunlot-map", { id: "gardens-after", date, layer: "sun-hours" },
+          `After: hours of direct sun on ${date} with the proposal`, ["png", "svg", "csv", "geojson"], site).drawn,
+        figure(figs, "sunlot-map", { id: "gardens-lost", date, layer: "lost" },
+          `Difference: hours of direct sun lost on ${date}`, ["png", "svg", "csv", "geojson"], site).drawn,
+      ];
+      ruleTable(m, site, $("rule"));
+      await Promise.all(drawn);
+    },
+
+    async windows(m, site, info) {
+      const all = seasons(m, info, 2026);
+      windowTable(m, site, $("tables"), [all[0], all[3]]);
+      const drawn = WINDOWS.map(w => figure($("figures"), "sunlot-sky", { id: `sky-${w.id}`, date: all[0].date, time: "12:00",
+        point: `${w.xM},${w.yM},${w.zM}`, projection: "rectangular" },
+      `${w.name}: sun paths and the skyline with the proposal (rectangular projection)`, ["png", "svg"], site).drawn);
+      await Promise.all(drawn);
+    },
+
+    async envelope(m, site) {
+      const date = "2026-03-21";
+      const figs = $("figures");
+      const map = figure(figs, "sunlot-map", { id: "envelope-map", date, layer: "envelope" },
+        `The solar envelope of the lot: the greatest height at each point that keeps the neighbours' gardens in sun from 09:00 to 15:00 on ${date}`,
+        ["png", "svg", "csv", "geojson"], site);
+      const plan = figure(figs, "sunlot-plan", { id: "envelope-plan", date, time: "12:00", layer: "envelope" },
+        `The envelope under the proposal's shadows at 12:00 on ${date}`, ["png", "svg", "geojson"], site);
+      await Promise.all([map.drawn, plan.drawn]);
+    },
+
+    async interactive(m, site) {
+      const plan = $("plan"), sky = $("sky");
+      const moment = () => {
+        const t = Number($("time").value);
+        return [$("date").value, `${String(Math.floor(t / 60)).padStart(2, "0")}:${String(t % 60).padStart(2, "0")}`];
+      };
+      const redraw = () => { const [d, t] = moment(); $("time-label").textContent = t; plan.setMoment(d, t); sky.setMoment(d, t); };
+      for (const id of ["date", "time"]) $(id).addEventListener("input", redraw);
+      plan.addEventListener("sunlot-edit", e => { sky.setSite(e.detail.site); $("undo").disabled = !plan.canUndo; $("redo").disabled = !plan.canRedo; });
+      plan.addEventListener("sunlot-point", e => { sky.setPoint(Number(e.detail.xM.toFixed(1)), Number(e.detail.yM.toFixed(1)), 1.5); });
+      plan.addEventListener("sunlot-error", e => showError(e.detail.message));
+      $("undo").addEventListener("click", () => plan.undo());
+      $("redo").addEventListener("click", () => plan.redo());
+      $("draw").addEventListener("click", () => { plan.startDrawing("volumes"); plan.canvas.focus(); });
+      $("raise").addEventListener("click", () => { plan.select("volumes", "proposal-upper"); plan.setFields({ top_m: Number($("top").value) }); });
+      for (const [w, kinds] of [[plan, ["png", "svg", "geojson"]], [sky, ["png", "svg"]]]) w.parentElement.querySelector("figcaption").append(exports(w, w.id, kinds));
+      await Promise.all([plan.ready, sky.ready]);
+      await Promise.all([plan.setSite(site, false), sky.setSite(site, false)]);
+      redraw();
+    },
+  };
+
+  /** The rule check against the BRE BR 209 amenity preset, with its citation and the caution. */
+  function ruleTable(m, site, parent) {
+    const r = m.checkRule({ site, preset: "bre-br209-amenity", year: 2026 });
+    const v = (a, snake, camel) => (a[snake] !== undefined ? a[snake] : a[camel]);
+    const rows = r.areas.map(a => [a.id, a.name, fixed(100 * v(a, "before_share", "beforeShare"), 1),
+      fixed(100 * v(a, "after_share", "afterShare"), 1), fixed(v(a, "ratio", "ratio"), 3), a.passes ? "passes" : "fails"]);
+    parent.append(table("rule-check", `${r.rule.title} — checked on ${r.date}, ${v(r, "cell_m", "cellM")} m cells, ${v(r, "step_min", "stepMin")}-minute steps`,
+      ["Area", "Name", "In 2 h+ sun now %", "With proposal %", "Ratio after / before", "Result"], rows));
+    parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
+    parent.append(el("p", { class: "caution", text: r.caution }));
+  }
+
+  /** Hours of direct sun at each window before and after, on the given season days, and sky view. */
+  function windowTable(m, site, parent, days) {
+    const rows = WINDOWS.map(w => {
+      const cells = [w.name];
+      for (const d of days) {
+        for (const massing of ["existing", "withProposed"]) {
+          cells.push(fixed(m.pointTimeline({ site, xM: w.xM, yM: w.yM, zM: w.zM, date: d.date, massing }).sunHours, 2));
+        }
+      }
+      cells.push(fixed(m.skyView({ site, xM: w.xM, yM: w.yM, zM: w.zM, massing: "existing" }), 3));
+      cells.push(fixed(m.skyView({ site, xM: w.xM, yM: w.yM, zM: w.zM, massing: "withProposed" }), 3));
+      return cells;
+    });
+    const head = ["Window"];
+    for (const d of days) head.push(`${d.date} now h`, `${d.date} with proposal h`);
+    head.push("Sky view now", "Sky view with proposal");
+    parent.append(table("windows", "Direct sun at the neighbours' ground-floor windows (hours in the day) and their sky-view factor (cosine-weighted share of the sky seen)", head, rows));
+  }
+
+  window.sunlot.then(async m => {
+    const site = m.demoSiteText();
+    const info = m.readSite(site);
+    for (const n of document.querySelectorAll("[data-site-name]")) n.textContent = info.name;
+    await PAGES[document.body.dataset.page](m, site, info);
+    document.body.dataset.ready = "yes";
+  }).catch(e => {
+    showError(`sunlot could not start: ${e && e.message ? e.message : e}`);
+    document.body.dataset.ready = "error";
+  });
+})();
