@@ -6,7 +6,7 @@
 // Run: node e2e/demo_site.test.mjs (after ./dev wasm and a cargo build of the CLI).
 import { chromium } from "playwright-core";
 import { existsSync, mkdirSync, readFileSync } from "node:fs";
-import { execFileSync } from "node:child_process";
+import { execFileSync, spawn } from "node:child_process";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import path from "node:path";
 
@@ -101,6 +101,26 @@ const want = cli.areas.map(a => [a.id, a.name, (100 * a.before_share).toFixed(1)
   a.ratio.toFixed(3), a.passes ? "passes" : "fails"]);
 check(JSON.stringify(ruleRows) === JSON.stringify(want),
   `the rule-check table equals \`sunlot check\` on demo-site/hollin-vale.site.json (${want.length} areas)`);
+
+// Served over HTTP on localhost as `./dev demo` serves it (Python's http.server): the pages work there too.
+const port = 8700 + Math.floor(Math.random() * 200);
+const server = spawn("python3", ["-m", "http.server", String(port), "--bind", "127.0.0.1", "--directory", root],
+  { stdio: "ignore" });
+try {
+  const served = await browser.newContext({ viewport: { width: 1400, height: 1000 } });
+  await served.route("**/*", r => (r.request().url().startsWith(`http://127.0.0.1:${port}/`) || r.request().url().startsWith("blob:")
+    ? r.continue() : r.abort()));
+  const page = await served.newPage();
+  const errors = [];
+  page.on("pageerror", e => errors.push(String(e)));
+  for (let k = 0; k < 50; k++) {
+    try { await page.goto(`http://127.0.0.1:${port}/demo-site/gardens.html`); break; } catch (e) { await page.waitForTimeout(100); }
+  }
+  await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 120000 });
+  check(await page.evaluate(() => document.body.dataset.ready) === "yes" && errors.length === 0,
+    `served on localhost, a page works as from disk (${errors.join(" | ") || "no errors"})`);
+  await served.close();
+} finally { server.kill(); }
 
 check(blocked.length === 0, `no request leaves the disk (${blocked.join(", ") || "none"})`);
 await browser.close();
