@@ -90,6 +90,15 @@ impl Zone {
         self.local(instant).date_naive()
     }
 
+    /// A label of `instant` for figures: local date and clock time with the zone's abbreviation
+    /// (e.g. `2026-06-21 15:00 BST`), or the offset for a fixed zone.
+    pub fn label(&self, instant: DateTime<Utc>) -> String {
+        match self {
+            Zone::Iana(tz) => instant.with_timezone(tz).format("%Y-%m-%d %H:%M %Z").to_string(),
+            Zone::Fixed(off) => instant.with_timezone(off).format("%Y-%m-%d %H:%M %:z").to_string(),
+        }
+    }
+
     /// The first instant of a local date: midnight, or where a daylight-saving change skips midnight,
     /// the first whole hour that exists.
     pub fn start_of_day(&self, date: NaiveDate) -> DateTime<Utc> {
@@ -254,5 +263,14 @@ mod tests {
         assert_eq!("UTC".parse::<Zone>().unwrap().to_string(), "UTC");
         assert!(matches!("Mars/Olympus".parse::<Zone>(), Err(TimeError::UnknownZone { .. })));
         assert!(matches!(parse_instant("2024-06-21 12:00"), Err(TimeError::NotRfc3339 { .. })));
+    }
+
+    #[test]
+    fn figure_labels_carry_the_zone_abbreviation() {
+        let (t, _) = parse_instant("2026-06-21T14:00:00Z").unwrap();
+        assert_eq!("Europe/London".parse::<Zone>().unwrap().label(t), "2026-06-21 15:00 BST");
+        let (w, _) = parse_instant("2026-12-21T14:00:00Z").unwrap();
+        assert_eq!("Europe/London".parse::<Zone>().unwrap().label(w), "2026-12-21 14:00 GMT");
+        assert_eq!("+05:30".parse::<Zone>().unwrap().label(w), "2026-12-21 19:30 +05:30");
     }
 }

@@ -242,6 +242,8 @@ struct PlanJob {
     model: crate::site::SiteModel,
     study: crate::shadow::Study,
     when: String,
+    /// The moment for the figure's title, local with the zone's abbreviation.
+    label: String,
     wgs84: bool,
     view: Option<(geo::Coord<f64>, f64)>,
     palette: crate::render::Palette,
@@ -253,6 +255,7 @@ fn plan_job(input: JsValue) -> Result<PlanJob, JsError> {
     let t = local_instant(&read.model, &i.local_time)?;
     let study = crate::shadow::shadow_study(&read.model, t, crate::time::DeltaT::EspenakMeeus).map_err(super::err)?;
     let when = super::stamp(t, &read.model.zone);
+    let label = read.model.zone.label(t);
     let view = match i.view {
         Some(v) if [v.x_m, v.y_m, v.width_m].iter().all(|x| x.is_finite()) && v.width_m > 0.0 => {
             Some((geo::Coord { x: v.x_m, y: v.y_m }, v.width_m))
@@ -265,12 +268,12 @@ fn plan_job(input: JsValue) -> Result<PlanJob, JsError> {
         }
         None => None,
     };
-    Ok(PlanJob { model: read.model, study, when, wgs84: read.from_geojson, view, palette: i.palette.palette()? })
+    Ok(PlanJob { model: read.model, study, when, label, wgs84: read.from_geojson, view, palette: i.palette.palette()? })
 }
 
 impl PlanJob {
     fn draw(&self, d: &mut dyn crate::render::Draw, layer: Option<&PlanLayer>) -> crate::render::PlanFrame {
-        let plan = crate::render::ShadowPlan::of_study(&self.model, &self.study, &self.when);
+        let plan = crate::render::ShadowPlan::of_study(&self.model, &self.study, &self.label);
         let extras = crate::render::PlanExtras { layer: layer.map(PlanLayer::parts), view: self.view };
         crate::render::draw_shadow_plan(&mut Restyle { inner: d, palette: self.palette }, &plan, &extras)
     }

@@ -89,7 +89,7 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
     let when = args::rfc3339(t, &zone);
     if a.png.is_some() || a.svg.is_some() {
         use sunlot::render::{draw_shadow_plan, Pixmap, PlanExtras, ShadowPlan, Svg, FIGURE_PX};
-        let plan = ShadowPlan::of_study(&model, &study, &when);
+        let plan = ShadowPlan::of_study(&model, &study, &zone.label(t));
         if let Some(path) = &a.png {
             let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
             draw_shadow_plan(&mut px, &plan, &PlanExtras::default());
