@@ -192,7 +192,10 @@ fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::
 
 /// Draws the sun-path diagram onto `canvas` (sized by the page).
 #[wasm_bindgen(js_name = drawSkyChart)]
-pub fn draw_sky_chart_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
+pub fn draw_sky_chart_js(
+    canvas: &HtmlCanvasElement,
+    #[wasm_bindgen(unchecked_param_type = "SkyInput")] input: JsValue,
+) -> Result<(), JsError> {
     let (chart, palette) = sky_chart(input)?;
     let mut surface = Canvas::new(canvas)?;
     crate::render::draw_sky_chart(&mut Restyle { inner: &mut surface, palette }, &chart).map_err(super::err)
@@ -200,7 +203,11 @@ pub fn draw_sky_chart_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<(
 
 /// The sun-path diagram as an SVG document, `width` × `height` pixels: the same drawing as the canvas.
 #[wasm_bindgen(js_name = skyChartSvg)]
-pub fn sky_chart_svg(input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+pub fn sky_chart_svg(
+    #[wasm_bindgen(unchecked_param_type = "SkyInput")] input: JsValue,
+    width: u32,
+    height: u32,
+) -> Result<String, JsError> {
     let (chart, palette) = sky_chart(input)?;
     let mut svg = crate::render::Svg::new(width, height);
     crate::render::draw_sky_chart(&mut Restyle { inner: &mut svg, palette }, &chart).map_err(super::err)?;
@@ -282,7 +289,7 @@ impl PlanJob {
 /// The shadows at a moment as GeoJSON text (each feature's shadow, the unions and the areas with
 /// their shaded figures; WGS84 when the site came from GeoJSON, else plan metres).
 #[wasm_bindgen(js_name = shadowsGeojson)]
-pub fn shadows_geojson(input: JsValue) -> Result<String, JsError> {
+pub fn shadows_geojson(#[wasm_bindgen(unchecked_param_type = "PlanInput")] input: JsValue) -> Result<String, JsError> {
     let j = plan_job(input)?;
     Ok(crate::shadow::study_geojson(&j.model, &j.study, &j.when, j.wgs84))
 }
@@ -291,8 +298,11 @@ pub fn shadows_geojson(input: JsValue) -> Result<String, JsError> {
 /// [`PlanLayer::draw_plan`]). Returns how figure pixels map to the plan: `{xAtLeftM, yAtTopM, pxPerM, box}`:
 /// plan x = xAtLeftM + px / pxPerM, plan y = yAtTopM − py / pxPerM, in the figure's pixels (before
 /// any high-DPI scale), metres; `box` = `[x, y, width, height]` is the plan's box in those pixels.
-#[wasm_bindgen(js_name = drawShadowPlan)]
-pub fn draw_shadow_plan_js(canvas: &HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = drawShadowPlan, unchecked_return_type = "PlanFrame")]
+pub fn draw_shadow_plan_js(
+    canvas: &HtmlCanvasElement,
+    #[wasm_bindgen(unchecked_param_type = "PlanInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
     draw_plan(canvas, input, None)
 }
 
@@ -312,7 +322,11 @@ pub(crate) fn draw_plan(
 
 /// The shadow plan as an SVG document, `width` × `height` pixels.
 #[wasm_bindgen(js_name = shadowPlanSvg)]
-pub fn shadow_plan_svg(input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+pub fn shadow_plan_svg(
+    #[wasm_bindgen(unchecked_param_type = "PlanInput")] input: JsValue,
+    width: u32,
+    height: u32,
+) -> Result<String, JsError> {
     plan_svg(input, width, height, None)
 }
 

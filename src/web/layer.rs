@@ -72,7 +72,10 @@ impl PlanLayer {
     /// `new PlanLayer({grid, label, unit, rangeLo?, rangeHi?}, values)`: `grid` as a map call
     /// returns it, `values` its Float64Array (NaN outside the areas).
     #[wasm_bindgen(constructor)]
-    pub fn new(input: JsValue, values: &[f64]) -> Result<PlanLayer, JsError> {
+    pub fn new(
+        #[wasm_bindgen(unchecked_param_type = "LayerInput")] input: JsValue,
+        values: &[f64],
+    ) -> Result<PlanLayer, JsError> {
         let i: LayerIn = read(input, "PlanLayer")?;
         let grid = grid_of(i.grid, values)?;
         let finite = values.iter().copied().filter(|v| v.is_finite());
@@ -90,28 +93,46 @@ impl PlanLayer {
 
     /// Draws the shadow plan (input as `drawShadowPlan`) with this map under the shadows and its
     /// legend; returns the same pixel-to-plan mapping.
-    #[wasm_bindgen(js_name = drawPlan)]
-    pub fn draw_plan(&self, canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
+    #[wasm_bindgen(js_name = drawPlan, unchecked_return_type = "PlanFrame")]
+    pub fn draw_plan(
+        &self,
+        canvas: &web_sys::HtmlCanvasElement,
+        #[wasm_bindgen(unchecked_param_type = "PlanInput")] input: JsValue,
+    ) -> Result<JsValue, JsError> {
         super::canvas::draw_plan(canvas, input, Some(self))
     }
 
     /// The shadow plan with this map as an SVG document, `width` × `height` pixels.
     #[wasm_bindgen(js_name = planSvg)]
-    pub fn plan_svg(&self, input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+    pub fn plan_svg(
+        &self,
+        #[wasm_bindgen(unchecked_param_type = "PlanInput")] input: JsValue,
+        width: u32,
+        height: u32,
+    ) -> Result<String, JsError> {
         super::canvas::plan_svg(input, width, height, Some(self))
     }
 
     /// Draws the map alone as a heat-map figure (as the CLI's PNG): `drawMap(canvas, {site, title,
     /// subtitle, palette?})`.
     #[wasm_bindgen(js_name = drawMap)]
-    pub fn draw_map(&self, canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> Result<(), JsError> {
+    pub fn draw_map(
+        &self,
+        canvas: &web_sys::HtmlCanvasElement,
+        #[wasm_bindgen(unchecked_param_type = "LayerFigureInput")] input: JsValue,
+    ) -> Result<(), JsError> {
         let mut surface = super::Canvas::new(canvas)?;
         self.heat_map(input, &mut surface)
     }
 
     /// The heat-map figure as an SVG document, `width` × `height` pixels.
     #[wasm_bindgen(js_name = mapSvg)]
-    pub fn map_svg(&self, input: JsValue, width: u32, height: u32) -> Result<String, JsError> {
+    pub fn map_svg(
+        &self,
+        #[wasm_bindgen(unchecked_param_type = "LayerFigureInput")] input: JsValue,
+        width: u32,
+        height: u32,
+    ) -> Result<String, JsError> {
         let mut svg = crate::render::Svg::new(width, height);
         self.heat_map(input, &mut svg)?;
         Ok(svg.finish())
@@ -178,7 +199,10 @@ struct MapGeojsonIn {
 /// A map as GeoJSON text: `mapGeojson({site, grid, name, title?, period?}, values)`, each cell with a
 /// value as a square polygon carrying it (WGS84 when the site came from GeoJSON, else plan metres).
 #[wasm_bindgen(js_name = mapGeojson)]
-pub fn map_geojson_js(input: JsValue, values: &[f64]) -> Result<String, JsError> {
+pub fn map_geojson_js(
+    #[wasm_bindgen(unchecked_param_type = "MapGeojsonInput")] input: JsValue,
+    values: &[f64],
+) -> Result<String, JsError> {
     let i: MapGeojsonIn = read(input, "mapGeojson")?;
     let read = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?;
     let grid = grid_of(i.grid, values)?;
@@ -228,8 +252,10 @@ struct UnderlayIn {
 /// planA: [xM, yM], distanceM, bearingDeg?})` → `{a, b, c, d, e, f}` with plan x = a·u + c·v + e,
 /// y = b·u + d·v + f (image pixels u right, v down). `bearingDeg` is the plan bearing from A to B
 /// (clockwise from the plan's north); without it the image's up is the plan's north.
-#[wasm_bindgen(js_name = underlayPlacement)]
-pub fn underlay_placement(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = underlayPlacement, unchecked_return_type = "Placement")]
+pub fn underlay_placement(
+    #[wasm_bindgen(unchecked_param_type = "UnderlayInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
     let i: UnderlayIn = read(input, "underlayPlacement")?;
     let p = crate::site::Placement::from_reference(i.image_a, i.image_b, i.plan_a, i.distance_m, i.bearing_deg)
         .map_err(super::err)?;

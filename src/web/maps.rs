@@ -156,8 +156,11 @@ pub(crate) fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -
 
 /// Hours of direct sun per cell: `{grid, hours: Float64Array, openHours, steps}`. `onProgress(f)` is
 /// called with the fraction done and may return `false` to cancel.
-#[wasm_bindgen(js_name = sunHoursMap)]
-pub fn sun_hours_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = sunHoursMap, unchecked_return_type = "SunHoursMap")]
+pub fn sun_hours_map(
+    #[wasm_bindgen(unchecked_param_type = "MapInput")] input: JsValue,
+    on_progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "sunHoursMap")?;
     let (model, grid, period, massing) = i.parts()?;
     let req = i.request(&model, &grid, period, massing);
@@ -175,8 +178,11 @@ pub fn sun_hours_map(input: JsValue, on_progress: Option<js_sys::Function>) -> R
 }
 
 /// Before and after the proposal: `{grid, before, after, lostH, ratio}` as Float64Arrays.
-#[wasm_bindgen(js_name = compareMap)]
-pub fn compare_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = compareMap, unchecked_return_type = "CompareMap")]
+pub fn compare_map(
+    #[wasm_bindgen(unchecked_param_type = "MapInput")] input: JsValue,
+    on_progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "compareMap")?;
     let (model, grid, period, _) = i.parts()?;
     let req = i.request(&model, &grid, period, Massing::WithProposed);
@@ -203,8 +209,11 @@ struct InsolationIn {
 /// Clear-sky insolation on a horizontal plane per cell (Bird clear sky, beam while in direct sun
 /// plus diffuse times the sky-view factor): `{grid, totalKwhM2, beamKwhM2, diffuseKwhM2, skyView,
 /// sunHours, open: {totalKwhM2, beamKwhM2, diffuseKwhM2, sunHours}}`, maps as Float64Arrays.
-#[wasm_bindgen(js_name = insolationMap)]
-pub fn insolation_map(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = insolationMap, unchecked_return_type = "InsolationMap")]
+pub fn insolation_map(
+    #[wasm_bindgen(unchecked_param_type = "InsolationInput")] input: JsValue,
+    on_progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsError> {
     let i: InsolationIn = read(input, "insolationMap")?;
     let (model, grid, period, massing) = i.map.parts()?;
     let mut atmosphere = crate::sky::BirdAtmosphere::default();
@@ -250,8 +259,8 @@ struct CheckIn {
 }
 
 /// A rule check: the report (rule, date, each area's figures, pass/fail, margins, caution).
-#[wasm_bindgen(js_name = checkRule)]
-pub fn check_rule_js(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "any")]
+pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: CheckIn = read(input, "checkRule")?;
     let model = site(&i.site)?;
     let rule = match (&i.rule, &i.preset) {
@@ -303,8 +312,11 @@ fn tenth() -> f64 {
 }
 
 /// The solar envelope of a lot: `{grid, heightM: Float64Array, steps}`.
-#[wasm_bindgen(js_name = solarEnvelope)]
-pub fn solar_envelope_js(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = solarEnvelope, unchecked_return_type = "Envelope")]
+pub fn solar_envelope_js(
+    #[wasm_bindgen(unchecked_param_type = "EnvelopeInput")] input: JsValue,
+    on_progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsError> {
     let i: EnvelopeIn = read(input, "solarEnvelope")?;
     let model = site(&i.site)?;
     let lot = model
@@ -355,8 +367,10 @@ struct TimelineIn {
 }
 
 /// A point's day: `{intervals: [{from, to, sunlit, by}], sunHours, dayHours}` with local RFC 3339 times.
-#[wasm_bindgen(js_name = pointTimeline)]
-pub fn point_timeline(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = pointTimeline, unchecked_return_type = "Timeline")]
+pub fn point_timeline(
+    #[wasm_bindgen(unchecked_param_type = "TimelineInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
     let i: TimelineIn = read(input, "pointTimeline")?;
     let model = site(&i.site)?;
     let massing = massing_of(i.massing.as_deref())?;
@@ -396,8 +410,11 @@ struct FigureIn {
 
 /// Computes a one-period map and draws its heat-map figure onto `canvas` (the drawing code of the PNG
 /// and SVG exports). Returns `{grid, openHours}`.
-#[wasm_bindgen(js_name = drawMapFigure)]
-pub fn draw_map_figure(canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = drawMapFigure, unchecked_return_type = "{ grid: GridGeometry; openHours: number }")]
+pub fn draw_map_figure(
+    canvas: &web_sys::HtmlCanvasElement,
+    #[wasm_bindgen(unchecked_param_type = "MapFigureInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
     let i: FigureIn = read(input, "drawMapFigure")?;
     let (model, grid, period, massing) = i.map.parts()?;
     let req = i.map.request(&model, &grid, period, massing);
@@ -441,7 +458,7 @@ pub fn draw_map_figure(canvas: &web_sys::HtmlCanvasElement, input: JsValue) -> R
 /// Reads a site (site file or GeoJSON text) and describes it: `{name, fromGeojson, zone, latitudeDeg,
 /// longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}], siteJson}`,
 /// where `siteJson` is the site in the site-file format. Throws an `Error` naming the bad feature.
-#[wasm_bindgen(js_name = readSite)]
+#[wasm_bindgen(js_name = readSite, unchecked_return_type = "SiteSummary")]
 pub fn read_site(text: &str) -> Result<JsValue, JsError> {
     let r = SiteModel::read(text).map_err(|e| JsError::new(&format!("site: {e}")))?;
     let m = &r.model;

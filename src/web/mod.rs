@@ -11,6 +11,7 @@ mod canvas;
 mod layer;
 mod maps;
 mod studies;
+mod types;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
 pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
@@ -111,8 +112,10 @@ fn stamp(t: DateTime<Utc>, zone: &Zone) -> String {
 
 /// The sun's position (NREL SPA) for `{latitudeDeg, longitudeDeg, elevationM?, time | localTime, zone?, fold?,
 /// pressureHpa?, temperatureC?, refraction?, deltaTS?}`. Angles in degrees, azimuth clockwise from north.
-#[wasm_bindgen(js_name = solarPosition)]
-pub fn solar_position(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = solarPosition, unchecked_return_type = "SolarPosition")]
+pub fn solar_position(
+    #[wasm_bindgen(unchecked_param_type = "SolarPositionInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
     let i: PositionIn = read(input, "solarPosition")?;
     let site = i.site.site()?;
     let d = Atmosphere::default();
@@ -183,8 +186,8 @@ struct DayOut {
 
 /// Sunrise, solar noon, sunset, day length (hours) and civil twilight for `{latitudeDeg, longitudeDeg,
 /// elevationM?, date, zone, deltaTS?}`; times are RFC 3339 in `zone`, `null` when the sun does not cross.
-#[wasm_bindgen(js_name = dayEvents)]
-pub fn day_events(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = dayEvents, unchecked_return_type = "DayEvents")]
+pub fn day_events(#[wasm_bindgen(unchecked_param_type = "DayEventsInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: DayIn = read(input, "dayEvents")?;
     let site = i.site.site()?;
     let z = zone(Some(&i.zone))?.unwrap_or_else(Zone::utc);
@@ -225,7 +228,7 @@ struct SeasonsOut {
 }
 
 /// The equinox and solstice instants of `year`, as RFC 3339 strings in `zone` (UTC when omitted).
-#[wasm_bindgen(js_name = seasonInstants)]
+#[wasm_bindgen(js_name = seasonInstants, unchecked_return_type = "SeasonInstants")]
 pub fn season_instants(year: i32, zone_name: Option<String>) -> Result<JsValue, JsError> {
     let z = zone(zone_name.as_deref())?.unwrap_or_else(Zone::utc);
     let s = solar::season_instants(year, DeltaT::EspenakMeeus).map_err(err)?;
@@ -288,8 +291,8 @@ struct ClearSkyOut {
 /// Bird clear-sky irradiance (W/m²) for `{zenithDeg, dayOfYear, atmosphere?}`; `atmosphere` may set
 /// `aod380`, `aod500`, `precipitableWaterCm`, `ozoneCm`, `forwardScattering`, `albedo`, `pressureHpa`
 /// (defaults: a clear rural sky, see the core's `BirdAtmosphere`).
-#[wasm_bindgen(js_name = clearSky)]
-pub fn clear_sky(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = clearSky, unchecked_return_type = "ClearSky")]
+pub fn clear_sky(#[wasm_bindgen(unchecked_param_type = "ClearSkyInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: ClearSkyIn = read(input, "clearSky")?;
     if !i.zenith_deg.is_finite() {
         return Err(JsError::new(&format!("clearSky: zenithDeg must be a finite number, got {}", i.zenith_deg)));

@@ -30,8 +30,10 @@ fn sixty() -> u32 {
 /// The shadow-length table of a day: `[{time, altitudeDeg, azimuthDeg, lengthPerM, directionDeg,
 /// tipsM: {volumeId: metres}}]` from sunrise to sunset every `stepMin` minutes (default 60) from local
 /// midnight; times local RFC 3339. Shadow length per metre of height is 1 / tan(altitude) on flat ground.
-#[wasm_bindgen(js_name = shadowTable)]
-pub fn shadow_table_js(input: JsValue) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = shadowTable, unchecked_return_type = "ShadowTableRow[]")]
+pub fn shadow_table_js(
+    #[wasm_bindgen(unchecked_param_type = "ShadowTableInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
     let i: TableIn = read(input, "shadowTable")?;
     let model = site(&i.site)?;
     let date = chrono::NaiveDate::parse_from_str(&i.date, "%Y-%m-%d")
@@ -75,8 +77,11 @@ fn five() -> f64 {
 
 /// A point's year: `{year, skyView, months: [{month, sunHours, openHours, kwhM2, openKwhM2}]}` — hours
 /// of direct sun and clear-sky horizontal insolation per month at the point against an open point.
-#[wasm_bindgen(js_name = yearProfile)]
-pub fn year_profile_js(input: JsValue, on_progress: Option<js_sys::Function>) -> Result<JsValue, JsError> {
+#[wasm_bindgen(js_name = yearProfile, unchecked_return_type = "YearProfile")]
+pub fn year_profile_js(
+    #[wasm_bindgen(unchecked_param_type = "YearProfileInput")] input: JsValue,
+    on_progress: Option<js_sys::Function>,
+) -> Result<JsValue, JsError> {
     let i: PointIn = read(input, "yearProfile")?;
     let model = site(&i.site)?;
     let year = i.year.ok_or_else(|| JsError::new("year: missing"))?;
@@ -105,7 +110,7 @@ pub fn year_profile_js(input: JsValue, on_progress: Option<js_sys::Function>) ->
 /// A point's sky-view factor (0–1, the cosine-weighted share of the sky it sees past the massing,
 /// in patches of `skyStepDeg`, default 5°).
 #[wasm_bindgen(js_name = skyView)]
-pub fn sky_view_js(input: JsValue) -> Result<f64, JsError> {
+pub fn sky_view_js(#[wasm_bindgen(unchecked_param_type = "SkyViewInput")] input: JsValue) -> Result<f64, JsError> {
     let i: PointIn = read(input, "skyView")?;
     let model = site(&i.site)?;
     crate::exposure::sky_view_at(

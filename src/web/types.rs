@@ -1,0 +1,69 @@
+//! TypeScript declarations of the facade's plain-object inputs and outputs (wasm32 only), written into
+//! `sunlot.d.ts` beside the generated signatures. Units are in the names; times are RFC 3339 strings
+//! (local wall times `YYYY-MM-DDTHH:MM` where the name says `localTime`).
+
+use wasm_bindgen::prelude::*;
+
+#[wasm_bindgen(typescript_custom_section)]
+const TYPES: &'static str = r#"
+/** A site file (JSON) or a GeoJSON FeatureCollection, as text. */
+export type SiteText = string;
+export type Massing = "existing" | "withProposed";
+export interface SolarPositionInput { latitudeDeg: number; longitudeDeg: number; elevationM?: number;
+  time?: string; localTime?: string; zone?: string; fold?: "earlier" | "later"; pressureHpa?: number;
+  temperatureC?: number; refraction?: boolean; deltaTS?: number; }
+export interface SolarPosition { time: string; zone: string; zenithDeg: number; altitudeDeg: number;
+  azimuthDeg: number; altitudeUnrefractedDeg: number; declinationDeg: number; hourAngleDeg: number;
+  rightAscensionDeg: number; equationOfTimeMin: number; earthSunDistanceAu: number; deltaTS: number; sunUp: boolean; }
+export interface DayEventsInput { latitudeDeg: number; longitudeDeg: number; elevationM?: number; date: string; zone?: string; }
+export interface DayEvents { date: string; zone: string; sun: "risesAndSets" | "alwaysUp" | "alwaysDown";
+  sunrise: string | null; solarNoon: string; sunset: string | null; dayLengthH: number; noonAltitudeDeg: number;
+  civilDawn: string | null; civilDusk: string | null; }
+export interface SeasonInstants { year: number; marchEquinox: string; juneSolstice: string;
+  septemberEquinox: string; decemberSolstice: string; }
+export interface ClearSkyInput { zenithDeg: number; dayOfYear: number; atmosphere?: Record<string, number>; }
+export interface ClearSky { airMass: number; extraterrestrialWM2: number; dniWM2: number; dhiWM2: number; ghiWM2: number; }
+export interface SiteSummary { name: string; fromGeojson: boolean; zone: string; latitudeDeg: number; longitudeDeg: number;
+  areas: { id: string; name: string; kind: string; status: "existing" | "proposed" }[];
+  volumes: { id: string; status: "existing" | "proposed"; baseM: number; topM: number }[]; siteJson: string; }
+/** Row-major from the bottom row; cell (c, r) is centred at originXM + (col0 + c + 0.5)·cellM, originYM + (row0 + r + 0.5)·cellM. */
+export interface GridGeometry { cols: number; rows: number; originXM: number; originYM: number; col0: number; row0: number; cellM: number; }
+export interface MapInput { site: SiteText; areas?: string[]; cellM?: number; date: string; to?: string;
+  window?: string; stepMin?: number; planeM?: number; massing?: Massing; maxCells?: number; }
+export interface SunHoursMap { grid: GridGeometry; hours: Float64Array; openHours: number; steps: number; }
+export interface CompareMap { grid: GridGeometry; openHours: number; before: Float64Array; after: Float64Array;
+  lostH: Float64Array; ratio: Float64Array; }
+export interface InsolationInput extends MapInput { aod500?: number; skyStepDeg?: number; }
+export interface InsolationMap { grid: GridGeometry; totalKwhM2: Float64Array; beamKwhM2: Float64Array;
+  diffuseKwhM2: Float64Array; skyView: Float64Array; sunHours: Float64Array;
+  open: { totalKwhM2: number; beamKwhM2: number; diffuseKwhM2: number; sunHours: number }; }
+export interface CheckInput { site: SiteText; preset?: string; rule?: object; year: number; cellM?: number; stepMin?: number; }
+export interface EnvelopeInput { site: SiteText; lot: string; protect?: string[]; date: string; to?: string; window?: string;
+  stepMin?: number; cellM?: number; maxHeightM?: number; heightStepM?: number; }
+export interface Envelope { grid: GridGeometry; heightM: Float64Array; steps: number; }
+export interface PointInput { site: SiteText; xM: number; yM: number; zM?: number; massing?: Massing; }
+export interface TimelineInput extends PointInput { date: string; }
+export interface Timeline { intervals: { from: string; to: string; sunlit: boolean; by: string | null }[]; sunHours: number; dayHours: number; }
+export interface YearProfileInput extends PointInput { year: number; stepMin?: number; skyStepDeg?: number; }
+export interface YearProfile { year: number; skyView: number;
+  months: { month: number; sunHours: number; openHours: number; kwhM2: number; openKwhM2: number }[]; }
+export interface SkyViewInput extends PointInput { skyStepDeg?: number; }
+export interface ShadowTableInput { site: SiteText; date: string; stepMin?: number; }
+export interface ShadowTableRow { time: string; altitudeDeg: number; azimuthDeg: number; lengthPerM: number;
+  directionDeg: number; tipsM: Record<string, number>; }
+/** CSS hex colours #rrggbb. */
+export interface Palette { ink?: string; paper?: string; proposed?: string; }
+export interface PlanInput { site: SiteText; localTime: string; view?: { xM: number; yM: number; widthM: number }; palette?: Palette; }
+export interface PlanFrame { xAtLeftM: number; yAtTopM: number; pxPerM: number; box: [number, number, number, number]; }
+export interface SkyInput { site: SiteText; year: number; localTime?: string; dates?: string[]; xM?: number; yM?: number;
+  zM?: number; massing?: Massing; projection?: "stereographic" | "equidistant" | "rectangular"; palette?: Palette; }
+export interface MapFigureInput extends MapInput { show?: "hours" | "lost"; palette?: Palette; }
+export interface LayerInput { grid: GridGeometry; label: string; unit: string; rangeLo?: number; rangeHi?: number; }
+export interface LayerFigureInput { site: SiteText; title: string; subtitle?: string; palette?: Palette; }
+export interface MapGeojsonInput { site: SiteText; grid: GridGeometry; name: string; title?: string; period?: string; }
+export interface UnderlayInput { imageA: [number, number]; imageB: [number, number]; planA: [number, number];
+  distanceM: number; bearingDeg?: number; }
+export interface Placement { a: number; b: number; c: number; d: number; e: number; f: number; }
+/** Called with the fraction done; return false to cancel (the call then throws Error("cancelled")). */
+export type Progress = (fraction: number) => boolean;
+"#;
