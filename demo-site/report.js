@@ -220,10 +220,9 @@
   /** The rule check against the BRE BR 209 amenity preset, with its citation and the caution. */
   function ruleTable(m, site, parent) {
     const r = m.checkRule({ site, preset: "bre-br209-amenity", year: 2026 });
-    const v = (a, snake, camel) => (a[snake] !== undefined ? a[snake] : a[camel]);
-    const rows = r.areas.map(a => [a.id, a.name, fixed(100 * v(a, "before_share", "beforeShare"), 1),
-      fixed(100 * v(a, "after_share", "afterShare"), 1), fixed(v(a, "ratio", "ratio"), 3), a.passes ? "passes" : "fails"]);
-    parent.append(table("rule-check", `${r.rule.title} — checked on ${r.date}, ${v(r, "cell_m", "cellM")} m cells, ${v(r, "step_min", "stepMin")}-minute steps`,
+    const rows = r.areas.map(a => [a.id, a.name, fixed(100 * a.beforeShare, 1), fixed(100 * a.afterShare, 1),
+      fixed(a.ratio, 3), a.passes ? "passes" : "fails"]);
+    parent.append(table("rule-check", `${r.rule.title} — checked on ${r.date}, ${r.cellM} m cells, ${r.stepMin}-minute steps`,
       ["Area", "Name", "In 2 h+ sun now %", "With proposal %", "Ratio after / before", "Result"], rows));
     parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
     parent.append(el("p", { class: "caution", text: r.caution }));

@@ -155,6 +155,10 @@ fn rule_checks_envelopes_and_timelines_through_the_facade() {
     assert!(get(&report, "caution").as_string().unwrap().contains("licensed professional"));
     let areas: js_sys::Array = get(&report, "areas").into();
     assert!(areas.length() >= 5);
+    // camelCase like every other call: the core's snake_case report keys are converted.
+    let first = areas.get(0);
+    assert!(num(&first, "beforeShare") >= num(&first, "afterShare"));
+    assert!(get(&report, "rule").is_object() && get(&get(&report, "rule"), "minHours").as_f64() == Some(2.0));
     let env = sunlot::web::solar_envelope_js(
         js(&format!(r#"{{"site": {site}, "lot": "lot-14", "date": "2026-03-21"}}"#)),
         None,

@@ -60,6 +60,35 @@ pub(crate) fn massing_of(text: Option<&str>) -> Result<Massing, JsError> {
     }
 }
 
+/// `value` with every object key turned from snake_case to camelCase (`before_share` → `beforeShare`),
+/// the JavaScript side's naming, for reports whose core types are written in snake_case for the CLI.
+pub(crate) fn camel_keys(value: serde_json::Value) -> serde_json::Value {
+    use serde_json::Value;
+    match value {
+        Value::Object(map) => Value::Object(
+            map.into_iter()
+                .map(|(k, v)| {
+                    let mut out = String::with_capacity(k.len());
+                    let mut up = false;
+                    for ch in k.chars() {
+                        if ch == '_' {
+                            up = true;
+                        } else if up {
+                            out.extend(ch.to_uppercase());
+                            up = false;
+                        } else {
+                            out.push(ch);
+                        }
+                    }
+                    (out, camel_keys(v))
+                })
+                .collect(),
+        ),
+        Value::Array(items) => Value::Array(items.into_iter().map(camel_keys).collect()),
+        other => other,
+    }
+}
+
 fn half() -> f64 {
     0.5
 }
@@ -259,7 +288,7 @@ struct CheckIn {
 }
 
 /// A rule check: the report (rule, date, each area's figures, pass/fail, margins, caution).
-#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "any")]
+#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "CheckReport")]
 pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: CheckIn = read(input, "checkRule")?;
     let model = site(&i.site)?;
@@ -275,7 +304,8 @@ pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input:
         step_min: i.step_min,
         delta_t: DeltaT::EspenakMeeus,
     };
-    write(&check_rule(&req, |_| true).map_err(err)?)
+    let report = serde_json::to_value(check_rule(&req, |_| true).map_err(err)?).map_err(err)?;
+    write(&camel_keys(report))
 }
 
 #[derive(Deserialize)]
