@@ -316,3 +316,72 @@ fn insolation_layers_views_palettes_and_underlays_through_the_facade() {
     )))
     .contains("imageA"));
 }
+
+/// Hostile input to the calls added for the widgets and report pages: every one throws an `Error`
+/// (never a trap, which would end this test), and the message names a field.
+#[wasm_bindgen_test]
+fn hostile_input_to_the_newer_calls_throws_and_never_traps() {
+    let site = demo_site_js();
+    let msg = |r: Result<JsValue, wasm_bindgen::JsError>| error_message(r);
+    // (input, call, a word the error must hold, or None where a clean answer is fine too)
+    let bad = |extra: &str| format!(r#"{{"site": {site}, {extra}}}"#);
+    let cases: Vec<(String, &str, Option<&str>)> = vec![
+        (bad(r#""date": "2026-03-21", "stepMin": 0"#), "shadowTable", Some("step")),
+        (bad(r#""date": "2026-03-21", "stepMin": 100000"#), "shadowTable", Some("step")),
+        (bad(r#""date": "31/12/2026""#), "shadowTable", Some("date")),
+        (bad(r#""xM": 1e308, "yM": 0, "year": 2026"#), "yearProfile", None),
+        (bad(r#""xM": 14, "yM": 41, "year": 99999"#), "yearProfile", Some("year")),
+        (bad(r#""xM": 14, "yM": 41, "year": 2026, "stepMin": 0"#), "yearProfile", Some("step")),
+        (bad(r#""xM": 14, "yM": 41"#), "yearProfile", Some("year")),
+        (bad(r#""xM": 14, "yM": 41, "skyStepDeg": 0"#), "skyView", Some("step")),
+        (bad(r#""xM": 14, "yM": 41, "skyStepDeg": -5"#), "skyView", Some("step")),
+        (bad(r#""date": "2026-03-21", "cellM": -1"#), "insolationMap", Some("cellM")),
+        (bad(r#""date": "2026-03-21", "aod500": -3"#), "insolationMap", Some("aod")),
+        (bad(r#""date": "2026-03-21", "skyStepDeg": 1e9"#), "insolationMap", None),
+        (bad(r#""localTime": "2026-03-21T12:00", "view": {"xM": 0, "yM": 0, "widthM": 1e308}"#), "plan", None),
+        (bad(r#""localTime": "2026-03-21T25:00""#), "plan", Some("localTime")),
+        (bad(r#""localTime": "2026-03-29T01:30""#), "plan", Some("localTime")),
+        (
+            r#"{"imageA": [0, 0], "imageB": [1e308, 1e308], "planA": [0, 0], "distanceM": 1e308}"#.to_string(),
+            "underlay",
+            None,
+        ),
+        (
+            r#"{"imageA": [0, 0], "imageB": [1, 0], "planA": [0, 0], "distanceM": 0}"#.to_string(),
+            "underlay",
+            Some("distanceM"),
+        ),
+    ];
+    for (input, call, want) in cases {
+        let r = match call {
+            "shadowTable" => sunlot::web::shadow_table_js(js(&input)),
+            "yearProfile" => sunlot::web::year_profile_js(js(&input), None),
+            "skyView" => sunlot::web::sky_view_js(js(&input)).map(JsValue::from),
+            "insolationMap" => sunlot::web::insolation_map(js(&input), None),
+            "plan" => sunlot::web::shadows_geojson(js(&input)).map(JsValue::from),
+            _ => sunlot::web::underlay_placement(js(&input)),
+        };
+        // Known-bad input is refused naming the field; the rest (a huge view is clamped, a far point
+        // or a huge placement is computed or refused) only has to come back without a trap.
+        match (want, r) {
+            (Some(field), r) => {
+                let m = msg(r);
+                assert!(m.to_lowercase().contains(&field.to_lowercase()), "{call} {input}: {m}");
+            }
+            (None, Err(e)) => assert!(!msg(Err(e)).is_empty(), "{call} {input}: an empty message"),
+            (None, Ok(_)) => {}
+        }
+    }
+    // A layer whose grid does not fit its values, or whose size overflows, is refused.
+    let grid = r#"{"grid": {"cols": 4294967295, "rows": 4294967295, "originXM": 0, "originYM": 0, "col0": 0,
+                   "row0": 0, "cellM": 1}, "label": "x", "unit": "h"}"#;
+    assert!(msg(sunlot::web::PlanLayer::new(js(grid), &[1.0, 2.0]).map(JsValue::from)).contains("grid"));
+    let nan_cell = grid.replace("4294967295", "1").replace(r#""cellM": 1"#, r#""cellM": -0.5"#);
+    assert!(msg(sunlot::web::PlanLayer::new(js(&nan_cell), &[1.0]).map(JsValue::from)).contains("grid"));
+    let flat = grid.replace("4294967295", "1");
+    let r = sunlot::web::PlanLayer::new(
+        js(&flat.replace(r#""unit": "h""#, r#""unit": "h", "rangeLo": 5, "rangeHi": 5"#)),
+        &[1.0],
+    );
+    assert!(msg(r.map(JsValue::from)).contains("range"));
+}
