@@ -117,8 +117,13 @@
       const sky = figure($("figures"), "sunlot-sky", { id: "sun-sky", date: all[0].date, time: "12:00",
         point: "31.5,26,1.5" }, "Sun path over the year and the skyline from the middle of 16's garden (1.5 m up)",
       ["png", "svg"], site);
-      $("tables").append(table("seasons", `Equinoxes and solstices ${year}, local time (${info.zone})`,
-        ["Event", "Instant"], all.map(s => [s.name, s.instant])));
+      // Local clock time with the zone's abbreviation, for reading; the RFC 3339 instant for exact use.
+      const local = new Intl.DateTimeFormat("en-GB", { timeZone: info.zone, dateStyle: "medium", timeStyle: "short" });
+      const abbr = new Intl.DateTimeFormat("en-GB", { timeZone: info.zone, timeZoneName: "short" });
+      const zoneOf = t => (abbr.formatToParts(new Date(t)).find(p => p.type === "timeZoneName") || {}).value || "";
+      $("tables").append(table("seasons", `Equinoxes and solstices ${year} (${info.zone})`,
+        ["Event", "Local time", "Instant (RFC 3339)"],
+        all.map(s => [s.name, `${local.format(new Date(s.instant))} ${zoneOf(s.instant)}`, s.instant])));
       const rows = all.map(s => {
         const d = m.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date: s.date, zone: info.zone });
         return [s.date, s.name, hhmm(d.civilDawn), hhmm(d.sunrise), hhmm(d.solarNoon), fixed(d.noonAltitudeDeg),
