@@ -26,13 +26,6 @@
   ];
 
 
-  function download(name, blob) {
-    const a = el("a", { href: URL.createObjectURL(blob), download: name });
-    document.body.append(a);
-    a.click();
-    a.remove();
-  }
-
   /** Export buttons for a widget or a table. */
   function exports(target, stem, kinds) {
     const span = el("span", { class: "exports" });
@@ -40,14 +33,9 @@
       const b = el("button", { type: "button", "data-export": `${stem}.${kind}`, text: kind.toUpperCase() });
       b.addEventListener("click", async () => {
         const name = `hollin-vale-${stem}.${kind}`;
-        if (target instanceof HTMLTableElement) download(name, new Blob([tableCsv(target)], { type: "text/csv" }));
-        else if (kind === "png") download(name, await target.png());
-        else if (kind === "svg") download(name, new Blob([target.svg()], { type: "image/svg+xml" }));
-        else if (kind === "csv") download(name, new Blob([target.csv()], { type: "text/csv" }));
-        else if (kind === "geojson") {
-          const text = target.localName === "sunlot-plan" ? target.shadowsGeojson() : target.geojson();
-          download(name, new Blob([text], { type: "application/geo+json" }));
-        }
+        if (target instanceof HTMLTableElement) {
+          window.sunlotDownload(name, new Blob([tableCsv(target)], { type: "text/csv" }));
+        } else await target.save(kind, name);
       });
       span.append(" ", b);
     }
@@ -98,7 +86,7 @@
   const PAGES = {
     // The one-page summary for a planning file.
     async summary(m, site, info) {
-      const [march, june, , december] = seasons(m, info, 2026);
+      const [march, , , december] = seasons(m, info, 2026);
       const figs = $("figures");
       const plan = figure(figs, "sunlot-plan", { id: "summary-plan", date: march.date, time: "15:00" },
         `Shadows at 15:00 on the March equinox (${march.date})`, ["png", "svg", "geojson"], site);
@@ -108,7 +96,6 @@
       windowTable(m, site, $("windows"), [march, december]);
       await Promise.all([plan.drawn, lost.drawn]);
       $("print").addEventListener("click", () => window.print());
-      void june;
     },
 
     async sun(m, site, info) {

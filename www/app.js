@@ -9,14 +9,6 @@
   // Milestones since navigation began, for benches/page_speed.mjs.
   window.sunlotTimes = { scripts: performance.now() };
 
-  function download(name, blob) {
-    const a = document.createElement("a");
-    a.href = URL.createObjectURL(blob);
-    a.download = name;
-    document.body.appendChild(a);
-    a.click();
-    a.remove();
-  }
   function showError(e) {
     $("error").hidden = false;
     $("error").textContent = String(e && e.message ? e.message : e);
@@ -59,9 +51,14 @@
       refreshMap();
     }
 
+    // The summary depends on the site, date and point, not the time: kept until one of them changes.
+    let summaryKey = null;
     function summary() {
       const { date } = moment();
       const [xM, yM, zM] = point();
+      const key = `${date}/${xM},${yM},${zM}\n${site}`;
+      if (key === summaryKey) return;
+      summaryKey = key;
       const day = module.dayEvents({ latitudeDeg: info.latitudeDeg, longitudeDeg: info.longitudeDeg, date, zone: info.zone });
       const line = module.pointTimeline({ site, xM, yM, zM, date });
       const spans = line.intervals.map(i =>
@@ -92,7 +89,7 @@
     function refreshMap(force) {
       const kind = $("layer").value, { date } = moment();
       const yearly = kind === "year-hours";
-      const key = `${kind}/${yearly ? date.slice(0, 4) : date}/${site.length}/${site}`;
+      const key = `${kind}/${yearly ? date.slice(0, 4) : date}\n${site}`;
       if (!force && key === mapKey) return;
       mapKey = key;
       if (job) job.cancel();
@@ -153,14 +150,7 @@
       const el = $(which);
       const { date, time } = moment();
       const name = `sunlot-${which}-${date}T${time.replace(":", "")}.${kind}`;
-      try {
-        if (kind === "png") download(name, await el.png());
-        else if (kind === "csv") download(name, new Blob([el.csv()], { type: "text/csv" }));
-        else if (kind === "geojson") {
-          const text = which === "plan" ? el.shadowsGeojson() : el.geojson();
-          download(name, new Blob([text], { type: "application/geo+json" }));
-        } else download(name, new Blob([el.svg()], { type: "image/svg+xml" }));
-      } catch (e) { showError(`export: ${e.message}`); }
+      try { await el.save(kind, name); } catch (e) { showError(`export: ${e.message}`); }
     }));
 
     $("import").addEventListener("change", async () => {
@@ -178,7 +168,7 @@
     });
     $("reset-demo").addEventListener("click", async () => { await useSite(module.demoSiteText(), ""); redraw(); });
     $("export-site").addEventListener("click", () =>
-      download("site.sunlot.json", new Blob([site], { type: "application/json" })));
+      window.sunlotDownload("site.sunlot.json", new Blob([site], { type: "application/json" })));
 
     // ---- editing --------------------------------------------------------------------------------
     const updateEditButtons = () => { $("undo").disabled = !plan.canUndo; $("redo").disabled = !plan.canRedo; };

@@ -39,7 +39,8 @@
       values: o => o.hours, top: o => o.openHours },
     "envelope": { fn: "solarEnvelope", title: "Solar envelope of the lot (09:00–15:00)", label: "envelope height",
       unit: "m", column: "envelope_height_m",
-      input: (site, date, info) => ({ site, lot: envelopeLot(info), date, window: "09:00-15:00", stepMin: 15 }),
+      input: (site, date, module) => ({ site, lot: envelopeLot(module.readSite(site)), date, window: "09:00-15:00",
+        stepMin: 15 }),
       values: o => o.heightM, top: o => largest(o.heightM, 1) },
   };
 
@@ -61,10 +62,22 @@
   const minutesOf = t => { const [h, m] = t.split(":").map(Number); return h * 60 + m; };
   const timeOf = m => `${pad(Math.floor(m / 60))}:${pad(m % 60)}`;
 
-  /** A CSS colour as #rrggbb (any CSS colour syntax), or undefined. */
+  /** Hands `blob` to the browser as a download called `name`. */
+  function download(name, blob) {
+    const a = document.createElement("a");
+    a.href = URL.createObjectURL(blob);
+    a.download = name;
+    document.body.appendChild(a);
+    a.click();
+    a.remove();
+  }
+
+  /** A CSS colour as #rrggbb (any CSS colour syntax), or undefined. One scratch context: figures ask
+   * on every frame. */
+  let scratch = null;
   function hex(css) {
     if (!css || !css.trim()) return undefined;
-    const c = document.createElement("canvas").getContext("2d");
+    const c = scratch || (scratch = document.createElement("canvas").getContext("2d"));
     c.fillStyle = "#000000";
     c.fillStyle = css.trim();
     return /^#[0-9a-f]{6}$/i.test(c.fillStyle) ? c.fillStyle : undefined;
@@ -170,6 +183,18 @@
       return new Promise(resolve => this.canvas.toBlob(resolve, "image/png"));
     }
 
+    /** The figure as a file of `kind`: "png" or "svg"; for maps also "csv" and "geojson" (the
+     * cells); for the plan "geojson" (its shadows). */
+    async blob(kind) {
+      if (kind === "png") return this.png();
+      const types = { svg: "image/svg+xml", csv: "text/csv", geojson: "application/geo+json" };
+      if (!types[kind] || !this[kind]) throw new Error(`export: this figure has no ${kind}`);
+      return new Blob([this[kind]()], { type: types[kind] });
+    }
+
+    /** Saves the figure as `kind` (see blob) to a file called `name`, as the browser downloads. */
+    async save(kind, name) { download(name, await this.blob(kind)); }
+
     /** Figure pixels of a pointer event. */
     figurePx(e) {
       const r = this.canvas.getBoundingClientRect();
@@ -225,13 +250,13 @@
   function computeMap(module, kind, site, date, onProgress) {
     const spec = MAPS[kind];
     if (!spec) throw new Error(`layer: "${kind}" is not one of ${Object.keys(MAPS).join(", ")}`);
-    const info = module.readSite(site);
-    const job = runInWorker(spec.fn, spec.input(site, date, info), onProgress);
+    const input = spec.input(site, date, module);
+    const job = runInWorker(spec.fn, input, onProgress);
     const promise = job.promise.then(result => {
       const values = spec.values(result);
       const layer = new module.PlanLayer({ grid: result.grid, label: spec.label, unit: spec.unit,
         rangeLo: 0, rangeHi: Math.max(spec.top(result), 1e-6) }, values);
-      return { kind, spec, date, result, values, layer };
+      return { kind, spec, date, input, result, values, layer };
     });
     return { promise, cancel: job.cancel };
   }
@@ -252,14 +277,21 @@
     return rows.join("\n") + "\n";
   }
 
+  /** The period and settings of a computed map, in words. */
   function describeMap(map) {
-    const i = map.spec.input("", map.date, { areas: [{ id: "", kind: "lot" }] });
+    const i = map.input;
     return `${i.date}${i.to ? ` to ${i.to}` : ""}, ${i.window || "sunrise to sunset"}, ${i.cellM || 1} m cells, ` +
       `${i.stepMin}-minute steps`;
   }
 
   /** Mixin: a widget that shows a map it computes for its `layer` attribute, or one it is given. */
   const MapHolder = Base => class extends Base {
+    connectedCallback() {
+      super.connectedCallback();
+      this.ready.then(() => { if (this.hasAttribute("layer")) this.showLayer(this.getAttribute("layer")); });
+    }
+    siteChanged() { if (this.layerKind) this.showLayer(this.layerKind); }
+    attributeChanged(name, value) { if (name === "layer") this.showLayer(value); }
     /** Shows a computed map (from computeMap), or none with null. */
     setMap(map) {
       this.map = map;
@@ -291,12 +323,6 @@
 
   class SunlotMap extends MapHolder(SunlotFigure) {
     constructor() { super(FIGURE); }
-    connectedCallback() {
-      super.connectedCallback();
-      this.ready.then(() => { if (this.hasAttribute("layer")) this.showLayer(this.getAttribute("layer")); });
-    }
-    siteChanged() { if (this.getAttribute("layer")) this.showLayer(this.getAttribute("layer")); }
-    attributeChanged(name, value) { if (name === "layer") this.showLayer(value); }
     input() {
       return { site: this.state.site, title: this.map.spec.title, subtitle: describeMap(this.map), palette: this.palette() };
     }
@@ -353,15 +379,10 @@
       this.listen();
     }
 
-    connectedCallback() {
-      super.connectedCallback();
-      this.ready.then(() => { if (this.hasAttribute("layer")) this.showLayer(this.getAttribute("layer")); });
-    }
     siteChanged() {
       if (this.selected && !this.feature()) this.selected = null;
-      if (this.layerKind) this.showLayer(this.layerKind);
+      super.siteChanged();
     }
-    attributeChanged(name, value) { if (name === "layer") this.showLayer(value); }
     get editable() { return this.hasAttribute("editable"); }
 
     input() {
@@ -386,6 +407,8 @@
         : this.module.shadowPlanSvg(this.input(), FIGURE.width, FIGURE.height);
     }
     shadowsGeojson() { return this.module.shadowsGeojson(this.input()); }
+    /** The plan's GeoJSON export is its shadows (the map layer's cells export from the map widget). */
+    geojson() { return this.shadowsGeojson(); }
 
     // ---- plan ↔ figure pixels, view -------------------------------------------------------------
     toPlan(px, py) { const f = this.frame; return [f.xAtLeftM + px / f.pxPerM, f.yAtTopM - py / f.pxPerM]; }
@@ -749,6 +772,7 @@
   }
 
   self.sunlotRunInWorker = runInWorker;
+  self.sunlotDownload = download;
   self.sunlotComputeMap = computeMap;
   self.sunlotMaps = MAPS;
   customElements.define("sunlot-sky", SunlotSky);

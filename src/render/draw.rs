@@ -40,6 +40,11 @@ impl Colour {
     }
 }
 
+/// The ink (text, lines) every figure is drawn in.
+pub const INK: Colour = Colour::rgb(30, 30, 30);
+/// The paper (background) every figure is drawn on.
+pub const PAPER: Colour = Colour::rgb(255, 255, 255);
+
 /// Where a text's reference point is along its line.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Anchor {
@@ -111,7 +116,7 @@ pub trait Draw {
 pub fn heading(d: &mut dyn Draw, title: &str, subtitle: &str) {
     let width = f64::from(d.size().0) - 48.0;
     let lines = wrap(title, 16.0, width);
-    let ink = Colour::rgb(30, 30, 30);
+    let ink = INK;
     d.text(24.0, 30.0, 16.0, lines.first().map_or("", |s| s.as_str()), ink, Anchor::Start);
     let sub = if lines.len() > 1 { format!("{} · {subtitle}", lines[1..].join(" ")) } else { subtitle.to_string() };
     d.text(24.0, 52.0, 12.0, &sub, Colour::rgb(110, 110, 110), Anchor::Start);

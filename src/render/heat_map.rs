@@ -1,10 +1,12 @@
 //! A map figure: a grid of values in the colour ramp over the site plan, with a title, a legend in
 //! the map's unit, a scale bar, a north arrow and the caution line.
 
-use super::draw::{footnote, heading, Colour, Draw};
+use super::draw::{footnote, heading, Draw, PAPER};
 use super::layer::{draw_cells, draw_legend, MapLayer};
+use super::plan::site_outlines;
 use super::plan::{draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, Outline, PlanFrame};
 use crate::exposure::Grid;
+use crate::site::SiteModel;
 
 /// A map to draw.
 #[derive(Debug, Clone)]
@@ -29,6 +31,31 @@ pub struct HeatMap<'a> {
     pub caution: String,
 }
 
+impl<'a> HeatMap<'a> {
+    /// The map of `values` on `grid` over `model`'s outlines, titled "`title` — site name", with the
+    /// plan's north and the caution.
+    pub fn of_site(
+        model: &SiteModel,
+        grid: &'a Grid,
+        values: &'a [Option<f64>],
+        (title, subtitle): (&str, &str),
+        unit: &str,
+        range: (f64, f64),
+    ) -> Self {
+        HeatMap {
+            title: format!("{title} — {}", model.name),
+            subtitle: subtitle.into(),
+            unit: unit.into(),
+            grid,
+            values,
+            range,
+            outlines: site_outlines(model),
+            plan_rotation_deg: model.plan_rotation_deg,
+            caution: crate::rules::CAUTION.into(),
+        }
+    }
+}
+
 /// Figure size, pixels.
 pub const FIGURE_PX: (u32, u32) = (960, 760);
 
@@ -36,7 +63,7 @@ pub const FIGURE_PX: (u32, u32) = (960, 760);
 pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
-    d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
+    d.fill_rect(0.0, 0.0, w, h, PAPER);
     heading(d, &map.title, &map.subtitle);
 
     let layer = MapLayer::on_grid(map.grid, map.values.to_vec(), "", &map.unit, map.range);

@@ -3,12 +3,10 @@
 
 use geo::{Coord, Rect};
 
-use super::draw::{Anchor, Colour, Draw, Image};
+use super::draw::{Anchor, Draw, Image, INK};
 use super::plan::PlanFrame;
 use super::ramp::ramp_colour;
 use crate::exposure::Grid;
-
-const INK: Colour = Colour::rgb(30, 30, 30);
 
 /// A grid of values to draw over a plan.
 #[derive(Debug, Clone, PartialEq)]

@@ -15,13 +15,13 @@ mod restyle;
 mod sky_chart;
 mod svg;
 
-pub use draw::{footnote, heading, text_width_px, wrap, Anchor, Colour, Draw, Image};
+pub use draw::{footnote, heading, text_width_px, wrap, Anchor, Colour, Draw, Image, INK, PAPER};
 pub use heat_map::{draw_heat_map, HeatMap, FIGURE_PX};
 pub use layer::{draw_cells, draw_legend, MapLayer, LEGEND_PX};
 pub use pixmap::Pixmap;
 pub use plan::{site_bounds, site_outlines, Outline, OutlineKind, PlanFrame};
 pub use plan_view::{draw_shadow_plan, PlanExtras, ShadowPlan};
 pub use ramp::{ramp, ramp_colour};
-pub use restyle::{Palette, Restyle, INK, PAPER};
+pub use restyle::{Palette, Restyle};
 pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart};
 pub use svg::Svg;

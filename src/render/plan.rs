@@ -5,9 +5,8 @@ use geo::{BoundingRect, Coord, MultiPolygon, Polygon, Rect};
 
 use crate::site::{SiteModel, Status};
 
-use super::draw::{text_width_px, Anchor, Colour, Draw};
+use super::draw::{text_width_px, Anchor, Colour, Draw, INK};
 
-const INK: Colour = Colour::rgb(30, 30, 30);
 const MUTED: Colour = Colour::rgb(110, 110, 110);
 /// The colour of proposed massing on every plan.
 pub const PROPOSED: Colour = Colour::rgb(200, 40, 120);

@@ -3,7 +3,7 @@
 
 use geo::{BooleanOps, Coord, MultiPolygon, Rect};
 
-use super::draw::{footnote, heading, Anchor, Colour, Draw};
+use super::draw::{footnote, heading, Anchor, Colour, Draw, INK, PAPER};
 use super::layer::{draw_cells, draw_legend, MapLayer};
 use super::plan::{
     draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, site_bounds, site_outlines, Outline, PlanFrame,
@@ -87,7 +87,7 @@ pub struct PlanExtras<'a> {
 pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras) -> PlanFrame {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
-    d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
+    d.fill_rect(0.0, 0.0, w, h, PAPER);
     heading(d, &plan.title, &plan.subtitle);
     let plan_box = (24.0, 80.0, w - 260.0, h - 200.0);
     let frame = match extras.view {
@@ -112,13 +112,12 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, plan.plan_rotation_deg);
     let (lx, ly) = (w - 200.0, frame.by + 20.0);
-    let ink = Colour::rgb(30, 30, 30);
     for (k, (colour, label)) in
         [(EXISTING_SHADE, "shade of existing"), (ADDED_SHADE, "added by proposal")].iter().enumerate()
     {
         let y = ly + 22.0 * k as f64;
         d.fill_rect(lx, y - 10.0, 24.0, 12.0, *colour);
-        d.text(lx + 34.0, y, 12.0, label, ink, Anchor::Start);
+        d.text(lx + 34.0, y, 12.0, label, INK, Anchor::Start);
     }
     let mut y = ly + 60.0;
     if let Some((layer, _)) = extras.layer {

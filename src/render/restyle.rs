@@ -1,13 +1,8 @@
 //! Page colours on the figures: a drawing surface that passes everything to another one with the
 //! figures' ink, paper and proposal colours swapped for a page's own (its CSS custom properties).
 
-use super::draw::{Anchor, Colour, Draw, Image};
+use super::draw::{Anchor, Colour, Draw, Image, INK, PAPER};
 use super::plan::PROPOSED;
-
-/// The ink (text, lines) every figure is drawn in.
-pub const INK: Colour = Colour::rgb(30, 30, 30);
-/// The paper (background) every figure is drawn on.
-pub const PAPER: Colour = Colour::rgb(255, 255, 255);
 
 /// Colours to use instead of the figures' own; `None` keeps a colour.
 #[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]

@@ -9,14 +9,13 @@
 
 use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
 
-use super::draw::{heading, Anchor, Colour, Draw};
+use super::draw::{heading, Anchor, Colour, Draw, INK, PAPER};
 use crate::exposure::Massing;
 use crate::shadow::{analysis_extent, skyline, Receiver, ViewPoint};
 use crate::site::SiteModel;
 use crate::solar::{Atmosphere, Ephemeris, InputError, Site};
 use crate::time::{DeltaT, Fold, Zone};
 
-const INK: Colour = Colour::rgb(30, 30, 30);
 const GRID: Colour = Colour::rgb(190, 190, 190);
 const HOUR: Colour = Colour::rgb(120, 120, 120);
 const OBSTRUCTION: Colour = Colour { r: 90, g: 90, b: 90, a: 150 };
@@ -182,7 +181,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
     let mut eph = Ephemeris::new();
-    d.fill_rect(0.0, 0.0, w, h, Colour::rgb(255, 255, 255));
+    d.fill_rect(0.0, 0.0, w, h, PAPER);
     let sub = format!(
         "{:.3}° {}, {:.3}° {}, clock times {}",
         chart.site.latitude_deg.abs(),

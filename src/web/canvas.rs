@@ -154,7 +154,7 @@ struct SkyIn {
 fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::Palette), JsError> {
     use crate::render::{Projection, SkyChart};
     let i: SkyIn = super::read(input, "skyChart")?;
-    let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
+    let model = super::site(&i.site)?;
     let dates = if i.dates.is_empty() {
         None
     } else {
@@ -258,7 +258,7 @@ struct PlanJob {
 
 fn plan_job(input: JsValue) -> Result<PlanJob, JsError> {
     let i: PlanIn = super::read(input, "shadowPlan")?;
-    let read = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?;
+    let read = super::read_site_text(&i.site)?;
     let t = local_instant(&read.model, &i.local_time)?;
     let study = crate::shadow::shadow_study(&read.model, t, crate::time::DeltaT::EspenakMeeus).map_err(super::err)?;
     let when = super::stamp(t, &read.model.zone);

@@ -160,18 +160,16 @@ struct MapFigureIn {
 impl PlanLayer {
     fn heat_map(&self, input: JsValue, d: &mut dyn crate::render::Draw) -> Result<(), JsError> {
         let i: MapFigureIn = read(input, "drawMap")?;
-        let model = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?.model;
-        let map = crate::render::HeatMap {
-            title: format!("{} — {}", i.title, model.name),
-            subtitle: i.subtitle,
-            unit: format!("{} ({})", self.layer.label, self.layer.unit),
-            grid: &self.grid,
-            values: &self.layer.values,
-            range: self.layer.range,
-            outlines: crate::render::site_outlines(&model),
-            plan_rotation_deg: model.plan_rotation_deg,
-            caution: crate::rules::CAUTION.into(),
-        };
+        let model = super::site(&i.site)?;
+        let unit = format!("{} ({})", self.layer.label, self.layer.unit);
+        let map = crate::render::HeatMap::of_site(
+            &model,
+            &self.grid,
+            &self.layer.values,
+            (&i.title, &i.subtitle),
+            &unit,
+            self.layer.range,
+        );
         let palette = i.palette.palette()?;
         crate::render::draw_heat_map(&mut crate::render::Restyle { inner: d, palette }, &map);
         Ok(())
@@ -204,7 +202,7 @@ pub fn map_geojson_js(
     values: &[f64],
 ) -> Result<String, JsError> {
     let i: MapGeojsonIn = read(input, "mapGeojson")?;
-    let read = crate::site::SiteModel::read(&i.site).map_err(|e| JsError::new(&format!("site: {e}")))?;
+    let read = super::read_site_text(&i.site)?;
     let grid = grid_of(i.grid, values)?;
     let cells: Vec<Option<f64>> = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
     let columns = [MapColumn { name: &i.name, values: &cells }];

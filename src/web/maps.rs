@@ -7,7 +7,7 @@ use js_sys::Float64Array;
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
-use super::{err, read, write};
+use super::{err, read, read_site_text, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
 use crate::rules::{check_rule, preset, CheckRequest, Rule};
@@ -15,15 +15,11 @@ use crate::shadow::ViewPoint;
 use crate::site::SiteModel;
 use crate::time::DeltaT;
 
-fn site(text: &str) -> Result<SiteModel, JsError> {
-    SiteModel::read(text).map(|r| r.model).map_err(|e| JsError::new(&format!("site: {e}")))
-}
-
 fn window(text: Option<&str>) -> Result<Window, JsError> {
     text.map_or(Ok(Window::Daylight), |t| Window::parse(t).map_err(|e| JsError::new(&format!("window: {e}"))))
 }
 
-fn date(text: &str, field: &str) -> Result<chrono::NaiveDate, JsError> {
+pub(crate) fn date(text: &str, field: &str) -> Result<chrono::NaiveDate, JsError> {
     chrono::NaiveDate::parse_from_str(text, "%Y-%m-%d")
         .map_err(|_| JsError::new(&format!("{field}: {text:?} is not YYYY-MM-DD")))
 }
@@ -468,17 +464,7 @@ pub fn draw_map_figure(
         }
         Some(other) => return Err(JsError::new(&format!("show: {other:?} is not \"hours\" or \"lost\""))),
     };
-    let map = crate::render::HeatMap {
-        title: format!("{title} — {}", model.name),
-        subtitle: describe,
-        unit: unit.into(),
-        grid: &grid,
-        values: &values,
-        range,
-        outlines: crate::render::site_outlines(&model),
-        plan_rotation_deg: model.plan_rotation_deg,
-        caution: crate::rules::CAUTION.into(),
-    };
+    let map = crate::render::HeatMap::of_site(&model, &grid, &values, (title, &describe), unit, range);
     let mut surface = super::Canvas::new(canvas)?;
     let palette = i.palette.palette()?;
     crate::render::draw_heat_map(&mut crate::render::Restyle { inner: &mut surface, palette }, &map);
@@ -490,7 +476,7 @@ pub fn draw_map_figure(
 /// where `siteJson` is the site in the site-file format. Throws an `Error` naming the bad feature.
 #[wasm_bindgen(js_name = readSite, unchecked_return_type = "SiteSummary")]
 pub fn read_site(text: &str) -> Result<JsValue, JsError> {
-    let r = SiteModel::read(text).map_err(|e| JsError::new(&format!("site: {e}")))?;
+    let r = read_site_text(text)?;
     let m = &r.model;
     let status = |s: crate::site::Status| if s == crate::site::Status::Proposed { "proposed" } else { "existing" };
     let areas: Vec<_> = m

@@ -33,6 +33,17 @@ fn write<T: Serialize>(value: &T) -> Result<JsValue, JsError> {
     value.serialize(&serde_wasm_bindgen::Serializer::json_compatible()).map_err(|e| JsError::new(&e.to_string()))
 }
 
+/// A site from its text (site file or GeoJSON), with whether it came from GeoJSON; the error names
+/// the bad feature under `site:`.
+fn read_site_text(text: &str) -> Result<crate::site::ReadSite, JsError> {
+    crate::site::SiteModel::read(text).map_err(|e| JsError::new(&format!("site: {e}")))
+}
+
+/// A site from its text, as [`read_site_text`], without where it came from.
+fn site(text: &str) -> Result<crate::site::SiteModel, JsError> {
+    read_site_text(text).map(|r| r.model)
+}
+
 fn err(e: impl std::fmt::Display) -> JsError {
     JsError::new(&e.to_string())
 }

@@ -4,15 +4,10 @@
 use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 
-use super::maps::massing_of;
-use super::{err, read, write};
+use super::maps::{date, massing_of};
+use super::{err, read, site, write};
 use crate::shadow::ViewPoint;
-use crate::site::SiteModel;
 use crate::time::DeltaT;
-
-fn site(text: &str) -> Result<SiteModel, JsError> {
-    SiteModel::read(text).map(|r| r.model).map_err(|e| JsError::new(&format!("site: {e}")))
-}
 
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
@@ -36,9 +31,8 @@ pub fn shadow_table_js(
 ) -> Result<JsValue, JsError> {
     let i: TableIn = read(input, "shadowTable")?;
     let model = site(&i.site)?;
-    let date = chrono::NaiveDate::parse_from_str(&i.date, "%Y-%m-%d")
-        .map_err(|_| JsError::new(&format!("date: {:?} is not YYYY-MM-DD", i.date)))?;
-    let rows = crate::shadow::shadow_table(&model, date, i.step_min, DeltaT::EspenakMeeus).map_err(err)?;
+    let rows =
+        crate::shadow::shadow_table(&model, date(&i.date, "date")?, i.step_min, DeltaT::EspenakMeeus).map_err(err)?;
     let out: Vec<_> = rows
         .iter()
         .map(|r| {
@@ -54,7 +48,7 @@ pub fn shadow_table_js(
 
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct PointIn {
+struct YearIn {
     site: String,
     x_m: f64,
     y_m: f64,
@@ -64,15 +58,23 @@ struct PointIn {
     #[serde(default = "fifteen")]
     step_min: u32,
     massing: Option<String>,
-    #[serde(default = "five")]
-    sky_step_deg: f64,
 }
 
 fn fifteen() -> u32 {
     15
 }
-fn five() -> f64 {
-    5.0
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct SkyViewIn {
+    site: String,
+    x_m: f64,
+    y_m: f64,
+    #[serde(default)]
+    z_m: f64,
+    massing: Option<String>,
+    /// Sky patch size, degrees.
+    sky_step_deg: Option<f64>,
 }
 
 /// A point's year: `{year, skyView, months: [{month, sunHours, openHours, kwhM2, openKwhM2}]}` — hours
@@ -82,7 +84,7 @@ pub fn year_profile_js(
     #[wasm_bindgen(unchecked_param_type = "YearProfileInput")] input: JsValue,
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
-    let i: PointIn = read(input, "yearProfile")?;
+    let i: YearIn = read(input, "yearProfile")?;
     let model = site(&i.site)?;
     let year = i.year.ok_or_else(|| JsError::new("year: missing"))?;
     let p = crate::exposure::year_profile(
@@ -111,13 +113,13 @@ pub fn year_profile_js(
 /// in patches of `skyStepDeg`, default 5°).
 #[wasm_bindgen(js_name = skyView)]
 pub fn sky_view_js(#[wasm_bindgen(unchecked_param_type = "SkyViewInput")] input: JsValue) -> Result<f64, JsError> {
-    let i: PointIn = read(input, "skyView")?;
+    let i: SkyViewIn = read(input, "skyView")?;
     let model = site(&i.site)?;
     crate::exposure::sky_view_at(
         &model,
         ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
         massing_of(i.massing.as_deref())?,
-        i.sky_step_deg,
+        i.sky_step_deg.unwrap_or(crate::exposure::DEFAULT_SKY_STEP_DEG),
     )
     .map_err(err)
 }

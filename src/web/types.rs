@@ -50,7 +50,7 @@ export interface Envelope { grid: GridGeometry; heightM: Float64Array; steps: nu
 export interface PointInput { site: SiteText; xM: number; yM: number; zM?: number; massing?: Massing; }
 export interface TimelineInput extends PointInput { date: string; }
 export interface Timeline { intervals: { from: string; to: string; sunlit: boolean; by: string | null }[]; sunHours: number; dayHours: number; }
-export interface YearProfileInput extends PointInput { year: number; stepMin?: number; skyStepDeg?: number; }
+export interface YearProfileInput extends PointInput { year: number; stepMin?: number; }
 export interface YearProfile { year: number; skyView: number;
   months: { month: number; sunHours: number; openHours: number; kwhM2: number; openKwhM2: number }[]; }
 export interface SkyViewInput extends PointInput { skyStepDeg?: number; }
