@@ -20,12 +20,15 @@
 //! - [`site`]: the site model: massing volumes and walls in the plan frame.
 //! - [`shadow`]: exact shadow polygons of the massing and their union.
 //! - [`exposure`]: analysis grids, exact rasterising, hours of direct sun per cell.
+//! - [`limits`]: the budget every request is checked against before any allocation.
 //! - [`demo`]: the invented demo scenario.
 //! - `web` (wasm32 only): the JavaScript facade.
 
 pub mod demo;
 pub mod envelope;
 pub mod exposure;
+pub(crate) mod json_check;
+pub mod limits;
 pub mod render;
 pub mod rules;
 pub mod shadow;

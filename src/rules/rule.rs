@@ -77,6 +77,9 @@ pub struct Rule {
     pub area_ids: Vec<String>,
 }
 
+/// Largest rule text read, bytes (a rule is a few hundred).
+const MAX_RULE_TEXT_BYTES: usize = 1024 * 1024;
+
 fn default_combine() -> Combine {
     Combine::Either
 }
@@ -87,7 +90,10 @@ impl Rule {
     /// # Errors
     /// [`RuleError`] naming the field.
     pub fn from_json(text: &str) -> Result<Self, RuleError> {
-        let r: Rule = serde_json::from_str(text).map_err(|e| RuleError::Json(e.to_string()))?;
+        crate::limits::within("rule", text.len() as f64, MAX_RULE_TEXT_BYTES as f64, "bytes")
+            .map_err(|e| RuleError::Json(e.to_string()))?;
+        crate::json_check::unique_members(text).map_err(RuleError::Json)?;
+        let r: Rule = crate::json_check::read_with_path(text).map_err(RuleError::Json)?;
         r.validated()
     }
 

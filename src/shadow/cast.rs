@@ -244,10 +244,36 @@ pub fn cast_shadows(
             clipped = true;
             s.intersection(&frame)
         };
-        per_feature.push((id, s));
+        per_feature.push((id, without_slivers(s)));
     }
-    let union = unary_union(per_feature.iter().map(|(_, s)| s));
+    let union = without_slivers(unary_union(per_feature.iter().map(|(_, s)| s)));
     Ok(Shadows::Sun { per_feature, union, clipped })
+}
+
+/// Parts and holes smaller than this are noise of the boolean operations, not shade, m² (a square
+/// millimetre; the operations work on a grid far finer than that).
+pub const OUTPUT_SLIVER_M2: f64 = 1e-6;
+
+/// `mp` without parts or holes under [`OUTPUT_SLIVER_M2`] and without repeated consecutive vertices. The
+/// boolean operations can leave a sliver a tenth of a micrometre across touching a real part; kept,
+/// it makes the geometry invalid as soon as its coordinates are rounded or re-read.
+pub fn without_slivers(mp: MultiPolygon<f64>) -> MultiPolygon<f64> {
+    let ring = |ls: &LineString<f64>| {
+        let mut v: Vec<Coord<f64>> = Vec::with_capacity(ls.0.len());
+        for c in &ls.0 {
+            if v.last() != Some(c) {
+                v.push(*c);
+            }
+        }
+        LineString::from(v)
+    };
+    let big = |ls: &LineString<f64>| Polygon::new(ls.clone(), vec![]).unsigned_area() >= OUTPUT_SLIVER_M2;
+    MultiPolygon::new(
+        mp.0.iter()
+            .filter(|p| big(p.exterior()))
+            .map(|p| Polygon::new(ring(p.exterior()), p.interiors().iter().filter(|h| big(h)).map(ring).collect()))
+            .collect(),
+    )
 }
 
 #[cfg(test)]

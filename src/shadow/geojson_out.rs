@@ -1,7 +1,7 @@
 //! A shadow study as GeoJSON: each feature's shadow, the unions (existing, proposed, combined) and
 //! the areas with their shaded figures, in plan metres or in WGS84.
 
-use geo::{Coord, MapCoords, MultiPolygon};
+use geo::{Coord, MapCoords, MultiPolygon, Validation};
 use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
 use serde_json::json;
 
@@ -17,7 +17,9 @@ fn status_name(s: Status) -> &'static str {
 
 /// The study of `model` at the moment labelled `when` as a GeoJSON FeatureCollection (pretty JSON).
 /// With `wgs84` coordinates are longitude and latitude (for a site that came from GeoJSON), else plan
-/// metres rounded to the micrometre (the boolean operations leave nanometre noise). A moment without
+/// metres rounded to the micrometre (the boolean operations leave nanometre noise) where the rounded
+/// polygon is still valid (rounding can fold a sliver thinner than a micrometre onto itself; such a
+/// shadow is written unrounded, so every polygon written is valid geometry). A moment without
 /// sun, or with the sun behind the slope, is an empty collection saying so.
 pub fn study_geojson(model: &SiteModel, study: &Study, when: &str, wgs84: bool) -> String {
     let mut features = Vec::new();
@@ -30,7 +32,12 @@ pub fn study_geojson(model: &SiteModel, study: &Study, when: &str, wgs84: bool) 
         if wgs84 {
             mp.map_coords(|c| model.plan_to_wgs84(&frame, c))
         } else {
-            mp.map_coords(|c| Coord { x: (c.x * 1e6).round() / 1e6, y: (c.y * 1e6).round() / 1e6 })
+            let rounded = mp.map_coords(|c| Coord { x: (c.x * 1e6).round() / 1e6, y: (c.y * 1e6).round() / 1e6 });
+            if rounded.is_valid() {
+                rounded
+            } else {
+                mp.clone()
+            }
         }
     };
     let meta = match study {

@@ -135,7 +135,9 @@ pub fn shadow_study(model: &SiteModel, instant: DateTime<Utc>, delta_t: DeltaT) 
     let per_feature: Vec<(String, Status, MultiPolygon<f64>)> =
         per_feature.into_iter().zip(statuses).map(|((id, s), st)| (id, st, s)).collect();
     let union_of = |want: Option<Status>| {
-        geo::unary_union(per_feature.iter().filter(|f| want.is_none_or(|w| f.1 == w)).map(|f| &f.2))
+        super::cast::without_slivers(geo::unary_union(
+            per_feature.iter().filter(|f| want.is_none_or(|w| f.1 == w)).map(|f| &f.2),
+        ))
     };
     let existing = union_of(Some(Status::Existing));
     let proposed = union_of(Some(Status::Proposed));

@@ -17,6 +17,8 @@ use serde::{Deserialize, Serialize};
 
 use super::massing::{check_ring, SiteError, Status, Volume, Wall};
 use super::terrain::Ground;
+use crate::json_check::{read_with_path, unique_members};
+use crate::limits::{within, OverBudget, MAX_FEATURES, MAX_SITE_TEXT_BYTES, MAX_VERTICES};
 use crate::solar::{InputError, Site};
 use crate::time::{TimeError, Zone};
 
@@ -50,6 +52,9 @@ pub enum SiteFileError {
     /// A bad feature.
     #[error("site file: {0}")]
     Feature(SiteError),
+    /// More features or vertices than [`crate::limits`] allows.
+    #[error("site file: {0}")]
+    Budget(#[from] OverBudget),
 }
 
 /// What an area is for; planning rules pick areas by kind.
@@ -132,13 +137,17 @@ impl SiteModel {
     /// # Errors
     /// [`SiteFileError`] naming the field or the feature (by id) and the problem.
     pub fn from_json(text: &str) -> Result<Self, SiteFileError> {
+        within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")?;
+        unique_members(text).map_err(SiteFileError::Json)?;
         let raw: serde_json::Value = serde_json::from_str(text).map_err(|e| SiteFileError::Json(e.to_string()))?;
         match raw.get("sunlot_site") {
             Some(v) if v.as_u64() == Some(u64::from(SITE_FILE_VERSION)) => {}
             Some(v) => return Err(SiteFileError::UnknownVersion { found: v.to_string() }),
             None => return Err(SiteFileError::Json("missing field `sunlot_site` (the format version, 1)".into())),
         }
-        let file: SiteFile = serde_json::from_value(raw).map_err(|e| SiteFileError::Json(e.to_string()))?;
+        drop(raw);
+        let file: SiteFile = read_with_path(text).map_err(SiteFileError::Json)?;
+        file.within_budget()?;
         file.into_model()
     }
 
@@ -236,6 +245,17 @@ fn ring_out(ls: &LineString<f64>) -> Ring {
 }
 
 impl SiteFile {
+    /// Features and vertices within [`MAX_FEATURES`] and [`MAX_VERTICES`].
+    fn within_budget(&self) -> Result<(), OverBudget> {
+        let features = self.areas.len() + self.volumes.len() + self.walls.len();
+        within("features", features as f64, MAX_FEATURES as f64, "features")?;
+        let rings = |outline: &Ring, holes: &[Ring]| outline.len() + holes.iter().map(Vec::len).sum::<usize>();
+        let vertices = self.areas.iter().map(|a| rings(&a.outline, &a.holes)).sum::<usize>()
+            + self.volumes.iter().map(|v| rings(&v.outline, &v.holes)).sum::<usize>()
+            + self.walls.iter().map(|w| w.line.len()).sum::<usize>();
+        within("vertices", vertices as f64, MAX_VERTICES as f64, "vertices")
+    }
+
     fn into_model(self) -> Result<SiteModel, SiteFileError> {
         let l = &self.location;
         let location = Site::new(l.latitude_deg, l.longitude_deg, l.elevation_m).map_err(SiteFileError::Location)?;
@@ -368,7 +388,10 @@ mod tests {
     #[test]
     fn errors_name_the_feature_and_field() {
         let e = SiteModel::from_json(&SMALL.replace("\"top_m\": 7.5", "\"top_m\": -2")).unwrap_err();
-        assert_eq!(e.to_string(), "site file: feature \"house\": top_m must be a finite height of 0 m or more, got -2");
+        assert_eq!(
+            e.to_string(),
+            "site file: feature \"house\": top_m must be a finite height of 0 m to 2000 m, got -2"
+        );
         let e = SiteModel::from_json(&SMALL.replace("\"sunlot_site\": 1", "\"sunlot_site\": 7")).unwrap_err();
         assert!(matches!(e, SiteFileError::UnknownVersion { .. }), "{e}");
         let e = SiteModel::from_json(&SMALL.replace("\"id\": \"fence\"", "\"id\": \"house\"")).unwrap_err();
@@ -387,6 +410,29 @@ mod tests {
         assert!(e.to_string().contains("latitude_deg must be between -90 and 90"), "{e}");
         assert!(matches!(SiteModel::from_json("{"), Err(SiteFileError::Json(_))));
     }
+
+    /// Found by fuzzing: a member given twice was read as its last copy, and serde's messages gave a
+    /// line and column but not the field.
+    #[test]
+    fn repeated_members_type_errors_and_far_coordinates_are_named() {
+        let e =
+            SiteModel::from_json(&SMALL.replace("\"top_m\": 7.5,", "\"top_m\": 7.5, \"top_m\": 1e308,")).unwrap_err();
+        assert!(e.to_string().contains("volumes[0]: the member \"top_m\" appears twice"), "{e}");
+        let e = SiteModel::from_json(&SMALL.replace("\"top_m\": 12", "\"top_m\": \"tall\"")).unwrap_err();
+        assert!(
+            e.to_string().starts_with("site file: volumes[1].top_m: invalid type: string \"tall\", expected f64"),
+            "{e}"
+        );
+        let e = SiteModel::from_json(&SMALL.replace("\"status\": \"proposed\"", "\"status\": 3")).unwrap_err();
+        assert!(e.to_string().contains("volumes[1].status"), "{e}");
+        let e = SiteModel::from_json(&SMALL.replace("[[0,20],[10,20]", "[[0,20],[1e300,20]")).unwrap_err();
+        assert!(
+            e.to_string().contains("\"house\": coordinate 1 of the outer ring (1e300, 20.0) is more than 100000 m"),
+            "{e}"
+        );
+        let e = SiteModel::from_json(&SMALL.replace("\"height_m\": 1.8", "\"height_m\": 1e308")).unwrap_err();
+        assert!(e.to_string().contains("\"fence\": height_m must be a finite height of 0 m to 2000 m"), "{e}");
+    }
 }
 
 /// A site read from text that is either a site file or a GeoJSON FeatureCollection.
@@ -404,6 +450,8 @@ impl SiteModel {
     /// # Errors
     /// The reader's error as text, naming the feature or field.
     pub fn read(text: &str) -> Result<ReadSite, String> {
+        within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")
+            .map_err(|e| e.hint("split the site or simplify its outlines").to_string())?;
         let is_geojson = serde_json::from_str::<serde_json::Value>(text)
             .ok()
             .is_some_and(|v| v.get("type").and_then(|t| t.as_str()) == Some("FeatureCollection"));

@@ -16,6 +16,7 @@ use super::file::{Area, AreaKind, SiteModel};
 use super::frame::LocalFrame;
 use super::massing::{SiteError, Status, Volume, Wall};
 use super::terrain::Ground;
+use crate::limits::{within, OverBudget, MAX_FEATURES, MAX_SITE_TEXT_BYTES, MAX_VERTICES};
 use crate::solar::{InputError, Site};
 use crate::time::{TimeError, Zone};
 
@@ -43,9 +44,15 @@ pub enum GeoJsonError {
     /// A property of the wrong type or value.
     #[error("GeoJSON feature {feature}: property {property:?} {problem}")]
     Property { feature: String, property: &'static str, problem: String },
+    /// A position that is not a longitude and a latitude in range.
+    #[error("GeoJSON feature {feature}: coordinates{path} {problem}")]
+    Coordinate { feature: String, path: String, problem: String },
     /// The site's location.
     #[error("GeoJSON: sunlot.{0}")]
     Location(String),
+    /// More text, features or vertices than [`crate::limits`] allows.
+    #[error("GeoJSON: {0}")]
+    Budget(#[from] OverBudget),
     /// A feature that fails the site model's checks.
     #[error("GeoJSON: {0}")]
     Feature(#[from] SiteError),
@@ -70,18 +77,38 @@ impl SiteModel {
     /// # Errors
     /// [`GeoJsonError`] naming the feature and the problem; no feature is silently dropped.
     pub fn from_geojson(text: &str) -> Result<Self, GeoJsonError> {
+        within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")?;
+        crate::json_check::unique_members(text).map_err(GeoJsonError::Format)?;
         let gj: GeoJson = text.parse().map_err(|e: geojson::Error| GeoJsonError::Format(e.to_string()))?;
         let GeoJson::FeatureCollection(fc) = gj else {
             return Err(GeoJsonError::Format("a site must be a FeatureCollection".into()));
         };
+        within("features", fc.features.len() as f64, MAX_FEATURES as f64, "features")?;
+        within(
+            "vertices",
+            fc.features.iter().map(vertex_count).sum::<usize>() as f64,
+            MAX_VERTICES as f64,
+            "vertices",
+        )?;
         let meta = fc.foreign_members.as_ref().and_then(|m| m.get("sunlot")).cloned().unwrap_or(Value::Null);
-        let zone: Zone = meta
-            .get("zone")
-            .and_then(Value::as_str)
-            .ok_or_else(|| GeoJsonError::Location("zone is missing (an IANA name such as Europe/London)".into()))?
-            .parse()
-            .map_err(|e: TimeError| GeoJsonError::Location(e.to_string()))?;
-        let elevation_m = meta.get("elevation_m").and_then(Value::as_f64).unwrap_or(0.0);
+        if !(meta.is_object() || meta.is_null()) {
+            return Err(GeoJsonError::Location(format!(" must be an object with the zone, got {meta}")));
+        }
+        let zone: Zone = match meta.get("zone") {
+            None | Some(Value::Null) => {
+                return Err(GeoJsonError::Location("zone is missing (an IANA name such as Europe/London)".into()))
+            }
+            Some(Value::String(z)) => z.parse().map_err(|e: TimeError| GeoJsonError::Location(e.to_string()))?,
+            Some(other) => {
+                return Err(GeoJsonError::Location(format!("zone must be a name such as Europe/London, got {other}")))
+            }
+        };
+        let elevation_m = match meta.get("elevation_m") {
+            None | Some(Value::Null) => 0.0,
+            Some(v) => v
+                .as_f64()
+                .ok_or_else(|| GeoJsonError::Location(format!("elevation_m must be a number of metres, got {v}")))?,
+        };
         let origin = match meta.get("origin").and_then(Value::as_array) {
             Some(o) if o.len() == 2 && o.iter().all(Value::is_number) => {
                 (o[0].as_f64().unwrap_or(f64::NAN), o[1].as_f64().unwrap_or(f64::NAN))
@@ -92,7 +119,11 @@ impl SiteModel {
         let location = Site::new(origin.1, origin.0, elevation_m)
             .map_err(|e: InputError| GeoJsonError::Location(e.to_string()))?;
         let frame = LocalFrame::new(origin.0, origin.1, elevation_m);
-        let name = meta.get("name").and_then(Value::as_str).unwrap_or_default().to_string();
+        let name = match meta.get("name") {
+            None | Some(Value::Null) => String::new(),
+            Some(Value::String(n)) => n.clone(),
+            Some(other) => return Err(GeoJsonError::Location(format!("name must be text, got {other}"))),
+        };
         let ground: Ground = match meta.get("ground") {
             None | Some(Value::Null) => Ground::flat(),
             Some(g) => serde_json::from_value::<Ground>(g.clone())
@@ -137,21 +168,32 @@ impl SiteModel {
             let geom = f.geometry.as_ref().map(|g| &g.value);
             let parts_of =
                 |expected: &'static str, polygonal: bool| -> Result<Vec<Vec<Vec<Coord<f64>>>>, GeoJsonError> {
-                    let to_local = |p: &geojson::Position| {
-                        let (e, n) = frame.to_local(p[0], p[1]);
-                        Coord { x: e, y: n }
+                    let ring = |r: &Vec<geojson::Position>, path: String| -> Result<Vec<Coord<f64>>, GeoJsonError> {
+                        r.iter()
+                            .enumerate()
+                            .map(|(k, p)| {
+                                let (lon, lat) = lon_lat(p, &label, &format!("{path}[{k}]"))?;
+                                let (e, n) = frame.to_local(lon, lat);
+                                Ok(Coord { x: e, y: n })
+                            })
+                            .collect()
                     };
-                    let ring = |r: &Vec<geojson::Position>| r.iter().map(to_local).collect::<Vec<_>>();
                     match (geom, polygonal) {
-                        (Some(GeometryValue::Polygon { coordinates }), true) => {
-                            Ok(vec![coordinates.iter().map(ring).collect()])
+                        (Some(GeometryValue::Polygon { coordinates }), true) => Ok(vec![coordinates
+                            .iter()
+                            .enumerate()
+                            .map(|(r, c)| ring(c, format!("[{r}]")))
+                            .collect::<Result<_, _>>()?]),
+                        (Some(GeometryValue::MultiPolygon { coordinates }), true) => coordinates
+                            .iter()
+                            .enumerate()
+                            .map(|(k, p)| p.iter().enumerate().map(|(r, c)| ring(c, format!("[{k}][{r}]"))).collect())
+                            .collect(),
+                        (Some(GeometryValue::LineString { coordinates }), false) => {
+                            Ok(vec![vec![ring(coordinates, String::new())?]])
                         }
-                        (Some(GeometryValue::MultiPolygon { coordinates }), true) => {
-                            Ok(coordinates.iter().map(|p| p.iter().map(ring).collect()).collect())
-                        }
-                        (Some(GeometryValue::LineString { coordinates }), false) => Ok(vec![vec![ring(coordinates)]]),
                         (Some(GeometryValue::MultiLineString { coordinates }), false) => {
-                            Ok(coordinates.iter().map(|l| vec![ring(l)]).collect())
+                            coordinates.iter().enumerate().map(|(k, l)| Ok(vec![ring(l, format!("[{k}]"))?])).collect()
                         }
                         (g, _) => Err(GeoJsonError::UnsupportedGeometry {
                             feature: label.clone(),
@@ -193,11 +235,12 @@ impl SiteModel {
                         model.volumes.push(Volume::new(&id, status, polygon(), base, top)?);
                     }
                     "area" => {
-                        model.areas.push(Area::new(&id, &prop.text("name"), prop.kind()?, status, polygon())?);
+                        model.areas.push(Area::new(&id, &prop.text("name")?, prop.kind()?, status, polygon())?);
                     }
                     _ => {
                         let h = prop.number("height_m")?.ok_or_else(|| prop.missing("height_m"))?;
-                        model.walls.push(Wall::new(&id, status, LineString::from(rings[0].clone()), h)?);
+                        let line = rings.first().cloned().unwrap_or_default();
+                        model.walls.push(Wall::new(&id, status, LineString::from(line), h)?);
                     }
                 }
             }
@@ -267,11 +310,37 @@ impl SiteModel {
     }
 }
 
+/// A position's longitude and latitude, checked: two numbers (a third, the altitude, is allowed and
+/// ignored), in range. `path` is the position's place in the geometry's coordinates (`[0][3]`).
+fn lon_lat(p: &geojson::Position, feature: &str, path: &str) -> Result<(f64, f64), GeoJsonError> {
+    let bad =
+        |problem: String| GeoJsonError::Coordinate { feature: feature.to_string(), path: path.to_string(), problem };
+    let (lon, lat) = match p.as_slice() {
+        [lon, lat] | [lon, lat, _] => (*lon, *lat),
+        other => {
+            return Err(bad(format!(
+                "has {} numbers; a position is [longitude, latitude] or [longitude, latitude, altitude]",
+                other.len()
+            )))
+        }
+    };
+    if !(lon.is_finite() && (-180.0..=180.0).contains(&lon)) {
+        return Err(bad(format!("longitude {lon} is outside -180 to 180")));
+    }
+    if !(lat.is_finite() && (-90.0..=90.0).contains(&lat)) {
+        return Err(bad(format!("latitude {lat} is outside -90 to 90")));
+    }
+    Ok((lon, lat))
+}
+
 fn bbox_centre(fc: &FeatureCollection) -> Option<(f64, f64)> {
     let (mut lo, mut hi) = ((f64::INFINITY, f64::INFINITY), (f64::NEG_INFINITY, f64::NEG_INFINITY));
     let mut visit = |p: &geojson::Position| {
-        lo = (lo.0.min(p[0]), lo.1.min(p[1]));
-        hi = (hi.0.max(p[0]), hi.1.max(p[1]));
+        // Bad positions are named when the features are read; here they are only left out.
+        if let Ok((lon, lat)) = lon_lat(p, "", "") {
+            lo = (lo.0.min(lon), lo.1.min(lat));
+            hi = (hi.0.max(lon), hi.1.max(lat));
+        }
     };
     for f in &fc.features {
         match f.geometry.as_ref().map(|g| &g.value) {
@@ -285,6 +354,20 @@ fn bbox_centre(fc: &FeatureCollection) -> Option<(f64, f64)> {
         }
     }
     lo.0.is_finite().then(|| ((lo.0 + hi.0) / 2.0, (lo.1 + hi.1) / 2.0))
+}
+
+/// Positions in a feature's geometry.
+fn vertex_count(f: &Feature) -> usize {
+    match f.geometry.as_ref().map(|g| &g.value) {
+        Some(GeometryValue::Polygon { coordinates }) | Some(GeometryValue::MultiLineString { coordinates }) => {
+            coordinates.iter().map(Vec::len).sum()
+        }
+        Some(GeometryValue::MultiPolygon { coordinates }) => coordinates.iter().flatten().map(Vec::len).sum(),
+        Some(GeometryValue::LineString { coordinates }) | Some(GeometryValue::MultiPoint { coordinates }) => {
+            coordinates.len()
+        }
+        _ => 0,
+    }
 }
 
 struct Props<'a> {
@@ -308,18 +391,27 @@ impl Props<'_> {
         GeoJsonError::Property { feature: self.feature.to_string(), property: key, problem: "is missing".into() }
     }
 
-    fn text(&self, key: &str) -> String {
-        self.props.get(key).and_then(Value::as_str).unwrap_or_default().to_string()
+    fn text(&self, key: &'static str) -> Result<String, GeoJsonError> {
+        match self.props.get(key) {
+            None | Some(Value::Null) => Ok(String::new()),
+            Some(Value::String(t)) => Ok(t.clone()),
+            Some(other) => Err(GeoJsonError::Property {
+                feature: self.feature.to_string(),
+                property: key,
+                problem: format!("must be text, got {other}"),
+            }),
+        }
     }
 
     fn status(&self) -> Result<Status, GeoJsonError> {
-        match self.props.get("status").and_then(Value::as_str) {
-            None | Some("existing") => Ok(Status::Existing),
-            Some("proposed") => Ok(Status::Proposed),
+        match self.props.get("status") {
+            None | Some(Value::Null) => Ok(Status::Existing),
+            Some(Value::String(s)) if s == "existing" => Ok(Status::Existing),
+            Some(Value::String(s)) if s == "proposed" => Ok(Status::Proposed),
             Some(other) => Err(GeoJsonError::Property {
                 feature: self.feature.to_string(),
                 property: "status",
-                problem: format!("must be \"existing\" or \"proposed\", got {other:?}"),
+                problem: format!("must be \"existing\" or \"proposed\", got {other}"),
             }),
         }
     }
@@ -413,5 +505,46 @@ mod tests {
         assert!(e.to_string().contains("FeatureCollection"), "{e}");
         let e = SiteModel::from_geojson(r#"{"type":"FeatureCollection","features":[]}"#).unwrap_err();
         assert!(e.to_string().contains("zone is missing"), "{e}");
+    }
+
+    /// Found by fuzzing: a position of one number panicked the reader; a status or name that was not
+    /// text was silently taken as the default.
+    #[test]
+    fn malformed_positions_and_properties_are_typed_errors() {
+        let doc = |coords: &str, props: &str| {
+            format!(
+                r#"{{"type":"FeatureCollection","sunlot":{{"zone":"Europe/London","origin":[-1.87,52.62]}},"features":[
+                {{"type":"Feature","id":"b","geometry":{{"type":"Polygon","coordinates":{coords}}},"properties":{props}}}]}}"#
+            )
+        };
+        let ok = "[[[-1.87,52.62],[-1.8698,52.62],[-1.8698,52.6202],[-1.87,52.62]]]";
+        let vol = r#"{"sunlot":"volume","top_m":6}"#;
+        assert!(SiteModel::from_geojson(&doc(ok, vol)).is_ok());
+        let e = SiteModel::from_geojson(&doc("[[[-1.87,52.62],[-1.8698],[-1.8698,52.6202],[-1.87,52.62]]]", vol))
+            .unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            "GeoJSON feature \"b\" (#0): coordinates[0][1] has 1 numbers; a position is [longitude, latitude] or \
+             [longitude, latitude, altitude]"
+        );
+        let e =
+            SiteModel::from_geojson(&doc("[[[-1.87,52.62,1,2],[-1.8698,52.62],[-1.8698,52.6202],[-1.87,52.62]]]", vol))
+                .unwrap_err();
+        assert!(e.to_string().contains("coordinates[0][0] has 4 numbers"), "{e}");
+        let e =
+            SiteModel::from_geojson(&doc("[[[-1.87,52.62],[-1.8698,152.62],[-1.8698,52.6202],[-1.87,52.62]]]", vol))
+                .unwrap_err();
+        assert!(e.to_string().contains("coordinates[0][1] latitude 152.62 is outside -90 to 90"), "{e}");
+        let e = SiteModel::from_geojson(&doc(ok, r#"{"sunlot":"volume","top_m":6,"status":7}"#)).unwrap_err();
+        assert!(e.to_string().contains("property \"status\" must be \"existing\" or \"proposed\", got 7"), "{e}");
+        let e = SiteModel::from_geojson(&doc(ok, r#"{"sunlot":"area","name":[1]}"#)).unwrap_err();
+        assert!(e.to_string().contains("property \"name\" must be text"), "{e}");
+        let e = SiteModel::from_geojson(&doc(ok, r#"{"sunlot":"volume","top_m":6,"top_m":1e308}"#)).unwrap_err();
+        assert!(e.to_string().contains("features[0].properties: the member \"top_m\" appears twice"), "{e}");
+        let e = SiteModel::from_geojson(&doc(ok, r#"{"sunlot":"volume","top_m":1e308}"#)).unwrap_err();
+        assert!(e.to_string().contains("top_m must be a finite height of 0 m to 2000 m"), "{e}");
+        let e = SiteModel::from_geojson(&doc(ok, vol).replace("\"origin\":[-1.87,52.62]", "\"elevation_m\":\"high\""))
+            .unwrap_err();
+        assert!(e.to_string().contains("elevation_m must be a number"), "{e}");
     }
 }

@@ -3,6 +3,8 @@
 use geo::{Coord, LineString, Polygon, Validation};
 use serde::{Deserialize, Serialize};
 
+use crate::limits::{MAX_HEIGHT_M, MAX_PLAN_EXTENT_M, MAX_RING_VERTICES};
+
 /// Whether a volume or area is there now or is proposed.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
@@ -22,9 +24,18 @@ pub enum SiteError {
     /// A coordinate that is NaN or infinite.
     #[error("feature {feature:?}: coordinate {index} of {ring} is not a finite number")]
     NotFinite { feature: String, ring: String, index: usize },
-    /// A height below ground (or a wall of no height) or not a number.
-    #[error("feature {feature:?}: {field} must be a finite height of 0 m or more, got {value}")]
+    /// A height below ground (or a wall of no height), above [`MAX_HEIGHT_M`], or not a number.
+    #[error("feature {feature:?}: {field} must be a finite height of 0 m to {max} m, got {value}", max = MAX_HEIGHT_M)]
     BadHeight { feature: String, field: &'static str, value: f64 },
+    /// A coordinate farther than [`MAX_PLAN_EXTENT_M`] from the plan origin.
+    #[error(
+        "feature {feature:?}: coordinate {index} of {ring} ({x:?}, {y:?}) is more than {max} m from the plan origin",
+        max = MAX_PLAN_EXTENT_M
+    )]
+    TooFar { feature: String, ring: String, index: usize, x: f64, y: f64 },
+    /// A ring or line with more than [`MAX_RING_VERTICES`] vertices.
+    #[error("feature {feature:?}: {ring} has {count} vertices, more than the limit of {max}", max = MAX_RING_VERTICES)]
+    TooManyVertices { feature: String, ring: String, count: usize },
     /// A top at or below the base.
     #[error("feature {feature:?}: top_m ({top_m}) must be above base_m ({base_m})")]
     TopNotAboveBase { feature: String, base_m: f64, top_m: f64 },
@@ -62,7 +73,7 @@ impl Volume {
             check_ring(id, &format!("hole {}", k + 1), hole)?;
         }
         for (field, value) in [("base_m", base_m), ("top_m", top_m)] {
-            if !value.is_finite() || value < 0.0 {
+            if !(value.is_finite() && (0.0..=MAX_HEIGHT_M).contains(&value)) {
                 return Err(SiteError::BadHeight { feature: feature(), field, value });
             }
         }
@@ -107,11 +118,7 @@ impl Wall {
     /// # Errors
     /// [`SiteError`] naming `id`.
     pub fn new(id: &str, status: Status, line: LineString<f64>, height_m: f64) -> Result<Self, SiteError> {
-        for (index, c) in line.coords().enumerate() {
-            if !c.x.is_finite() || !c.y.is_finite() {
-                return Err(SiteError::NotFinite { feature: id.to_string(), ring: "the line".into(), index });
-            }
-        }
+        check_coords(id, "the line", &line)?;
         let first = line.0.first().copied();
         if line.0.len() < 2 || line.coords().all(|c| Some(*c) == first) {
             return Err(SiteError::TooFewVertices {
@@ -120,23 +127,38 @@ impl Wall {
                 count: usize::from(first.is_some()),
             });
         }
-        if !height_m.is_finite() || height_m <= 0.0 {
+        if !(height_m.is_finite() && height_m > 0.0 && height_m <= MAX_HEIGHT_M) {
             return Err(SiteError::BadHeight { feature: id.to_string(), field: "height_m", value: height_m });
         }
         Ok(Wall { id: id.to_string(), status, line, height_m })
     }
 }
 
-pub(crate) fn check_ring(id: &str, ring: &str, ls: &LineString<f64>) -> Result<(), SiteError> {
+/// Every coordinate finite and within [`MAX_PLAN_EXTENT_M`] of the plan origin.
+fn check_coords(id: &str, ring: &str, ls: &LineString<f64>) -> Result<(), SiteError> {
+    if ls.0.len() > MAX_RING_VERTICES {
+        return Err(SiteError::TooManyVertices { feature: id.to_string(), ring: ring.to_string(), count: ls.0.len() });
+    }
     for (index, c) in ls.coords().enumerate() {
         if !c.x.is_finite() || !c.y.is_finite() {
             return Err(SiteError::NotFinite { feature: id.to_string(), ring: ring.to_string(), index });
         }
+        if c.x.abs() > MAX_PLAN_EXTENT_M || c.y.abs() > MAX_PLAN_EXTENT_M {
+            return Err(SiteError::TooFar { feature: id.to_string(), ring: ring.to_string(), index, x: c.x, y: c.y });
+        }
     }
+    Ok(())
+}
+
+pub(crate) fn check_ring(id: &str, ring: &str, ls: &LineString<f64>) -> Result<(), SiteError> {
+    check_coords(id, ring, ls)?;
     let mut distinct: Vec<Coord<f64>> = Vec::new();
     for c in ls.coords() {
         if !distinct.iter().any(|d| (d.x - c.x).abs() < 1e-9 && (d.y - c.y).abs() < 1e-9) {
             distinct.push(*c);
+            if distinct.len() == 3 {
+                break;
+            }
         }
     }
     if distinct.len() < 3 {
