@@ -122,6 +122,7 @@ pub fn cell_footprint(g: &Grid, col: usize, row: usize) -> Polygon<f64> {
 /// [`ExposureError`] for a bad period, cap or step, no protected area, or a cancelled run.
 pub fn solar_envelope(req: &EnvelopeRequest, mut progress: impl FnMut(f64) -> bool) -> Result<Envelope, ExposureError> {
     req.period.check(req.model, req.delta_t)?;
+    req.period.check_work(req.grid.inside_count())?;
     if !(req.max_height_m.is_finite() && req.max_height_m > 0.0 && req.max_height_m <= 1_000.0) {
         return Err(ExposureError::Period(format!(
             "max_height_m must be above 0 and at most 1000 m, got {}",

@@ -32,8 +32,6 @@ pub const MAX_FIGURE_SIDE_PX: u32 = 8_192;
 pub const MAX_FIGURE_PIXELS: u64 = 8_192 * 4_096;
 /// Most day paths on a sun-path diagram.
 pub const MAX_SKY_DATES: usize = 64;
-/// Most rows in a batch CSV.
-pub const MAX_BATCH_ROWS: usize = 10_000_000;
 
 /// A request larger than its budget: names the field, the request's size and the limit.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]

@@ -22,6 +22,9 @@ pub enum ExposureError {
     /// An empty or inverted daily window, a bad step, or a bad date range.
     #[error("{0}")]
     Period(String),
+    /// A request larger than its budget ([`crate::limits`]).
+    #[error("{0}")]
+    Budget(#[from] crate::limits::OverBudget),
     /// The solar engine refused an instant.
     #[error("{0}")]
     Time(#[from] crate::solar::InputError),
@@ -51,7 +54,8 @@ pub struct Grid {
 }
 
 impl Grid {
-    /// A grid of `cell_m` cells over `area` (its bounding box), at most `max_cells` cells.
+    /// A grid of `cell_m` cells over `area` (its bounding box), at most `max_cells` cells (and never
+    /// more than [`crate::limits::MAX_GRID_CELLS`]).
     ///
     /// # Errors
     /// [`ExposureError`] for a cell under 1 cm, too many cells or an empty area.
@@ -66,6 +70,7 @@ impl Grid {
         let cols = (r.width() / cell_m).ceil().max(1.0);
         let rows = (r.height() / cell_m).ceil().max(1.0);
         let cells = cols * rows;
+        let max_cells = max_cells.min(crate::limits::MAX_GRID_CELLS);
         if cells > max_cells as f64 {
             return Err(ExposureError::TooManyCells { cells: cells.min(usize::MAX as f64) as usize, limit: max_cells });
         }

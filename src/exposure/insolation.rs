@@ -93,6 +93,7 @@ pub(crate) fn beam_horizontal_w_m2(sky: &ClearSky, s: &Step) -> f64 {
 /// cancelled run.
 pub fn insolation(req: &InsolationRequest, mut progress: impl FnMut(f64) -> bool) -> Result<Insolation, ExposureError> {
     req.period.check(req.model, req.delta_t)?;
+    req.period.check_work(req.grid.inside_count())?;
     check_plane(req.plane_m)?;
     let atm = req.atmosphere.validated()?;
     let (g, model) = (req.grid, req.model);

@@ -10,6 +10,7 @@
 use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
 
 use super::grid::ExposureError;
+use crate::limits::{within, MAX_CELL_STEPS, MAX_PERIOD_DAYS};
 use crate::site::SiteModel;
 use crate::solar::{day_events, Atmosphere, Crossing, Ephemeris, SolarPosition};
 use crate::time::{DeltaT, Fold};
@@ -91,6 +92,7 @@ impl Period {
                 self.last, self.first
             )));
         }
+        within("the period", self.days() as f64, MAX_PERIOD_DAYS as f64, "days")?;
         if let Window::Clock { from, to } = self.window {
             if to <= from {
                 return Err(ExposureError::Period(format!("the daily window {from}–{to} is empty or inverted")));
@@ -101,6 +103,24 @@ impl Period {
                 .map_err(|e| ExposureError::Period(format!("date {d}: {e}")))?;
             self.bounds(model, d)?;
         }
+        Ok(())
+    }
+
+    /// Checks that `cells` cells over this period stay within [`MAX_CELL_STEPS`], counting every step
+    /// of the window (a whole day for sunrise to sunset) as sun-up: an upper bound known before any
+    /// sun is computed.
+    ///
+    /// # Errors
+    /// [`ExposureError::Budget`] naming the cells and steps, with what to change.
+    pub fn check_work(&self, cells: usize) -> Result<(), ExposureError> {
+        let window_min = match self.window {
+            Window::Daylight => 24.0 * 60.0,
+            Window::Clock { from, to } => (to - from).num_minutes().max(0) as f64,
+        };
+        let steps = self.days() as f64 * (window_min / f64::from(self.step_min.max(1))).ceil();
+        within("the request", cells as f64 * steps, MAX_CELL_STEPS, "cell-steps").map_err(|e| {
+            e.hint(&format!("{cells} cells × up to {steps} steps: use larger cells, a longer step or a shorter period"))
+        })?;
         Ok(())
     }
 

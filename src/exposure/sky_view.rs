@@ -67,8 +67,16 @@ pub fn sky_view_map(
     step_deg: f64,
 ) -> Result<Vec<Option<f64>>, ExposureError> {
     super::sun_hours::check_plane(plane_m)?;
+    let patches = sky_patches(step_deg)?;
+    crate::limits::within(
+        "sky_step_deg",
+        (patches.len() * grid.inside_count()) as f64,
+        crate::limits::MAX_CELL_STEPS,
+        "cell-patches",
+    )
+    .map_err(|e| e.hint("use larger cells or a larger sky step"))?;
     let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, plane_m);
-    let casts: Vec<Cast<1>> = sky_patches(step_deg)?
+    let casts: Vec<Cast<1>> = patches
         .iter()
         .map(|p| {
             let o = shadow_offset_per_m(p.azimuth_deg, p.altitude_deg).unwrap_or(Coord { x: 0.0, y: 0.0 });

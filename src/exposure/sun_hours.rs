@@ -97,6 +97,7 @@ pub(crate) fn for_each_day(
 /// work), or a cancelled run.
 pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -> Result<SunHours, ExposureError> {
     req.period.check(req.model, req.delta_t)?;
+    req.period.check_work(req.grid.inside_count())?;
     check_plane(req.plane_m)?;
     let (g, model) = (req.grid, req.model);
     let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, req.plane_m);

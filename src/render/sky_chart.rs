@@ -73,7 +73,7 @@ impl SkyChart {
     /// 1° steps.
     ///
     /// # Errors
-    /// A message naming the bad field of the point.
+    /// A message naming the bad field: the point, or more dates than [`crate::limits::MAX_SKY_DATES`].
     pub fn for_site(
         model: &SiteModel,
         year: i32,
@@ -83,6 +83,10 @@ impl SkyChart {
         projection: Projection,
         delta_t: DeltaT,
     ) -> Result<SkyChart, String> {
+        if let Some(d) = &dates {
+            crate::limits::within("dates", d.len() as f64, crate::limits::MAX_SKY_DATES as f64, "day paths")
+                .map_err(|e| e.to_string())?;
+        }
         let mut title = format!("Sun path — {}", model.name);
         let mut sky = Vec::new();
         if let Some((p, massing)) = from {

@@ -117,6 +117,8 @@ pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> 
         .iter()
         .map(|a| Grid::over_polygon(&a.polygon, req.cell_m, DEFAULT_MAX_CELLS))
         .collect::<Result<Vec<_>, _>>()?;
+    // Twice: before and after.
+    period.check_work(2 * grids.iter().map(Grid::inside_count).sum::<usize>())?;
     let mut out = Vec::new();
     let n = areas.len() as f64;
     for (k, (area, grid)) in areas.iter().zip(&grids).enumerate() {

@@ -33,6 +33,7 @@ impl Canvas {
             .flatten()
             .and_then(|c| c.dyn_into::<CanvasRenderingContext2d>().ok())
             .ok_or_else(|| JsError::new("canvas: no 2-D context"))?;
+        crate::limits::figure_size("canvas", canvas.width(), canvas.height()).map_err(super::err)?;
         let scale = canvas
             .get_attribute("data-scale")
             .and_then(|s| s.parse::<f64>().ok())
@@ -155,6 +156,8 @@ fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::
     use crate::render::{Projection, SkyChart};
     let i: SkyIn = super::read(input, "skyChart")?;
     let model = super::site(&i.site)?;
+    crate::limits::within("dates", i.dates.len() as f64, crate::limits::MAX_SKY_DATES as f64, "day paths")
+        .map_err(super::err)?;
     let dates = if i.dates.is_empty() {
         None
     } else {
@@ -196,8 +199,8 @@ pub fn draw_sky_chart_js(
     canvas: &HtmlCanvasElement,
     #[wasm_bindgen(unchecked_param_type = "SkyInput")] input: JsValue,
 ) -> Result<(), JsError> {
-    let (chart, palette) = sky_chart(input)?;
     let mut surface = Canvas::new(canvas)?;
+    let (chart, palette) = sky_chart(input)?;
     crate::render::draw_sky_chart(&mut Restyle { inner: &mut surface, palette }, &chart).map_err(super::err)
 }
 
@@ -208,10 +211,16 @@ pub fn sky_chart_svg(
     width: u32,
     height: u32,
 ) -> Result<String, JsError> {
+    let mut svg = svg_surface(width, height)?;
     let (chart, palette) = sky_chart(input)?;
-    let mut svg = crate::render::Svg::new(width, height);
     crate::render::draw_sky_chart(&mut Restyle { inner: &mut svg, palette }, &chart).map_err(super::err)?;
     Ok(svg.finish())
+}
+
+/// An SVG surface of `width` × `height` pixels, within [`crate::limits::figure_size`].
+pub(crate) fn svg_surface(width: u32, height: u32) -> Result<crate::render::Svg, JsError> {
+    crate::limits::figure_size("width, height", width, height).map_err(super::err)?;
+    Ok(crate::render::Svg::new(width, height))
 }
 
 /// A local wall time `YYYY-MM-DDTHH:MM` in the site's zone (the earlier of a repeated time).
@@ -311,8 +320,9 @@ pub(crate) fn draw_plan(
     input: JsValue,
     layer: Option<&PlanLayer>,
 ) -> Result<JsValue, JsError> {
+    let mut surface = Canvas::new(canvas)?;
     let j = plan_job(input)?;
-    let frame = j.draw(&mut Canvas::new(canvas)?, layer);
+    let frame = j.draw(&mut surface, layer);
     let (o, far) = (frame.to_plan(0.0, 0.0), frame.to_plan(1.0, 1.0));
     let (bx, by, bw, bh) = frame.bounds_px();
     super::write(&serde_json::json!({
@@ -331,8 +341,8 @@ pub fn shadow_plan_svg(
 }
 
 pub(crate) fn plan_svg(input: JsValue, width: u32, height: u32, layer: Option<&PlanLayer>) -> Result<String, JsError> {
+    let mut svg = svg_surface(width, height)?;
     let j = plan_job(input)?;
-    let mut svg = crate::render::Svg::new(width, height);
     j.draw(&mut svg, layer);
     Ok(svg.finish())
 }

@@ -133,7 +133,7 @@ impl PlanLayer {
         width: u32,
         height: u32,
     ) -> Result<String, JsError> {
-        let mut svg = crate::render::Svg::new(width, height);
+        let mut svg = super::canvas::svg_surface(width, height)?;
         self.heat_map(input, &mut svg)?;
         Ok(svg.finish())
     }

@@ -441,6 +441,7 @@ pub fn draw_map_figure(
     canvas: &web_sys::HtmlCanvasElement,
     #[wasm_bindgen(unchecked_param_type = "MapFigureInput")] input: JsValue,
 ) -> Result<JsValue, JsError> {
+    let mut surface = super::Canvas::new(canvas)?;
     let i: FigureIn = read(input, "drawMapFigure")?;
     let (model, grid, period, massing) = i.map.parts()?;
     let req = i.map.request(&model, &grid, period, massing);
@@ -465,7 +466,6 @@ pub fn draw_map_figure(
         Some(other) => return Err(JsError::new(&format!("show: {other:?} is not \"hours\" or \"lost\""))),
     };
     let map = crate::render::HeatMap::of_site(&model, &grid, &values, (title, &describe), unit, range);
-    let mut surface = super::Canvas::new(canvas)?;
     let palette = i.palette.palette()?;
     crate::render::draw_heat_map(&mut crate::render::Restyle { inner: &mut surface, palette }, &map);
     write(&serde_json::json!({"grid": grid_out(&grid), "openHours": open}))

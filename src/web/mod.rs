@@ -24,9 +24,17 @@ use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass
 use crate::solar::{self, Atmosphere, Crossing, Site, SunAtInstant};
 use crate::time::{parse_instant, DeltaT, Fold, Zone};
 
-/// A serde error from reading a JavaScript object, as a thrown `Error` naming the field.
+/// A serde error from reading a JavaScript object, as a thrown `Error` naming the call and the field's
+/// path in the caller's terms (`checkRule: rule.minRatio: invalid type: …`).
 fn read<T: for<'de> Deserialize<'de>>(value: JsValue, what: &str) -> Result<T, JsError> {
-    serde_wasm_bindgen::from_value(value).map_err(|e| JsError::new(&format!("{what}: {e}")))
+    serde_path_to_error::deserialize(serde_wasm_bindgen::Deserializer::from(value)).map_err(|e| {
+        let path = e.path().to_string();
+        if path.is_empty() || path == "." {
+            JsError::new(&format!("{what}: {}", e.inner()))
+        } else {
+            JsError::new(&format!("{what}: {path}: {}", e.inner()))
+        }
+    })
 }
 
 fn write<T: Serialize>(value: &T) -> Result<JsValue, JsError> {

@@ -82,7 +82,8 @@ fn convert(input: &str, defaults: &Defaults) -> Result<String, String> {
             let to = if k == THREADS {
                 body.len()
             } else {
-                body[target..].find('\n').map_or(body.len(), |i| target + i + 1)
+                // Bytes, not chars: `target` may fall inside a multi-byte character; a '\n' byte never does.
+                body.as_bytes()[target..].iter().position(|&b| b == b'\n').map_or(body.len(), |i| target + i + 1)
             };
             if to > from {
                 parts.push((&body[from..to], lines_before));
@@ -214,6 +215,49 @@ mod tests {
         let out = convert("lat,lon,time,elevation_m,pressure_hpa,temperature_c\n39.742476,-105.1786,2003-10-17T12:30:30-07:00,1830.14,820,11\n", &defaults()).unwrap();
         let z: f64 = out.lines().nth(1).unwrap().split(',').nth(6).unwrap().parse().unwrap();
         assert!((z - 50.11162).abs() < 5e-6, "{z}"); // SPA paper, Table A5.2
+    }
+}
+
+/// Mutation fuzzing of the batch reader (see `tests/fuzz_readers.rs` for the harness and its
+/// environment variables): every mutated CSV gives an output of finite numbers or an error naming a
+/// row or the header, never a panic.
+#[cfg(test)]
+#[allow(dead_code)]
+#[path = "../../../tests/fuzz/support.rs"]
+mod support;
+
+#[cfg(test)]
+mod fuzz {
+    use super::*;
+
+    #[test]
+    fn batch_reader_never_panics() {
+        let seed = include_str!("../../../tests/fuzz/corpus/batch/rows.csv");
+        let d = Defaults { atmosphere: Atmosphere::default(), delta_t: DeltaT::EspenakMeeus };
+        let secs = std::env::var("SUNLOT_FUZZ_SECS").ok().and_then(|s| s.parse::<f64>().ok()).unwrap_or(4.0);
+        let mut m = support::Mutator::new(0xba7c4);
+        let (start, mut cases, mut accepted) = (std::time::Instant::now(), 0, 0);
+        assert!(convert(seed, &d).is_ok());
+        while start.elapsed().as_secs_f64() < secs {
+            let input = m.mutate(seed);
+            cases += 1;
+            let outcome = std::panic::catch_unwind(|| convert(&input, &d));
+            let Ok(result) = outcome else { panic!("batch case {cases} panicked on:\n{input}") };
+            match result {
+                Ok(out) => {
+                    accepted += 1;
+                    for row in out.lines().skip(1) {
+                        let last3: Vec<&str> = row.rsplitn(4, ',').take(3).collect();
+                        for x in last3 {
+                            let v: f64 = x.parse().unwrap_or_else(|_| panic!("{x:?} in {row:?} from:\n{input}"));
+                            assert!(v.is_finite(), "{row} from:\n{input}");
+                        }
+                    }
+                }
+                Err(e) => assert!(e.contains("row") || e.contains("header") || e.contains("CSV"), "{e}"),
+            }
+        }
+        println!("fuzz batch: {cases} cases, {accepted} accepted");
     }
 }
 
