@@ -82,7 +82,7 @@ fn bad_input_throws_errors_that_name_the_field() {
         r#"{"latitudeDeg": 51, "longitudeDeg": 0, "date": "2024-03-31", "zone": "Mars/Base"}"#,
     )));
     assert!(m.contains("zone"), "{m}");
-    let m = error_message(sunlot::web::season_instants(7000, None));
+    let m = error_message(sunlot::web::season_instants(7000.0, JsValue::UNDEFINED));
     assert!(m.contains("year 7000"), "{m}");
     let m = error_message(sunlot::web::clear_sky(js(r#"{"zenithDeg": 30, "dayOfYear": 400}"#)));
     assert!(m.contains("dayOfYear"), "{m}");

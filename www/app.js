@@ -237,10 +237,11 @@
     $("u-file").addEventListener("change", () => {
       const file = $("u-file").files[0];
       if (!file) return;
-      const img = new Image();
-      img.onload = () => { under.image = img; under.a = under.b = null; drawPreview(); $("u-status").textContent = "click A on the image"; };
-      img.onerror = () => showError(`${file.name}: not an image the browser can read`);
-      img.src = URL.createObjectURL(file);
+      // Decoded straight from the file: no blob: URL, so a strict Content-Security-Policy (img-src
+      // 'self') does not block it.
+      createImageBitmap(file).then(img => {
+        under.image = img; under.a = under.b = null; drawPreview(); $("u-status").textContent = "click A on the image";
+      }, () => showError(`${file.name}: not an image the browser can read`));
     });
     $("u-preview").addEventListener("click", e => {
       if (!under.image) return;

@@ -15,6 +15,10 @@
   "use strict";
 
   const FIGURE = { width: 960, height: 760 };
+  /** The worker script beside this bundle (www/build/sunlot-worker.js), for pages served over http(s). */
+  const BUNDLE = typeof document !== "undefined"
+    && document.querySelector('script[src$="sunlot.bundle.js"], script[src$="sunlot-widgets.bundle.js"]');
+  const WORKER_URL = BUNDLE ? new URL("sunlot-worker.js", BUNDLE.src).href : null;
   const SKY = { width: 900, height: 720 };
 
   /** The maps a plan or map widget can show: which call makes them and how they read. */
@@ -753,7 +757,11 @@
           self.postMessage({ result: out });
         } catch (err) { self.postMessage({ error: String(err && err.message ? err.message : err) }); }
       };`;
-    const url = URL.createObjectURL(new Blob([source], { type: "text/javascript" }));
+    // From disk (file://) a worker can only be made from a Blob URL; served over http(s), the worker is
+    // the script file beside the bundle (same origin), so a strict Content-Security-Policy without
+    // blob: in worker-src (script-src 'self') allows it.
+    const served = location.protocol !== "file:" && WORKER_URL && new URL(WORKER_URL).origin === location.origin;
+    const url = served ? WORKER_URL : URL.createObjectURL(new Blob([source], { type: "text/javascript" }));
     const worker = new Worker(url);
     let reject, done = false;
     const promise = new Promise((res, rej) => {
@@ -762,13 +770,13 @@
         if (e.data.progress !== undefined) { if (onProgress) onProgress(e.data.progress); return; }
         done = true;
         worker.terminate();
-        URL.revokeObjectURL(url);
+        if (!served) URL.revokeObjectURL(url);
         if (e.data.error !== undefined) rej(new Error(e.data.error)); else res(e.data.result);
       };
       worker.onerror = e => { done = true; worker.terminate(); rej(new Error(e.message || "worker failed")); };
     });
     worker.postMessage({ fn, input });
-    return { promise, cancel() { if (done) return; done = true; worker.terminate(); URL.revokeObjectURL(url); reject(new Error("cancelled")); } };
+    return { promise, cancel() { if (done) return; done = true; worker.terminate(); if (!served) URL.revokeObjectURL(url); reject(new Error("cancelled")); } };
   }
 
   self.sunlotRunInWorker = runInWorker;

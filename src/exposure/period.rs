@@ -118,7 +118,7 @@ impl Period {
             Window::Clock { from, to } => (to - from).num_minutes().max(0) as f64,
         };
         let steps = self.days() as f64 * (window_min / f64::from(self.step_min.max(1))).ceil();
-        within("the request", cells as f64 * steps, MAX_CELL_STEPS, "cell-steps").map_err(|e| {
+        within("cell_m, step_min, to", cells as f64 * steps, MAX_CELL_STEPS, "cell-steps").map_err(|e| {
             e.hint(&format!("{cells} cells × up to {steps} steps: use larger cells, a longer step or a shorter period"))
         })?;
         Ok(())

@@ -70,7 +70,7 @@ pub fn sky_view_map(
     let patches = sky_patches(step_deg)?;
     crate::limits::within(
         "sky_step_deg",
-        (patches.len() * grid.inside_count()) as f64,
+        patches.len() as f64 * grid.inside_count() as f64,
         crate::limits::MAX_CELL_STEPS,
         "cell-patches",
     )

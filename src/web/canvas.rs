@@ -278,7 +278,7 @@ fn plan_job(input: JsValue) -> Result<PlanJob, JsError> {
         }
         Some(v) => {
             return Err(JsError::new(&format!(
-                "view: ({}, {}) across {} m is not a plan point and a positive width",
+                "view: xM, yM must be a plan point and widthM a positive width, got ({}, {}) across {} m",
                 v.x_m, v.y_m, v.width_m
             )))
         }

@@ -24,13 +24,15 @@ pub(crate) struct GridIn {
 
 /// The grid of `g` with the cells inside where `values` are numbers; checks the sizes agree.
 fn grid_of(g: GridIn, values: &[f64]) -> Result<Grid, JsError> {
+    if !(g.cell_m.is_finite() && g.cell_m > 0.0) {
+        return Err(JsError::new(&format!("grid.cellM: must be a positive number of metres, got {}", g.cell_m)));
+    }
     let cells = g.cols.checked_mul(g.rows).filter(|&n| n == values.len());
-    if cells.is_none() || !(g.cell_m.is_finite() && g.cell_m > 0.0) {
+    if cells.is_none() {
         return Err(JsError::new(&format!(
-            "grid: {} × {} cells of {} m do not fit {} values",
+            "grid.cols, grid.rows: {} × {} cells do not fit {} values",
             g.cols,
             g.rows,
-            g.cell_m,
             values.len()
         )));
     }

@@ -7,7 +7,7 @@ use js_sys::Float64Array;
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
-use super::{err, read, read_site_text, site, write};
+use super::{err, read, read_site_text, read_split, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
 use crate::rules::{check_rule, preset, CheckRequest, Rule};
@@ -114,7 +114,7 @@ impl MapIn {
             self.cell_m,
             self.max_cells.unwrap_or(crate::exposure::DEFAULT_MAX_CELLS),
         )
-        .map_err(|e| JsError::new(&format!("cellM: {e}")))?;
+        .map_err(|e| JsError::new(&format!("cellM, maxCells: {e}")))?;
         let first = date(&self.date, "date")?;
         let last = self.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
         let period = Period { first, last, window: window(self.window.as_deref())?, step_min: self.step_min };
@@ -223,8 +223,6 @@ pub fn compare_map(
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
 struct InsolationIn {
-    #[serde(flatten)]
-    map: MapIn,
     /// Aerosol optical depth at 500 nm of the Bird clear sky (default 0.1).
     aod500: Option<f64>,
     /// Sky patch size for the sky-view factor, degrees (default 5).
@@ -239,8 +237,8 @@ pub fn insolation_map(
     #[wasm_bindgen(unchecked_param_type = "InsolationInput")] input: JsValue,
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
-    let i: InsolationIn = read(input, "insolationMap")?;
-    let (model, grid, period, massing) = i.map.parts()?;
+    let (map, i): (MapIn, InsolationIn) = read_split(input, "insolationMap", &["aod500", "skyStepDeg"])?;
+    let (model, grid, period, massing) = map.parts()?;
     let mut atmosphere = crate::sky::BirdAtmosphere::default();
     if let Some(a) = i.aod500 {
         atmosphere.aod_500 = a;
@@ -249,7 +247,7 @@ pub fn insolation_map(
         model: &model,
         grid: &grid,
         period,
-        plane_m: i.map.plane_m,
+        plane_m: map.plane_m,
         delta_t: DeltaT::EspenakMeeus,
         massing,
         atmosphere,
@@ -287,6 +285,9 @@ struct CheckIn {
 #[wasm_bindgen(js_name = checkRule, unchecked_return_type = "CheckReport")]
 pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: CheckIn = read(input, "checkRule")?;
+    if !(-2000..=6000).contains(&i.year) {
+        return Err(JsError::new(&format!("year: must be -2000 to 6000, got {}", i.year)));
+    }
     let model = site(&i.site)?;
     let rule = match (&i.rule, &i.preset) {
         (Some(r), _) => Rule::from_json(&r.to_string()).map_err(err)?,
@@ -424,8 +425,6 @@ pub fn point_timeline(
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
 struct FigureIn {
-    #[serde(flatten)]
-    map: MapIn,
     /// "hours" (default: hours of direct sun with the chosen massing) or "lost" (hours lost to the
     /// proposal).
     show: Option<String>,
@@ -442,15 +441,15 @@ pub fn draw_map_figure(
     #[wasm_bindgen(unchecked_param_type = "MapFigureInput")] input: JsValue,
 ) -> Result<JsValue, JsError> {
     let mut surface = super::Canvas::new(canvas)?;
-    let i: FigureIn = read(input, "drawMapFigure")?;
-    let (model, grid, period, massing) = i.map.parts()?;
-    let req = i.map.request(&model, &grid, period, massing);
+    let (map, i): (MapIn, FigureIn) = read_split(input, "drawMapFigure", &["show", "palette"])?;
+    let (model, grid, period, massing) = map.parts()?;
+    let req = map.request(&model, &grid, period, massing);
     let describe = format!(
         "{}{}, {}, {}-minute steps",
-        i.map.date,
-        i.map.to.as_deref().map_or(String::new(), |t| format!(" to {t}")),
-        i.map.window.as_deref().unwrap_or("sunrise to sunset"),
-        i.map.step_min
+        map.date,
+        map.to.as_deref().map_or(String::new(), |t| format!(" to {t}")),
+        map.window.as_deref().unwrap_or("sunrise to sunset"),
+        map.step_min
     );
     let (values, open, title, unit, range) = match i.show.as_deref() {
         None | Some("hours") => {
@@ -475,8 +474,10 @@ pub fn draw_map_figure(
 /// longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}], siteJson}`,
 /// where `siteJson` is the site in the site-file format. Throws an `Error` naming the bad feature.
 #[wasm_bindgen(js_name = readSite, unchecked_return_type = "SiteSummary")]
-pub fn read_site(text: &str) -> Result<JsValue, JsError> {
-    let r = read_site_text(text)?;
+pub fn read_site(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue) -> Result<JsValue, JsError> {
+    // Taken as any value and checked: a `&str` parameter given a number traps in the glue code.
+    let text = super::text_arg(&text, "site")?;
+    let r = read_site_text(&text)?;
     let m = &r.model;
     let status = |s: crate::site::Status| if s == crate::site::Status::Proposed { "proposed" } else { "existing" };
     let areas: Vec<_> = m

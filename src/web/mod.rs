@@ -6,6 +6,7 @@
 use chrono::{DateTime, Utc};
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
+use wasm_bindgen::JsCast;
 
 mod canvas;
 mod layer;
@@ -52,30 +53,45 @@ fn site(text: &str) -> Result<crate::site::SiteModel, JsError> {
     read_site_text(text).map(|r| r.model)
 }
 
+/// Reads an input whose members belong to two types: `B`'s members (`b_keys`) are taken out of the
+/// object first, so each part is read with its own field paths (serde's `flatten` loses them) and its
+/// own unknown-member check.
+fn read_split<A: for<'de> Deserialize<'de>, B: for<'de> Deserialize<'de>>(
+    value: JsValue,
+    what: &str,
+    b_keys: &[&str],
+) -> Result<(A, B), JsError> {
+    if !value.is_object() || js_sys::Array::is_array(&value) {
+        return Err(read::<A>(value, what).err().unwrap_or_else(|| JsError::new(&format!("{what}: not an object"))));
+    }
+    let (a, b) = (js_sys::Object::new(), js_sys::Object::new());
+    for key in js_sys::Object::keys(value.unchecked_ref::<js_sys::Object>()).iter() {
+        let v = js_sys::Reflect::get(&value, &key).unwrap_or(JsValue::UNDEFINED);
+        let to_b = key.as_string().is_some_and(|k| b_keys.contains(&k.as_str()));
+        let _ = js_sys::Reflect::set(if to_b { &b } else { &a }, &key, &v);
+    }
+    Ok((read(a.into(), what)?, read(b.into(), what)?))
+}
+
+/// A string argument given as any JavaScript value; anything but a string is an error naming `field`.
+fn text_arg(value: &JsValue, field: &str) -> Result<String, JsError> {
+    value.as_string().ok_or_else(|| {
+        let kind = value.js_typeof().as_string().unwrap_or_default();
+        JsError::new(&format!("{field}: must be text (a string), got a {kind}"))
+    })
+}
+
 fn err(e: impl std::fmt::Display) -> JsError {
     JsError::new(&e.to_string())
 }
 
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct SiteIn {
+struct PositionIn {
     latitude_deg: f64,
     longitude_deg: f64,
     #[serde(default)]
     elevation_m: f64,
-}
-
-impl SiteIn {
-    fn site(&self) -> Result<Site, JsError> {
-        Site::new(self.latitude_deg, self.longitude_deg, self.elevation_m).map_err(err)
-    }
-}
-
-#[derive(Deserialize)]
-#[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct PositionIn {
-    #[serde(flatten)]
-    site: SiteIn,
     /// RFC 3339 with offset.
     time: Option<String>,
     /// Local wall-clock `YYYY-MM-DDTHH:MM[:SS]` in `zone` (instead of `time`).
@@ -136,7 +152,7 @@ pub fn solar_position(
     #[wasm_bindgen(unchecked_param_type = "SolarPositionInput")] input: JsValue,
 ) -> Result<JsValue, JsError> {
     let i: PositionIn = read(input, "solarPosition")?;
-    let site = i.site.site()?;
+    let site = Site::new(i.latitude_deg, i.longitude_deg, i.elevation_m).map_err(err)?;
     let d = Atmosphere::default();
     let air = Atmosphere::new(
         i.pressure_hpa.unwrap_or(d.pressure_hpa),
@@ -151,7 +167,11 @@ pub fn solar_position(
             let (t, written) = parse_instant(text).map_err(err)?;
             (t, z.unwrap_or(written))
         }
-        (None, Some(text), Some(z)) => (z.parse_local(text, fold(i.fold.as_deref())?).map_err(err)?, z),
+        (None, Some(text), Some(z)) => (
+            z.parse_local(text, fold(i.fold.as_deref())?)
+                .map_err(|e| JsError::new(&format!("localTime, fold: {e}")))?,
+            z,
+        ),
         (None, Some(_), None) => return Err(JsError::new("solarPosition: localTime needs a zone")),
         (None, None, _) => {
             return Err(JsError::new("solarPosition: missing field `time` (RFC 3339) or `localTime` with `zone`"))
@@ -179,8 +199,10 @@ pub fn solar_position(
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
 struct DayIn {
-    #[serde(flatten)]
-    site: SiteIn,
+    latitude_deg: f64,
+    longitude_deg: f64,
+    #[serde(default)]
+    elevation_m: f64,
     /// Local date `YYYY-MM-DD`.
     date: String,
     zone: String,
@@ -208,7 +230,7 @@ struct DayOut {
 #[wasm_bindgen(js_name = dayEvents, unchecked_return_type = "DayEvents")]
 pub fn day_events(#[wasm_bindgen(unchecked_param_type = "DayEventsInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: DayIn = read(input, "dayEvents")?;
-    let site = i.site.site()?;
+    let site = Site::new(i.latitude_deg, i.longitude_deg, i.elevation_m).map_err(err)?;
     let z = zone(Some(&i.zone))?.unwrap_or_else(Zone::utc);
     let date = Zone::parse_date(&i.date).map_err(err)?;
     let ev = solar::day_events(&site, date, &z, delta_t(i.delta_t_s)).map_err(err)?;
@@ -248,7 +270,18 @@ struct SeasonsOut {
 
 /// The equinox and solstice instants of `year`, as RFC 3339 strings in `zone` (UTC when omitted).
 #[wasm_bindgen(js_name = seasonInstants, unchecked_return_type = "SeasonInstants")]
-pub fn season_instants(year: i32, zone_name: Option<String>) -> Result<JsValue, JsError> {
+pub fn season_instants(
+    year: f64,
+    #[wasm_bindgen(unchecked_param_type = "string | undefined")] zone_name: JsValue,
+) -> Result<JsValue, JsError> {
+    // Both taken as any value and checked: an `Option<String>` given a number traps in the glue code,
+    // and an `i32` turns NaN or 2026.5 into a year silently.
+    if !(year.fract() == 0.0 && year.abs() <= 1e6) {
+        return Err(JsError::new(&format!("year: must be a whole year, got {year}")));
+    }
+    let year = year as i32;
+    let zone_name =
+        if zone_name.is_undefined() || zone_name.is_null() { None } else { Some(text_arg(&zone_name, "zone")?) };
     let z = zone(zone_name.as_deref())?.unwrap_or_else(Zone::utc);
     let s = solar::season_instants(year, DeltaT::EspenakMeeus).map_err(err)?;
     write(&SeasonsOut {
