@@ -22,10 +22,25 @@
 
     // The site: restored from the browser's storage when a valid one was saved, else the demo.
     let site = module.demoSiteText();
+    let restored = false;
     try {
       const saved = localStorage.getItem(STORE);
-      if (saved) site = module.readSite(saved).siteJson;
+      if (saved) { site = module.readSite(saved).siteJson; restored = true; }
     } catch (e) { /* a saved site that no longer reads: keep the demo */ }
+    let savedOk = true;
+    try { localStorage.setItem(`${STORE}-probe`, "1"); localStorage.removeItem(`${STORE}-probe`); } catch (e) { savedOk = false; }
+    const stamp = () => new Date().toLocaleTimeString([], { hour: "2-digit", minute: "2-digit" });
+    /** Saves the site in the browser's storage and says so (or says it cannot). */
+    const keep = text => {
+      try { localStorage.setItem(STORE, text); $("autosave").textContent = `Saved in this browser at ${stamp()}: ` +
+        "your site comes back when you reopen the page."; } catch (e) {
+        $("autosave").textContent = "This browser does not keep the site (storage full or off): save it as a file to keep it.";
+      }
+    };
+    $("autosave").textContent = !savedOk
+      ? "This browser does not keep the site (storage off): save it as a file to keep it."
+      : restored ? "Restored your site from this browser's storage (saved there at every change)."
+        : "Your site is kept in this browser: every change is saved here and comes back when you reopen the page.";
     let info = module.readSite(site);
 
     const moment = () => {
@@ -45,7 +60,7 @@
       const next = module.readSite(text);
       site = next.siteJson;
       info = next;
-      try { localStorage.setItem(STORE, site); } catch (e) { /* storage full or off: the page still works */ }
+      keep(site);
       $("site-name").textContent = `${info.name}${source ? ` (from ${source})` : ""}`;
       await Promise.all([plan.setSite(site), sky.setSite(site), mapEl.setSite(site)]);
       refreshMap();
@@ -182,7 +197,7 @@
     plan.addEventListener("sunlot-edit", async e => {
       site = e.detail.site;
       info = module.readSite(site);
-      try { localStorage.setItem(STORE, site); } catch (err) { /* the page still works */ }
+      keep(site);
       await Promise.all([sky.setSite(site), mapEl.setSite(site)]);
       showFeature();
       updateEditButtons();
