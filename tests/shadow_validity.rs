@@ -13,8 +13,11 @@ use sunlot::site::{Ground, SiteModel, Status, Volume, Wall};
 use sunlot::time::{DeltaT, Zone};
 use sunlot::Site;
 
-/// A block `w` × `d` m centred at (`cx`, `cy`) turned by `turn_deg`, optionally with a courtyard.
-fn block(id: usize, cx: f64, cy: f64, w: f64, d: f64, turn_deg: f64, base: f64, top: f64, court: bool) -> Volume {
+/// A block `w` × `d` m centred at (`cx`, `cy`) turned by `turn_deg`, `height` m tall, optionally with a
+/// courtyard; every third block floats `base` m above the ground (bridges, overhangs).
+fn block(id: usize, &(cx, cy, w, d, turn_deg, base, height, court): &BlockSpec) -> Volume {
+    let base = if id % 3 == 2 { base } else { 0.0 };
+    let top = base + height;
     let (s, c) = turn_deg.to_radians().sin_cos();
     let at = |x: f64, y: f64| Coord { x: cx + x * c - y * s, y: cy + x * s + y * c };
     let rect = |hw: f64, hd: f64| LineString::from(vec![at(-hw, -hd), at(hw, -hd), at(hw, hd), at(-hw, hd)]);
@@ -42,15 +45,7 @@ fn blocks() -> impl Strategy<Value = Vec<BlockSpec>> {
 }
 
 fn site(specs: &[BlockSpec], slope_deg: f64, aspect_deg: f64, rotation_deg: f64, wall: bool) -> SiteModel {
-    let volumes = specs
-        .iter()
-        .enumerate()
-        .map(|(k, &(cx, cy, w, d, turn, base, height, court))| {
-            // Some blocks stand on the ground, some float (bridges, overhangs).
-            let base = if k % 3 == 2 { base } else { 0.0 };
-            block(k, cx, cy, w, d, turn, base, base + height, court)
-        })
-        .collect();
+    let volumes = specs.iter().enumerate().map(|(k, spec)| block(k, spec)).collect();
     let walls = if wall {
         vec![Wall::new(
             "wall",
