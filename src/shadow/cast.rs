@@ -111,7 +111,10 @@ pub(crate) fn flat_volume_faces(volume: &Volume, offset: Coord<f64>, plane_m: f6
 /// d = t − b (front edges) move by d, the others stay, and where the two kinds meet the sum gains an
 /// edge parallel to d (a standard construction of the Minkowski sum of convex polygons).
 fn swept_convex(ring: &LineString<f64>, b: Coord<f64>, t: Coord<f64>) -> Polygon<f64> {
-    let c = &ring.0;
+    // Without repeated vertices: an edge of no length has no outward normal and would send the walk
+    // back over its own path (found by fuzzing: a footprint with a vertex given twice).
+    let mut c: Vec<Coord<f64>> = ring.0.clone();
+    c.dedup();
     let n = if c.len() > 1 && c.first() == c.last() { c.len() - 1 } else { c.len() };
     if n == 0 {
         return Polygon::new(LineString::new(vec![]), vec![]);
@@ -274,6 +277,24 @@ pub fn without_slivers(mp: MultiPolygon<f64>) -> MultiPolygon<f64> {
             .map(|p| Polygon::new(ring(p.exterior()), p.interiors().iter().filter(|h| big(h)).map(ring).collect()))
             .collect(),
     )
+}
+
+#[cfg(test)]
+mod sweep_tests {
+    use super::*;
+    use geo::Validation;
+
+    /// Found by fuzzing: a convex footprint with a vertex given twice swept into a self-intersecting ring.
+    #[test]
+    fn a_repeated_vertex_leaves_the_swept_shadow_valid() {
+        let ring = LineString::from(vec![(3.0, 4.0), (25.0, 4.0), (25.0, 30.0), (3.0, 30.0), (3.0, 30.0)]);
+        for (dx, dy) in [(1.0, 1.0), (-2.0, 1.0), (1.0, -3.0), (-1.0, -1.0), (0.0, 2.0), (2.0, 0.0)] {
+            let p = swept_convex(&ring, Coord { x: 0.0, y: 0.0 }, Coord { x: dx, y: dy });
+            assert!(p.is_valid(), "{:?}: {:?}", (dx, dy), p.validation_errors());
+            let want = 22.0 * 26.0 + (22.0 * dy.abs() + 26.0 * dx.abs());
+            assert!((p.unsigned_area() - want).abs() < 1e-9, "{} against {want}", p.unsigned_area());
+        }
+    }
 }
 
 #[cfg(test)]

@@ -411,6 +411,15 @@ mod tests {
         assert!(matches!(SiteModel::from_json("{"), Err(SiteFileError::Json(_))));
     }
 
+    /// Found by fuzzing: flat ground with an aspect was written without its ground and read back
+    /// with aspect 0, so the site did not round-trip.
+    #[test]
+    fn flat_ground_has_no_aspect() {
+        let m = SiteModel::from_json(&SMALL.replace("\"slope_deg\": 4", "\"slope_deg\": 0")).unwrap();
+        assert_eq!(m.ground, Ground::flat());
+        assert_eq!(SiteModel::from_json(&m.to_json()).unwrap(), m);
+    }
+
     /// Found by fuzzing: a member given twice was read as its last copy, and serde's messages gave a
     /// line and column but not the field.
     #[test]

@@ -27,7 +27,9 @@ impl Ground {
         Coord { x: rise * s, y: rise * c }
     }
 
-    /// Checks the slope (0 to below 60°) and aspect (finite).
+    /// Checks the slope (0 to below 60°) and aspect (finite). Flat ground has no aspect: it becomes
+    /// [`Ground::flat`], so a site reads the same after it is written (found by fuzzing: flat ground
+    /// with an aspect came back with aspect 0).
     ///
     /// # Errors
     /// A message naming `slope_deg` or `aspect_deg`.
@@ -37,6 +39,9 @@ impl Ground {
         }
         if !self.aspect_deg.is_finite() {
             return Err(format!("ground.aspect_deg must be a finite number, got {}", self.aspect_deg));
+        }
+        if self.slope_deg == 0.0 {
+            return Ok(Ground::flat());
         }
         Ok(self)
     }
