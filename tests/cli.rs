@@ -523,3 +523,45 @@ fn shadow_plan_as_png_and_svg() {
     let text = std::fs::read_to_string(&svg).unwrap();
     assert!(text.contains("added by proposal") && text.contains("licensed"));
 }
+
+/// Found by hostile input: a grid of ~1e10 cells ran out of memory and long periods ran for minutes.
+/// Every request is checked against its budget before the work allocates, naming the field, the
+/// request's size and the limit (`src/limits.rs`).
+#[test]
+fn oversized_requests_are_refused_before_any_work() {
+    let o =
+        sunlot(&["hours", "--demo", "--date", "2026-03-20", "--cell-m", "0.01", "--max-cells", "100000000000"], None);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("more than the limit of 16000000"), "{}", stderr(&o));
+    let o = sunlot(
+        &["hours", "--demo", "--date", "2026-01-01", "--to", "2035-12-31", "--step-min", "1", "--cell-m", "0.05"],
+        None,
+    );
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(
+        stderr(&o)
+            .contains("cell_m, step_min, to: 5,242,051,584,000 cell-steps is more than the limit of 200,000,000,000"),
+        "{}",
+        stderr(&o)
+    );
+    let o = sunlot(&["hours", "--demo", "--date", "2026-01-01", "--to", "2999-12-31", "--cell-m", "2"], None);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("the period: 355,746 days is more than the limit of 3,660 days"), "{}", stderr(&o));
+    let o = sunlot(
+        &[
+            "insolation",
+            "--demo",
+            "--date",
+            "2026-03-20",
+            "--cell-m",
+            "0.02",
+            "--sky-step-deg",
+            "0.5",
+            "--max-cells",
+            "16000000",
+        ],
+        None,
+    );
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("sky_step_deg:") && stderr(&o).contains("cell-patches"), "{}", stderr(&o));
+}

@@ -119,6 +119,7 @@ impl Period {
         };
         let steps = self.days() as f64 * (window_min / f64::from(self.step_min.max(1))).ceil();
         within("cell_m, step_min, to", cells as f64 * steps, MAX_CELL_STEPS, "cell-steps").map_err(|e| {
+            let (cells, steps) = (crate::limits::count(cells as f64), crate::limits::count(steps));
             e.hint(&format!("{cells} cells × up to {steps} steps: use larger cells, a longer step or a shorter period"))
         })?;
         Ok(())
