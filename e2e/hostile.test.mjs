@@ -142,6 +142,9 @@ const report = await page.evaluate(async HANG_MS => {
     const ms = performance.now() - t0;
     if (ms > HANG_MS) results.slow.push(`${c.name} ${c.key}: ${ms.toFixed(0)} ms`);
   }
+  // A type error inside the rule names its path in the rule.
+  try { m.checkRule({ site, year: 2026, rule: { ...calls.checkRuleCustom[0].rule, min_ratio: "high" } }); results.rulePath = "no error"; }
+  catch (e) { results.rulePath = e.message; }
   // Still working: the SPA paper's worked example (Reda & Andreas 2004, Table A5.2: zenith 50.11162°).
   const p = m.solarPosition({ latitudeDeg: 39.742476, longitudeDeg: -105.1786, elevationM: 1830.14,
                               time: "2003-10-17T12:30:30-07:00", pressureHpa: 820, temperatureC: 11, deltaTS: 67 });
@@ -163,6 +166,7 @@ check(report.other.length === 0, `every throw is an Error (${report.other.length
 report.other.forEach(t => console.log(`       other: ${t}`));
 check(report.unnamed.length === 0, `every error names the member (${report.unnamed.length} do not)`);
 report.unnamed.forEach(t => console.log(`       unnamed: ${t}`));
+check(/^rule\.min_ratio: invalid type: string "high", expected f64/.test(report.rulePath), `a rule's type error names rule.min_ratio (${report.rulePath})`);
 check(Math.abs(report.afterwards - 50.11162) < 5e-6, `the module still gives the SPA worked example afterwards (${report.afterwards})`);
 check(report.mapAfterwards, "the module still computes a map afterwards");
 check(console_errors.length === 0, `no uncaught page errors (${console_errors.join("; ").slice(0, 300)})`);

@@ -290,7 +290,15 @@ pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input:
     }
     let model = site(&i.site)?;
     let rule = match (&i.rule, &i.preset) {
-        (Some(r), _) => Rule::from_json(&r.to_string()).map_err(err)?,
+        (Some(r), _) => Rule::from_json(&r.to_string()).map_err(|e| match e {
+            // A field path first (`min_ratio: invalid type …`) reads as `rule.min_ratio: …`.
+            crate::rules::RuleError::Json(m) => {
+                let head = m.split(':').next().unwrap_or_default();
+                let is_path = !head.is_empty() && head.chars().all(|c| c.is_alphanumeric() || "_[].".contains(c));
+                JsError::new(&if is_path { format!("rule.{m}") } else { format!("rule: {m}") })
+            }
+            other => err(other),
+        })?,
         (None, p) => preset(p.as_deref().unwrap_or("bre-br209-amenity")).map_err(err)?,
     };
     let req = CheckRequest {
