@@ -24,6 +24,9 @@ pub const MAX_GRID_CELLS: usize = 16_000_000;
 /// Most cell-steps (cells inside the areas × sun-up steps, counted from the period's longest possible
 /// days) of one map: about a minute and a half of work natively at the measured ~2e9 cell-steps/s.
 pub const MAX_CELL_STEPS: f64 = 2e11;
+/// Most ray tests (directions or moments × volumes and walls) of one point's calculation: a point's
+/// sky-view factor, its year, its day.
+pub const MAX_RAY_TESTS: f64 = 2e8;
 /// Most days in one period.
 pub const MAX_PERIOD_DAYS: usize = 3_660;
 /// Largest side of a figure (canvas or SVG), pixels.

@@ -97,8 +97,12 @@ pub fn sky_view_at(model: &SiteModel, point: ViewPoint, massing: Massing, step_d
     // ΔT plays no part: the patches are directions, not moments.
     let sky = super::timeline::PointSky::new(model, point, massing, crate::time::DeltaT::EspenakMeeus);
     // Summed as the hidden share, as the map does, so an open point gets exactly 1.
+    let patches = sky_patches(step_deg)?;
+    let casters = (model.volumes.len() + model.walls.len()) as f64;
+    crate::limits::within("sky_step_deg", patches.len() as f64 * casters, crate::limits::MAX_RAY_TESTS, "ray tests")
+        .map_err(|e| e.hint("use a larger sky step"))?;
     let mut hidden = 0.0;
-    for p in sky_patches(step_deg)? {
+    for p in patches {
         if sky.toward(p.azimuth_deg, p.altitude_deg)? != Exposure::Sunlit {
             hidden += p.weight;
         }
@@ -112,6 +116,35 @@ mod tests {
     use crate::exposure::DEFAULT_MAX_CELLS;
     use crate::site::{Area, AreaKind, Status, Wall};
     use geo::{LineString, Polygon};
+
+    /// A point's sky view and year are refused before any ray is cast when they would take too many
+    /// ray tests (hostile input: a fine sky step or a one-minute year over a town of volumes).
+    #[test]
+    fn point_work_over_budget_is_refused_first() {
+        let mut m = crate::demo::demo();
+        let v = m.volumes[0].clone();
+        for k in 0..2_000 {
+            let mut c = v.clone();
+            c.id = format!("copy-{k}");
+            m.volumes.push(c);
+        }
+        let p = crate::shadow::ViewPoint { x_m: 31.0, y_m: 25.0, z_m: 0.0 };
+        let e = sky_view_at(&m, p, Massing::WithProposed, 0.5).unwrap_err().to_string();
+        assert!(e.starts_with("sky_step_deg: 260,496,000 ray tests is more than the limit of 200,000,000"), "{e}");
+        let e = crate::exposure::year_profile(
+            &m,
+            p,
+            2026,
+            1,
+            Massing::WithProposed,
+            &Default::default(),
+            crate::time::DeltaT::EspenakMeeus,
+            |_| true,
+        )
+        .unwrap_err()
+        .to_string();
+        assert!(e.starts_with("step_min: ") && e.contains("ray tests is more than the limit"), "{e}");
+    }
 
     #[test]
     fn patch_weights_sum_to_one() {
