@@ -20,10 +20,12 @@
 //! - [`site`]: the site model: massing volumes and walls in the plan frame.
 //! - [`shadow`]: exact shadow polygons of the massing and their union.
 //! - [`exposure`]: analysis grids, exact rasterising, hours of direct sun per cell.
+//! - [`daylight`]: the sky component of windows and planes under the CIE overcast sky.
 //! - [`limits`]: the budget every request is checked against before any allocation.
 //! - [`demo`]: the invented demo scenario.
 //! - `web` (wasm32 only): the JavaScript facade.
 
+pub mod daylight;
 pub mod demo;
 pub mod envelope;
 pub mod exposure;
