@@ -1,6 +1,6 @@
 //! Exposure over areas: analysis grids, exact rasterising of shadow polygons at cell centres, hours
 //! of direct sun, sky-view factors and clear-sky insolation per cell, before and after a proposal,
-//! and the periods they run over.
+//! and the periods they run over; a point's day and year, and a window's hours of direct sun.
 
 mod compare;
 mod geojson_out;
@@ -13,6 +13,7 @@ mod sky_view;
 mod sun_hours;
 mod tiles;
 mod timeline;
+mod window_sun;
 mod year_profile;
 
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
@@ -27,4 +28,5 @@ pub(crate) use sun_hours::step_offset;
 pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};
 pub use tiles::{massing_near, shadow_halo_m};
 pub use timeline::{day_timeline, Interval, Timeline};
+pub use window_sun::{in_front_of_wall, window_sun_hours, WindowSun};
 pub use year_profile::{year_profile, MonthProfile, YearProfile};
