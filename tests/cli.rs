@@ -565,3 +565,44 @@ fn oversized_requests_are_refused_before_any_work() {
     assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
     assert!(stderr(&o).contains("sky_step_deg:") && stderr(&o).contains("cell-patches"), "{}", stderr(&o));
 }
+
+/// `sunlot window`: the demo's rear window of 16 Tenter Lane (north-facing, west of it the proposal):
+/// existing and with-proposal rows, the sky component within the unobstructed 39.62 % and lower with
+/// the proposal, hours of sun no more than the open window's, which are no more than the day's.
+#[test]
+fn window_reports_sky_component_and_sun_hours_before_and_after() {
+    let o = sunlot(
+        &["window", "--demo", "--at", "31,12,1.2", "--facing-deg", "0", "--date", "2026-06-21", "--format", "json"],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let rows = v.as_array().unwrap_or_else(|| panic!("{v}"));
+    assert_eq!(rows.len(), 2, "{v}");
+    let num = |r: &serde_json::Value, k: &str| r[k].as_f64().unwrap_or_else(|| panic!("{k} in {r}"));
+    let (before, after) = (&rows[0], &rows[1]);
+    assert_eq!(before["massing"], "existing");
+    for r in rows {
+        assert!(num(r, "vsc_pct") > 0.0 && num(r, "vsc_pct") <= 39.62, "{r}");
+        assert!(num(r, "sun_h") <= num(r, "open_sun_h") + 1e-9 && num(r, "open_sun_h") <= num(r, "day_h"), "{r}");
+    }
+    assert!(num(after, "vsc_pct") < num(before, "vsc_pct"), "{v}");
+    assert!(num(after, "sun_h") <= num(before, "sun_h"), "{v}");
+    let o = sunlot(
+        &[
+            "window",
+            "--demo",
+            "--at",
+            "31,12,1.2",
+            "--facing-deg",
+            "0",
+            "--date",
+            "2026-06-21",
+            "--azimuth-step-deg",
+            "9",
+        ],
+        None,
+    );
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("azimuth_step_deg must be 0.01 to 5"), "{}", stderr(&o));
+}

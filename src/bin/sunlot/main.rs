@@ -19,6 +19,7 @@ mod seasons;
 mod shadows;
 mod sky;
 mod timeline;
+mod window;
 
 use std::io::Write;
 use std::process::ExitCode;
@@ -63,6 +64,8 @@ enum Command {
     Timeline(timeline::TimelineArgs),
     /// A point's year: direct-sun hours and clear-sky insolation per month.
     Year(timeline::YearArgs),
+    /// A window's vertical sky component and hours of direct sun, existing and with the proposal.
+    Window(window::WindowArgs),
     /// The sun-path diagram of a site (PNG or SVG), with the skyline seen from a point.
     Sky(sky::SkyArgs),
     /// Convert a site between sunlot's site file and GeoJSON.
@@ -89,6 +92,7 @@ fn main() -> ExitCode {
         Command::Envelope(a) => envelope::run(a),
         Command::Timeline(a) => timeline::run_timeline(a),
         Command::Year(a) => timeline::run_year(a),
+        Command::Window(a) => window::run(a),
         Command::Sky(a) => sky::run(a),
         Command::Convert(a) => shadows::run_convert(a),
         Command::Point(a) => point::run(a),

@@ -1,0 +1,86 @@
+//! `sunlot window`: a window's daylight and sunlight before and with the proposal — its vertical sky
+//! component under the CIE overcast sky, and its clear-sky hours of direct sun over a period.
+
+use clap::Args;
+use sunlot::daylight::{sky_component_pct, SkyPlane, DEFAULT_AZIMUTH_STEP_DEG, UNOBSTRUCTED_VERTICAL_PCT};
+use sunlot::exposure::{window_sun_hours, Massing};
+use sunlot::rules::CAUTION;
+
+use crate::args::DeltaTArgs;
+use crate::maps::PeriodArgs;
+use crate::output::{Cell, Format, Table};
+use crate::point::parse_point;
+use crate::shadows::SiteFileArgs;
+
+#[derive(Debug, Args)]
+pub struct WindowArgs {
+    #[command(flatten)]
+    pub site: SiteFileArgs,
+    /// The window's reference point on the outside face of its wall: plan x and y and height above
+    /// ground, metres, as X,Y,Z (e.g. 31,12,1.2).
+    #[arg(long, value_name = "X,Y,Z", allow_hyphen_values = true)]
+    pub at: String,
+    /// The direction the window faces (its wall's outward normal), degrees clockwise from true north.
+    #[arg(long, allow_hyphen_values = true)]
+    pub facing_deg: f64,
+    #[command(flatten)]
+    pub period: PeriodArgs,
+    /// Width of the sky's azimuth bins for the sky component, degrees (0.01 to 5).
+    #[arg(long, default_value_t = DEFAULT_AZIMUTH_STEP_DEG)]
+    pub azimuth_step_deg: f64,
+    #[command(flatten)]
+    pub delta_t: DeltaTArgs,
+    /// Output: an aligned table, JSON, or CSV.
+    #[arg(long, value_enum, default_value_t = Format::Table)]
+    pub format: Format,
+}
+
+pub fn run(a: &WindowArgs) -> Result<String, String> {
+    let model = a.site.load()?.model;
+    let p = parse_point(&a.at)?;
+    let period = a.period.period()?;
+    let delta_t = a.delta_t.delta_t()?;
+    let plane = SkyPlane::Vertical { facing_deg: a.facing_deg };
+    let mut out = Table::new(
+        format!(
+            "Window at ({}, {}, {} m) facing {}° — {} — {}",
+            p.x_m,
+            p.y_m,
+            p.z_m,
+            a.facing_deg,
+            model.name,
+            a.period.describe()
+        ),
+        vec!["massing", "vsc_pct", "sun_h", "open_sun_h", "day_h"],
+    );
+    let mut rows = Vec::new();
+    for (name, massing) in [("existing", Massing::Existing), ("with proposal", Massing::WithProposed)] {
+        let vsc = sky_component_pct(&model, p, plane, massing, a.azimuth_step_deg).map_err(|e| e.to_string())?;
+        let sun = window_sun_hours(&model, p, a.facing_deg, &period, massing, delta_t, |_| true)
+            .map_err(|e| e.to_string())?;
+        out.rows.push(vec![
+            Cell::text(name),
+            Cell::num(vsc, 2),
+            Cell::num(sun.sun_hours, 2),
+            Cell::num(sun.front_hours, 2),
+            Cell::num(sun.day_hours, 2),
+        ]);
+        rows.push((vsc, sun.sun_hours));
+    }
+    let ((vsc0, sun0), (vsc1, sun1)) = (rows[0], rows[1]);
+    let ratio = |after: f64, before: f64| if before > 0.0 { format!("{:.2}", after / before) } else { "—".into() };
+    out.notes.push(format!(
+        "With the proposal / existing: sky component {}, hours of direct sun {}.",
+        ratio(vsc1, vsc0),
+        ratio(sun1, sun0)
+    ));
+    out.notes.push(format!(
+        "vsc_pct: vertical sky component, the light from the visible sky of the CIE standard overcast sky on the \
+         window's plane as a percentage of an unobstructed horizontal plane's ({UNOBSTRUCTED_VERTICAL_PCT:.2} % for an \
+         unobstructed window). sun_h: clear-sky hours the sun is up, in front of the window and not blocked; \
+         open_sun_h: the same with nothing blocking. Clear-sky hours are an upper bound of probable sunlight \
+         hours, which need a local sunshine record that sunlot does not have."
+    ));
+    out.notes.push(CAUTION.into());
+    Ok(out.render(a.format))
+}
