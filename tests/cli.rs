@@ -606,3 +606,24 @@ fn window_reports_sky_component_and_sun_hours_before_and_after() {
     assert_eq!(o.status.code(), Some(2));
     assert!(stderr(&o).contains("azimuth_step_deg must be 0.01 to 5"), "{}", stderr(&o));
 }
+
+/// A window named in a version 2 site file is picked by its id, with its name in the title; an unknown
+/// id lists the site's windows.
+#[test]
+fn window_by_id_from_the_site_file() {
+    let site = concat!(env!("CARGO_MANIFEST_DIR"), "/tests/fuzz/corpus/site/windows.site.json");
+    let o = sunlot(&["window", site, "--id", "w-16-rear", "--date", "2026-06-21", "--format", "json"], None);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let by_id: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let o = sunlot(
+        &["window", site, "--at", "31,12,1.2", "--facing-deg", "0", "--date", "2026-06-21", "--format", "json"],
+        None,
+    );
+    let by_point: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(by_id, by_point);
+    let o = sunlot(&["window", site, "--id", "w-16-rear", "--date", "2026-06-21"], None);
+    assert!(stdout(&o).starts_with("16 Tenter Lane, rear window facing 0°"), "{}", stdout(&o));
+    let o = sunlot(&["window", site, "--id", "nope", "--date", "2026-06-21"], None);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("no window \"nope\" (its windows: w-16-rear, w-12-rear"), "{}", stderr(&o));
+}

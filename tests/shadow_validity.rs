@@ -66,6 +66,7 @@ fn site(specs: &[BlockSpec], slope_deg: f64, aspect_deg: f64, rotation_deg: f64,
         areas: vec![],
         volumes,
         walls,
+        windows: vec![],
     }
 }
 

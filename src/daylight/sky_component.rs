@@ -141,6 +141,7 @@ mod tests {
             areas: vec![],
             volumes,
             walls: vec![],
+            windows: vec![],
         }
     }
 

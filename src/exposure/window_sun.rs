@@ -95,6 +95,7 @@ mod tests {
             areas: vec![],
             volumes,
             walls: vec![],
+            windows: vec![],
         }
     }
 

@@ -1,12 +1,15 @@
-//! The site file: sunlot's own versioned JSON in local plan metres (schema: `schemas/site-v1.schema.json`).
+//! The site file: sunlot's own versioned JSON in local plan metres (schema: `schemas/site-v2.schema.json`;
+//! version 1, `schemas/site-v1.schema.json`, the same without windows, is still read).
 //!
 //! ```json
-//! { "sunlot_site": 1, "name": "…",
+//! { "sunlot_site": 2, "name": "…",
 //!   "location": { "latitude_deg": 52.62, "longitude_deg": -1.87, "elevation_m": 118, "zone": "Europe/London" },
 //!   "plan_rotation_deg": 0, "ground": { "slope_deg": 0, "aspect_deg": 180 },
 //!   "areas":   [ { "id": "garden-12", "kind": "garden", "status": "existing", "outline": [[x, y], …], "holes": [] } ],
 //!   "volumes": [ { "id": "block-a", "status": "proposed", "base_m": 0, "top_m": 12.5, "outline": [[x, y], …] } ],
-//!   "walls":   [ { "id": "fence-1", "status": "existing", "height_m": 1.8, "line": [[x, y], …] } ] }
+//!   "walls":   [ { "id": "fence-1", "status": "existing", "height_m": 1.8, "line": [[x, y], …] } ],
+//!   "windows": [ { "id": "w-16-rear", "name": "16 Tenter Lane, rear window", "status": "existing",
+//!                  "at": [x, y, z], "facing_deg": 0, "opening_width_m": 1.2, "opening_height_m": 1.4 } ] }
 //! ```
 //! Plan x runs to the plan's right and y to its top, in metres; `plan_rotation_deg` is the angle,
 //! clockwise, from the plan's top to true north (0 when the plan is drawn to true north). `ground` is
@@ -17,13 +20,14 @@ use serde::{Deserialize, Serialize};
 
 use super::massing::{check_ring, SiteError, Status, Volume, Wall};
 use super::terrain::Ground;
+use super::windows::WindowPoint;
 use crate::json_check::{read_with_path, unique_members};
 use crate::limits::{within, OverBudget, MAX_FEATURES, MAX_SITE_TEXT_BYTES, MAX_VERTICES};
 use crate::solar::{InputError, Site};
 use crate::time::{TimeError, Zone};
 
-/// The file format version this build reads and writes.
-pub const SITE_FILE_VERSION: u32 = 1;
+/// The file format version this build writes (and reads, with version 1: the same without windows).
+pub const SITE_FILE_VERSION: u32 = 2;
 
 /// Why a site file could not be read; names the feature or field.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -32,7 +36,7 @@ pub enum SiteFileError {
     #[error("site file: {0}")]
     Json(String),
     /// A version this build does not know.
-    #[error("site file: unknown format version {found}; this sunlot reads sunlot_site {SITE_FILE_VERSION}")]
+    #[error("site file: unknown format version {found}; this sunlot reads sunlot_site 1 and {SITE_FILE_VERSION}")]
     UnknownVersion { found: String },
     /// A bad latitude, longitude or elevation.
     #[error("site file: location: {0}")]
@@ -124,6 +128,8 @@ pub struct SiteModel {
     pub volumes: Vec<Volume>,
     /// Walls and fences.
     pub walls: Vec<Wall>,
+    /// Named windows (site file version 2).
+    pub windows: Vec<WindowPoint>,
 }
 
 impl SiteModel {
@@ -142,8 +148,15 @@ impl SiteModel {
         let raw: serde_json::Value = serde_json::from_str(text).map_err(|e| SiteFileError::Json(e.to_string()))?;
         match raw.get("sunlot_site") {
             Some(v) if v.as_u64() == Some(u64::from(SITE_FILE_VERSION)) => {}
+            Some(v) if v.as_u64() == Some(1) => {
+                if raw.get("windows").is_some() {
+                    return Err(SiteFileError::Json(
+                        "windows: a version 1 site file has no windows; say \"sunlot_site\": 2".into(),
+                    ));
+                }
+            }
             Some(v) => return Err(SiteFileError::UnknownVersion { found: v.to_string() }),
-            None => return Err(SiteFileError::Json("missing field `sunlot_site` (the format version, 1)".into())),
+            None => return Err(SiteFileError::Json("missing field `sunlot_site` (the format version, 2)".into())),
         }
         drop(raw);
         let file: SiteFile = read_with_path(text).map_err(SiteFileError::Json)?;
@@ -175,6 +188,8 @@ struct SiteFile {
     volumes: Vec<VolumeFile>,
     #[serde(default)]
     walls: Vec<WallFile>,
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    windows: Vec<WindowFile>,
 }
 
 #[derive(Debug, Clone, Serialize, Deserialize)]
@@ -227,6 +242,20 @@ struct WallFile {
     line: Ring,
 }
 
+#[derive(Debug, Clone, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct WindowFile {
+    id: String,
+    #[serde(default)]
+    name: String,
+    status: Status,
+    /// Plan x, y and height above ground of the reference point, metres.
+    at: [f64; 3],
+    facing_deg: f64,
+    opening_width_m: f64,
+    opening_height_m: f64,
+}
+
 fn line(r: &Ring) -> LineString<f64> {
     r.iter().map(|&[x, y]| Coord { x, y }).collect()
 }
@@ -247,7 +276,7 @@ fn ring_out(ls: &LineString<f64>) -> Ring {
 impl SiteFile {
     /// Features and vertices within [`MAX_FEATURES`] and [`MAX_VERTICES`].
     fn within_budget(&self) -> Result<(), OverBudget> {
-        let features = self.areas.len() + self.volumes.len() + self.walls.len();
+        let features = self.areas.len() + self.volumes.len() + self.walls.len() + self.windows.len();
         within("features", features as f64, MAX_FEATURES as f64, "features")?;
         let rings = |outline: &Ring, holes: &[Ring]| outline.len() + holes.iter().map(Vec::len).sum::<usize>();
         let vertices = self.areas.iter().map(|a| rings(&a.outline, &a.holes)).sum::<usize>()
@@ -270,7 +299,8 @@ impl SiteFile {
             .iter()
             .map(|a| &a.id)
             .chain(self.volumes.iter().map(|v| &v.id))
-            .chain(self.walls.iter().map(|w| &w.id));
+            .chain(self.walls.iter().map(|w| &w.id))
+            .chain(self.windows.iter().map(|w| &w.id));
         for id in all_ids {
             if !ids.insert(id.clone()) {
                 return Err(SiteFileError::DuplicateId(id.clone()));
@@ -297,6 +327,24 @@ impl SiteFile {
             .iter()
             .map(|w| Wall::new(&w.id, w.status, line(&w.line), w.height_m).map_err(SiteFileError::Feature))
             .collect::<Result<Vec<_>, _>>()?;
+        let windows = self
+            .windows
+            .iter()
+            .map(|w| {
+                let at = Coord { x: w.at[0], y: w.at[1] };
+                WindowPoint::new(
+                    &w.id,
+                    &w.name,
+                    w.status,
+                    at,
+                    w.at[2],
+                    w.facing_deg,
+                    w.opening_width_m,
+                    w.opening_height_m,
+                )
+                .map_err(SiteFileError::Feature)
+            })
+            .collect::<Result<Vec<_>, _>>()?;
         Ok(SiteModel {
             name: self.name,
             location,
@@ -306,6 +354,7 @@ impl SiteFile {
             areas,
             volumes,
             walls,
+            windows,
         })
     }
 
@@ -353,6 +402,19 @@ impl SiteFile {
                     status: w.status,
                     height_m: w.height_m,
                     line: w.line.coords().map(|c| [c.x, c.y]).collect(),
+                })
+                .collect(),
+            windows: m
+                .windows
+                .iter()
+                .map(|w| WindowFile {
+                    id: w.id.clone(),
+                    name: w.name.clone(),
+                    status: w.status,
+                    at: [w.at.x, w.at.y, w.z_m],
+                    facing_deg: w.facing_deg,
+                    opening_width_m: w.opening_width_m,
+                    opening_height_m: w.opening_height_m,
                 })
                 .collect(),
         }
@@ -409,6 +471,45 @@ mod tests {
         let e = SiteModel::from_json(&SMALL.replace("\"latitude_deg\": 52.0", "\"latitude_deg\": 95")).unwrap_err();
         assert!(e.to_string().contains("latitude_deg must be between -90 and 90"), "{e}");
         assert!(matches!(SiteModel::from_json("{"), Err(SiteFileError::Json(_))));
+    }
+
+    /// Version 2 adds named windows; version 1 files are still read (and may not have windows).
+    #[test]
+    fn windows_round_trip_and_version_1_still_reads() {
+        let v2 = SMALL.replace("\"sunlot_site\": 1", "\"sunlot_site\": 2").replace(
+            "\"walls\": [",
+            "\"windows\": [ { \"id\": \"w1\", \"name\": \"House, south window\", \"status\": \"existing\",
+                           \"at\": [5, 20, 1.5], \"facing_deg\": 180, \"opening_width_m\": 1.2, \"opening_height_m\": 1.4 } ],
+             \"walls\": [",
+        );
+        let m = SiteModel::from_json(&v2).unwrap();
+        assert_eq!(m.windows.len(), 1);
+        assert_eq!(
+            (m.windows[0].at, m.windows[0].z_m, m.windows[0].facing_deg),
+            (Coord { x: 5.0, y: 20.0 }, 1.5, 180.0)
+        );
+        let text = m.to_json();
+        assert!(text.contains("\"sunlot_site\": 2"), "{text}");
+        assert_eq!(SiteModel::from_json(&text).unwrap(), m);
+        let g = SiteModel::from_geojson(&m.to_geojson()).unwrap();
+        let (a, b) = (&m.windows[0], &g.windows[0]);
+        assert_eq!((&a.id, &a.name, a.status, a.facing_deg), (&b.id, &b.name, b.status, b.facing_deg));
+        // The GeoJSON site is in the east-north frame; the file's plan is turned 12.5°.
+        let r = m.plan_rotation_deg.to_radians();
+        let (e, n) = (a.at.x * r.cos() - a.at.y * r.sin(), a.at.x * r.sin() + a.at.y * r.cos());
+        assert!((b.at.x - e).abs() < 1e-6 && (b.at.y - n).abs() < 1e-6, "{:?} against ({e}, {n})", b.at);
+        // Version 1: read as before, with no windows; windows in it are refused by name.
+        assert!(SiteModel::from_json(SMALL).unwrap().windows.is_empty());
+        let e = SiteModel::from_json(&v2.replace("\"sunlot_site\": 2", "\"sunlot_site\": 1")).unwrap_err();
+        assert!(e.to_string().contains("a version 1 site file has no windows"), "{e}");
+        let e = SiteModel::from_json(&v2.replace("\"facing_deg\": 180", "\"facing_deg\": 400")).unwrap_err();
+        assert!(e.to_string().contains("\"w1\": facing_deg must be 0 to 360"), "{e}");
+        let e = SiteModel::from_json(&v2.replace("\"opening_width_m\": 1.2", "\"opening_width_m\": 0")).unwrap_err();
+        assert!(e.to_string().contains("opening_width_m must be 0.05 to 50 m"), "{e}");
+        let e = SiteModel::from_json(&v2.replace("\"id\": \"w1\"", "\"id\": \"house\"")).unwrap_err();
+        assert_eq!(e, SiteFileError::DuplicateId("house".into()));
+        let e = SiteModel::from_json(&v2.replace("[5, 20, 1.5]", "[5, 20]")).unwrap_err();
+        assert!(e.to_string().contains("windows[0].at"), "{e}");
     }
 
     /// Found by fuzzing: flat ground with an aspect was written without its ground and read back

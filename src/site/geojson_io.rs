@@ -16,13 +16,14 @@ use super::file::{Area, AreaKind, SiteModel};
 use super::frame::LocalFrame;
 use super::massing::{SiteError, Status, Volume, Wall};
 use super::terrain::Ground;
+use super::windows::WindowPoint;
 use crate::limits::{within, OverBudget, MAX_FEATURES, MAX_SITE_TEXT_BYTES, MAX_VERTICES};
 use crate::solar::{InputError, Site};
 use crate::time::{TimeError, Zone};
 
 /// The feature properties sunlot reads and writes, with their meaning.
 pub const PROPERTY_NAMES: &[(&str, &str)] = &[
-    ("sunlot", "what the feature is: \"volume\", \"area\" or \"wall\" (required on every feature)"),
+    ("sunlot", "what the feature is: \"volume\", \"area\", \"wall\" or \"window\" (required on every feature)"),
     ("id", "unique id (else the feature's own id, else feature-N)"),
     ("name", "display name"),
     ("status", "\"existing\" or \"proposed\" (default existing)"),
@@ -30,6 +31,10 @@ pub const PROPERTY_NAMES: &[(&str, &str)] = &[
     ("top_m", "volume: top above ground, metres"),
     ("height_m", "wall: height above ground, metres"),
     ("kind", "area: \"lot\", \"garden\", \"terrace\", \"amenity\" or \"other\" (default other)"),
+    ("z_m", "window (a Point): height of its reference point above the ground, metres"),
+    ("facing_deg", "window: the direction it faces, degrees clockwise from true north"),
+    ("opening_width_m", "window: width of the opening, metres"),
+    ("opening_height_m", "window: height of the opening, metres"),
 ];
 
 /// Why GeoJSON could not be read as a site; names the feature (by id or index) and the problem.
@@ -140,6 +145,7 @@ impl SiteModel {
             areas: vec![],
             volumes: vec![],
             walls: vec![],
+            windows: vec![],
         };
         let mut ids = std::collections::HashSet::new();
         for (index, f) in fc.features.iter().enumerate() {
@@ -203,6 +209,37 @@ impl SiteModel {
                         }),
                     }
                 };
+            if what == "window" {
+                let Some(GeometryValue::Point { coordinates }) = geom else {
+                    return Err(GeoJsonError::UnsupportedGeometry {
+                        feature: label.clone(),
+                        what: what.clone(),
+                        expected: "a Point",
+                        found: geom.map_or("no geometry".to_string(), geometry_name),
+                    });
+                };
+                let (lon, lat) = lon_lat(coordinates, &label, "")?;
+                let (e, n) = frame.to_local(lon, lat);
+                if !ids.insert(base_id.clone()) {
+                    return Err(GeoJsonError::Property {
+                        feature: label,
+                        property: "id",
+                        problem: format!("{base_id:?} is used by more than one feature"),
+                    });
+                }
+                let need = |key: &'static str| prop.number(key)?.ok_or_else(|| prop.missing(key));
+                model.windows.push(WindowPoint::new(
+                    &base_id,
+                    &prop.text("name")?,
+                    status,
+                    Coord { x: e, y: n },
+                    need("z_m")?,
+                    need("facing_deg")?,
+                    need("opening_width_m")?,
+                    need("opening_height_m")?,
+                )?);
+                continue;
+            }
             let parts = match what.as_str() {
                 "volume" | "area" => parts_of("a Polygon or MultiPolygon", true)?,
                 "wall" => parts_of("a LineString or MultiLineString", false)?,
@@ -210,7 +247,7 @@ impl SiteModel {
                     return Err(GeoJsonError::Property {
                         feature: label,
                         property: "sunlot",
-                        problem: format!("must be \"volume\", \"area\" or \"wall\", got {other:?}"),
+                        problem: format!("must be \"volume\", \"area\", \"wall\" or \"window\", got {other:?}"),
                     })
                 }
             };
@@ -278,6 +315,15 @@ impl SiteModel {
             push(
                 GeometryValue::from(&line),
                 json!({"sunlot": "wall", "id": w.id, "status": status(w.status), "height_m": w.height_m}),
+            );
+        }
+        for w in &self.windows {
+            let c = self.plan_to_wgs84(&frame, w.at);
+            push(
+                GeometryValue::Point { coordinates: vec![c.x, c.y].into() },
+                json!({"sunlot": "window", "id": w.id, "name": w.name, "status": status(w.status), "z_m": w.z_m,
+                       "facing_deg": w.facing_deg, "opening_width_m": w.opening_width_m,
+                       "opening_height_m": w.opening_height_m}),
             );
         }
         let mut fc = FeatureCollection::new(features);

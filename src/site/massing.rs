@@ -33,6 +33,9 @@ pub enum SiteError {
         max = MAX_PLAN_EXTENT_M
     )]
     TooFar { feature: String, ring: String, index: usize, x: f64, y: f64 },
+    /// A window field out of its range.
+    #[error("feature {feature:?}: {field} {reason}")]
+    BadWindow { feature: String, field: &'static str, reason: String },
     /// A ring or line with more than [`MAX_RING_VERTICES`] vertices.
     #[error("feature {feature:?}: {ring} has {count} vertices, more than the limit of {max}", max = MAX_RING_VERTICES)]
     TooManyVertices { feature: String, ring: String, count: usize },

@@ -7,6 +7,7 @@ mod geojson_io;
 mod massing;
 mod terrain;
 mod underlay;
+mod windows;
 
 pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SITE_FILE_VERSION};
 pub use frame::LocalFrame;
@@ -14,3 +15,4 @@ pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};
 pub use massing::{SiteError, Status, Volume, Wall};
 pub use terrain::Ground;
 pub use underlay::{Placement, UnderlayError};
+pub use windows::WindowPoint;

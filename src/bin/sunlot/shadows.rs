@@ -13,7 +13,7 @@ use crate::output::{Cell, Format, Table};
 /// The site to study: a file, or the demo.
 #[derive(Debug, Clone, Args)]
 pub struct SiteFileArgs {
-    /// A sunlot site file (JSON, see schemas/site-v1.schema.json) or a GeoJSON FeatureCollection
+    /// A sunlot site file (JSON, see schemas/site-v2.schema.json) or a GeoJSON FeatureCollection
     /// (WGS84; see README for the feature properties).
     #[arg(value_name = "SITE", required_unless_present = "demo")]
     pub path: Option<PathBuf>,

@@ -16,13 +16,16 @@ use crate::shadows::SiteFileArgs;
 pub struct WindowArgs {
     #[command(flatten)]
     pub site: SiteFileArgs,
+    /// A window of the site file by its id (instead of --at and --facing-deg).
+    #[arg(long, conflicts_with_all = ["at", "facing_deg"])]
+    pub id: Option<String>,
     /// The window's reference point on the outside face of its wall: plan x and y and height above
     /// ground, metres, as X,Y,Z (e.g. 31,12,1.2).
-    #[arg(long, value_name = "X,Y,Z", allow_hyphen_values = true)]
-    pub at: String,
+    #[arg(long, value_name = "X,Y,Z", allow_hyphen_values = true, requires = "facing_deg")]
+    pub at: Option<String>,
     /// The direction the window faces (its wall's outward normal), degrees clockwise from true north.
-    #[arg(long, allow_hyphen_values = true)]
-    pub facing_deg: f64,
+    #[arg(long, allow_hyphen_values = true, requires = "at")]
+    pub facing_deg: Option<f64>,
     #[command(flatten)]
     pub period: PeriodArgs,
     /// Width of the sky's azimuth bins for the sky component, degrees (0.01 to 5).
@@ -37,27 +40,36 @@ pub struct WindowArgs {
 
 pub fn run(a: &WindowArgs) -> Result<String, String> {
     let model = a.site.load()?.model;
-    let p = parse_point(&a.at)?;
+    let (p, facing_deg, label) = match (&a.id, &a.at, a.facing_deg) {
+        (Some(id), _, _) => {
+            let w = model.windows.iter().find(|w| &w.id == id).ok_or_else(|| {
+                let ids: Vec<&str> = model.windows.iter().map(|w| w.id.as_str()).collect();
+                format!(
+                    "--id: the site has no window {id:?} (its windows: {})",
+                    if ids.is_empty() { "none".into() } else { ids.join(", ") }
+                )
+            })?;
+            let name = if w.name.is_empty() { w.id.clone() } else { w.name.clone() };
+            (w.view_point(), w.facing_deg, name)
+        }
+        (None, Some(at), Some(facing)) => {
+            let p = parse_point(at)?;
+            (p, facing, format!("Window at ({}, {}, {} m)", p.x_m, p.y_m, p.z_m))
+        }
+        _ => return Err("give --id of a window of the site, or --at X,Y,Z and --facing-deg".into()),
+    };
     let period = a.period.period()?;
     let delta_t = a.delta_t.delta_t()?;
-    let plane = SkyPlane::Vertical { facing_deg: a.facing_deg };
+    let plane = SkyPlane::Vertical { facing_deg };
     let mut out = Table::new(
-        format!(
-            "Window at ({}, {}, {} m) facing {}° — {} — {}",
-            p.x_m,
-            p.y_m,
-            p.z_m,
-            a.facing_deg,
-            model.name,
-            a.period.describe()
-        ),
+        format!("{label} facing {facing_deg}° — {} — {}", model.name, a.period.describe()),
         vec!["massing", "vsc_pct", "sun_h", "open_sun_h", "day_h"],
     );
     let mut rows = Vec::new();
     for (name, massing) in [("existing", Massing::Existing), ("with proposal", Massing::WithProposed)] {
         let vsc = sky_component_pct(&model, p, plane, massing, a.azimuth_step_deg).map_err(|e| e.to_string())?;
-        let sun = window_sun_hours(&model, p, a.facing_deg, &period, massing, delta_t, |_| true)
-            .map_err(|e| e.to_string())?;
+        let sun =
+            window_sun_hours(&model, p, facing_deg, &period, massing, delta_t, |_| true).map_err(|e| e.to_string())?;
         out.rows.push(vec![
             Cell::text(name),
             Cell::num(vsc, 2),
