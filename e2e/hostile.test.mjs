@@ -78,6 +78,8 @@ const report = await page.evaluate(async HANG_MS => {
     planLayer: [{ grid, label: "hours", unit: "h", rangeLo: 0, rangeHi: 12 },
                 (m, i) => new m.PlanLayer(i, new Float64Array(grid.cols * grid.rows).fill(2)).free()],
     seasonInstants: [{ year: 2026, zone: "Europe/London" }, (m, i) => m.seasonInstants(i.year, i.zone)],
+    windowLight: [{ site, xM: 31, yM: 12, zM: 1.2, facingDeg: 0, date: "2026-06-21", to: "2026-06-22", stepMin: 30,
+                    azimuthStepDeg: 1 }, (m, i) => m.windowLight(i)],
   };
   const replacements = [NaN, Infinity, -Infinity, -1, 0, 1e308, 2 ** 32, -(2 ** 31), "x", "", null, [], {}, true,
                         [1], "2026-02-30", "99:99-00:00", "garden-16".repeat(1000)];

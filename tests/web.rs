@@ -385,3 +385,59 @@ fn hostile_input_to_the_newer_calls_throws_and_never_traps() {
     );
     assert!(msg(r.map(JsValue::from)).contains("range"));
 }
+
+/// `windowLight` equals the core's sky component and window sun hours, by a window's id or by its
+/// point, and `readSite` lists the site's windows.
+#[wasm_bindgen_test]
+fn window_light_through_the_facade_equals_the_core() {
+    let text = include_str!("fuzz/corpus/site/windows.site.json");
+    let site = serde_json::to_string(text).unwrap();
+    let by_id =
+        sunlot::web::window_light(js(&format!(r#"{{"site": {site}, "id": "w-16-rear", "date": "2026-06-21"}}"#)))
+            .unwrap();
+    let by_point = sunlot::web::window_light(js(&format!(
+        r#"{{"site": {site}, "xM": 31, "yM": 12, "zM": 1.2, "facingDeg": 0, "date": "2026-06-21"}}"#
+    )))
+    .unwrap();
+    let m = sunlot::site::SiteModel::from_json(text).unwrap();
+    let w = &m.windows[0];
+    let massing = sunlot::exposure::Massing::WithProposed;
+    let vsc = sunlot::daylight::sky_component_pct(
+        &m,
+        w.view_point(),
+        sunlot::daylight::SkyPlane::Vertical { facing_deg: 0.0 },
+        massing,
+        sunlot::daylight::DEFAULT_AZIMUTH_STEP_DEG,
+    )
+    .unwrap();
+    let date = chrono::NaiveDate::from_ymd_opt(2026, 6, 21).unwrap();
+    let period = sunlot::exposure::Period::day(date, 5);
+    let sun = sunlot::exposure::window_sun_hours(
+        &m,
+        w.view_point(),
+        0.0,
+        &period,
+        massing,
+        sunlot::time::DeltaT::EspenakMeeus,
+        |_| true,
+    )
+    .unwrap();
+    for out in [&by_id, &by_point] {
+        let after = get(out, "withProposed");
+        assert_eq!(num(&after, "vscPct"), vsc);
+        assert_eq!(num(&after, "sunH"), sun.sun_hours);
+        assert!(num(&get(out, "existing"), "vscPct") > vsc);
+    }
+    let summary = sunlot::web::read_site(JsValue::from_str(text)).unwrap();
+    let windows: js_sys::Array = get(&summary, "windows").into();
+    assert_eq!(windows.length(), 4);
+    assert_eq!(get(&windows.get(0), "id").as_string().unwrap(), "w-16-rear");
+    let m = error_message(sunlot::web::window_light(js(&format!(
+        r#"{{"site": {site}, "id": "nope", "date": "2026-06-21"}}"#
+    ))));
+    assert!(m.contains("id: the site has no window \"nope\""), "{m}");
+    let m = error_message(sunlot::web::window_light(js(&format!(
+        r#"{{"site": {site}, "xM": 31, "yM": 12, "facingDeg": 400, "date": "2026-06-21"}}"#
+    ))));
+    assert!(m.contains("facing_deg must be 0 to 360"), "{m}");
+}

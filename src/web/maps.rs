@@ -479,7 +479,8 @@ pub fn draw_map_figure(
 }
 
 /// Reads a site (site file or GeoJSON text) and describes it: `{name, fromGeojson, zone, latitudeDeg,
-/// longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}], siteJson}`,
+/// longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}], windows: [{id,
+/// name, status, xM, yM, zM, facingDeg}], siteJson}`,
 /// where `siteJson` is the site in the site-file format. Throws an `Error` naming the bad feature.
 #[wasm_bindgen(js_name = readSite, unchecked_return_type = "SiteSummary")]
 pub fn read_site(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue) -> Result<JsValue, JsError> {
@@ -498,9 +499,17 @@ pub fn read_site(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue)
         .iter()
         .map(|v| serde_json::json!({"id": v.id, "status": status(v.status), "baseM": v.base_m, "topM": v.top_m}))
         .collect();
+    let windows: Vec<_> = m
+        .windows
+        .iter()
+        .map(|w| {
+            serde_json::json!({"id": w.id, "name": w.name, "status": status(w.status), "xM": w.at.x, "yM": w.at.y,
+                               "zM": w.z_m, "facingDeg": w.facing_deg})
+        })
+        .collect();
     write(&serde_json::json!({
         "name": m.name, "fromGeojson": r.from_geojson, "zone": m.zone.to_string(),
         "latitudeDeg": m.location.latitude_deg, "longitudeDeg": m.location.longitude_deg,
-        "areas": areas, "volumes": volumes, "siteJson": m.to_json(),
+        "areas": areas, "volumes": volumes, "windows": windows, "siteJson": m.to_json(),
     }))
 }

@@ -13,6 +13,7 @@ mod layer;
 mod maps;
 mod studies;
 mod types;
+mod window;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
 pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
@@ -20,6 +21,7 @@ pub use maps::{
     sun_hours_map,
 };
 pub use studies::{shadow_table_js, sky_view_js, year_profile_js};
+pub use window::window_light;
 
 use crate::sky::{bird_clear_sky, extraterrestrial_normal_w_m2, relative_air_mass_kasten_young, BirdAtmosphere};
 use crate::solar::{self, Atmosphere, Crossing, Site, SunAtInstant};

@@ -25,7 +25,13 @@ export interface ClearSkyInput { zenithDeg: number; dayOfYear: number; atmospher
 export interface ClearSky { airMass: number; extraterrestrialWM2: number; dniWM2: number; dhiWM2: number; ghiWM2: number; }
 export interface SiteSummary { name: string; fromGeojson: boolean; zone: string; latitudeDeg: number; longitudeDeg: number;
   areas: { id: string; name: string; kind: string; status: "existing" | "proposed" }[];
-  volumes: { id: string; status: "existing" | "proposed"; baseM: number; topM: number }[]; siteJson: string; }
+  volumes: { id: string; status: "existing" | "proposed"; baseM: number; topM: number }[];
+  windows: { id: string; name: string; status: "existing" | "proposed"; xM: number; yM: number; zM: number; facingDeg: number }[];
+  siteJson: string; }
+export interface WindowLightInput { site: SiteText; id?: string; xM?: number; yM?: number; zM?: number; facingDeg?: number;
+  date: string; to?: string; stepMin?: number; azimuthStepDeg?: number; }
+export interface WindowLightFigures { vscPct: number; sunH: number; openSunH: number; dayH: number; }
+export interface WindowLight { facingDeg: number; existing: WindowLightFigures; withProposed: WindowLightFigures; }
 /** Row-major from the bottom row; cell (c, r) is centred at originXM + (col0 + c + 0.5)·cellM, originYM + (row0 + r + 0.5)·cellM. */
 export interface GridGeometry { cols: number; rows: number; originXM: number; originYM: number; col0: number; row0: number; cellM: number; }
 export interface MapInput { site: SiteText; areas?: string[]; cellM?: number; date: string; to?: string;
