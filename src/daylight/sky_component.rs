@@ -128,25 +128,11 @@ pub fn sky_component_pct(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::site::{Status, Volume};
-    use crate::time::Zone;
+    use crate::site::test_sites::{block, flat_site};
+    use crate::site::Volume;
 
     fn site(volumes: Vec<Volume>) -> SiteModel {
-        SiteModel {
-            name: "sky component test".into(),
-            location: crate::Site::new(51.5, 0.0, 0.0).unwrap(),
-            zone: Zone::utc(),
-            plan_rotation_deg: 0.0,
-            ground: crate::site::Ground::flat(),
-            areas: vec![],
-            volumes,
-            walls: vec![],
-            windows: vec![],
-        }
-    }
-
-    fn block(id: &str, x0: f64, y0: f64, x1: f64, y1: f64, top: f64) -> Volume {
-        Volume::from_vertices(id, Status::Existing, &[(x0, y0), (x1, y0), (x1, y1), (x0, y1)], 0.0, top).unwrap()
+        flat_site(volumes, 51.5)
     }
 
     /// The closed form of an unobstructed vertical plane under the CIE overcast sky, derived here from

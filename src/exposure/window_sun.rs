@@ -81,27 +81,8 @@ pub fn window_sun_hours(
 mod tests {
     use super::*;
     use crate::exposure::{day_timeline, Window};
-    use crate::site::{Ground, Status, Volume};
-    use crate::time::Zone;
+    use crate::site::test_sites::{block, flat_site as site};
     use chrono::NaiveDate;
-
-    fn site(volumes: Vec<Volume>, latitude_deg: f64) -> SiteModel {
-        SiteModel {
-            name: "window test".into(),
-            location: crate::Site::new(latitude_deg, 0.0, 0.0).unwrap(),
-            zone: Zone::utc(),
-            plan_rotation_deg: 0.0,
-            ground: Ground::flat(),
-            areas: vec![],
-            volumes,
-            walls: vec![],
-            windows: vec![],
-        }
-    }
-
-    fn block(id: &str, x0: f64, y0: f64, x1: f64, y1: f64, top: f64) -> Volume {
-        Volume::from_vertices(id, Status::Existing, &[(x0, y0), (x1, y0), (x1, y1), (x0, y1)], 0.0, top).unwrap()
-    }
 
     /// An unobstructed window at 52° N on 21 June: the sun crosses the east–west line (azimuth 90° and
     /// 270°) at hour angle H0 with cos H0 = tan δ / tan φ, and rises and sets at Hs with

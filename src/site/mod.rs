@@ -6,6 +6,8 @@ mod frame;
 mod geojson_io;
 mod massing;
 mod terrain;
+#[cfg(test)]
+pub(crate) mod test_sites;
 mod underlay;
 mod windows;
 
