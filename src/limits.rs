@@ -71,6 +71,15 @@ impl OverBudget {
     }
 }
 
+/// A point's work within [`MAX_RAY_TESTS`]: `directions` (sky patches, azimuths or time steps) ×
+/// `casters` (the volumes and walls a ray is tested against), named `field`.
+///
+/// # Errors
+/// [`OverBudget`] naming `field`, with `hint`.
+pub fn ray_tests(field: &str, directions: f64, casters: usize, hint: &str) -> Result<(), OverBudget> {
+    within(field, directions * casters as f64, MAX_RAY_TESTS, "ray tests").map_err(|e| e.hint(hint))
+}
+
 /// A count written with thousands separators (`16,000,000`), or in scientific notation when huge.
 pub fn count(x: f64) -> String {
     if !x.is_finite() {

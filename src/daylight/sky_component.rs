@@ -85,13 +85,7 @@ pub fn sky_component_pct(
     let volumes: Vec<_> = model.volumes.iter().filter(|v| massing.includes(v.status)).cloned().collect();
     let walls: Vec<_> = model.walls.iter().filter(|w| massing.includes(w.status)).cloned().collect();
     let bins = (360.0 / azimuth_step_deg).round();
-    crate::limits::within(
-        "azimuth_step_deg",
-        bins * (volumes.len() + walls.len()) as f64,
-        crate::limits::MAX_RAY_TESTS,
-        "ray tests",
-    )
-    .map_err(|e| e.hint("use a larger azimuth step"))?;
+    crate::limits::ray_tests("azimuth_step_deg", bins, volumes.len() + walls.len(), "use a larger azimuth step")?;
     let reach = analysis_extent(model).map_or(1_000.0, |r| r.width().hypot(r.height()));
     let ground = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
     let sky = skyline(point, &volumes, &walls, &ground, azimuth_step_deg, reach)

@@ -106,6 +106,16 @@ impl Period {
         Ok(())
     }
 
+    /// The most steps the period can have: every step of the window (a whole day for sunrise to
+    /// sunset) on every day, as if the sun were always up.
+    pub fn max_steps(&self) -> f64 {
+        let window_min = match self.window {
+            Window::Daylight => 24.0 * 60.0,
+            Window::Clock { from, to } => (to - from).num_minutes().max(0) as f64,
+        };
+        self.days() as f64 * (window_min / f64::from(self.step_min.max(1))).ceil()
+    }
+
     /// Checks that `cells` cells over this period stay within [`MAX_CELL_STEPS`], counting every step
     /// of the window (a whole day for sunrise to sunset) as sun-up: an upper bound known before any
     /// sun is computed.
@@ -113,11 +123,7 @@ impl Period {
     /// # Errors
     /// [`ExposureError::Budget`] naming the cells and steps, with what to change.
     pub fn check_work(&self, cells: usize) -> Result<(), ExposureError> {
-        let window_min = match self.window {
-            Window::Daylight => 24.0 * 60.0,
-            Window::Clock { from, to } => (to - from).num_minutes().max(0) as f64,
-        };
-        let steps = self.days() as f64 * (window_min / f64::from(self.step_min.max(1))).ceil();
+        let steps = self.max_steps();
         within("cell_m, step_min, to", cells as f64 * steps, MAX_CELL_STEPS, "cell-steps").map_err(|e| {
             let (cells, steps) = (crate::limits::count(cells as f64), crate::limits::count(steps));
             e.hint(&format!("{cells} cells × up to {steps} steps: use larger cells, a longer step or a shorter period"))

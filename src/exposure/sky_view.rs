@@ -98,9 +98,8 @@ pub fn sky_view_at(model: &SiteModel, point: ViewPoint, massing: Massing, step_d
     let sky = super::timeline::PointSky::new(model, point, massing, crate::time::DeltaT::EspenakMeeus);
     // Summed as the hidden share, as the map does, so an open point gets exactly 1.
     let patches = sky_patches(step_deg)?;
-    let casters = (model.volumes.len() + model.walls.len()) as f64;
-    crate::limits::within("sky_step_deg", patches.len() as f64 * casters, crate::limits::MAX_RAY_TESTS, "ray tests")
-        .map_err(|e| e.hint("use a larger sky step"))?;
+    let casters = model.volumes.len() + model.walls.len();
+    crate::limits::ray_tests("sky_step_deg", patches.len() as f64, casters, "use a larger sky step")?;
     let mut hidden = 0.0;
     for p in patches {
         if sky.toward(p.azimuth_deg, p.altitude_deg)? != Exposure::Sunlit {

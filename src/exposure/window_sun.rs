@@ -53,10 +53,8 @@ pub fn window_sun_hours(
         return Err(ExposureError::Period(format!("facing_deg must be a finite azimuth, got {facing_deg}")));
     }
     period.check(model, delta_t)?;
-    let steps = period.days() as f64 * (24.0 * 60.0 / f64::from(period.step_min.max(1))).ceil();
-    let casters = (model.volumes.len() + model.walls.len()) as f64;
-    crate::limits::within("step_min", steps * casters, crate::limits::MAX_RAY_TESTS, "ray tests")
-        .map_err(|e| e.hint("use a longer step or a shorter period"))?;
+    let casters = model.volumes.len() + model.walls.len();
+    crate::limits::ray_tests("step_min", period.max_steps(), casters, "use a longer step or a shorter period")?;
     let sky = PointSky::new(model, point, massing, delta_t);
     let mut out = WindowSun { sun_hours: 0.0, front_hours: 0.0, day_hours: 0.0 };
     for_each_day(model, period, delta_t, &mut progress, |_, steps| {

@@ -68,10 +68,12 @@ pub fn year_profile(
     let last = NaiveDate::from_ymd_opt(year, 12, 31).ok_or_else(bad_year)?;
     let period = Period { first, last, window: Window::Daylight, step_min };
     period.check(model, delta_t)?;
-    let steps = period.days() as f64 * (24.0 * 60.0 / f64::from(step_min.max(1))).ceil();
-    let casters = (model.volumes.len() + model.walls.len()) as f64;
-    crate::limits::within("step_min", steps * casters, crate::limits::MAX_RAY_TESTS, "ray tests")
-        .map_err(|e| e.hint("use a longer step"))?;
+    crate::limits::ray_tests(
+        "step_min",
+        period.max_steps(),
+        model.volumes.len() + model.walls.len(),
+        "use a longer step",
+    )?;
     let atm = atmosphere.validated()?;
     let sky_view = sky_view_at(model, point, massing, super::sky_view::DEFAULT_SKY_STEP_DEG)?;
     let sky = PointSky::new(model, point, massing, delta_t);

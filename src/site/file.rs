@@ -145,11 +145,17 @@ impl SiteModel {
     pub fn from_json(text: &str) -> Result<Self, SiteFileError> {
         within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")?;
         unique_members(text).map_err(SiteFileError::Json)?;
-        let raw: serde_json::Value = serde_json::from_str(text).map_err(|e| SiteFileError::Json(e.to_string()))?;
-        match raw.get("sunlot_site") {
+        // Only the version and whether there are windows: the rest is skipped, not built as a tree.
+        #[derive(Deserialize)]
+        struct Probe {
+            sunlot_site: Option<serde_json::Value>,
+            windows: Option<serde::de::IgnoredAny>,
+        }
+        let probe: Probe = serde_json::from_str(text).unwrap_or(Probe { sunlot_site: None, windows: None });
+        match &probe.sunlot_site {
             Some(v) if v.as_u64() == Some(u64::from(SITE_FILE_VERSION)) => {}
             Some(v) if v.as_u64() == Some(1) => {
-                if raw.get("windows").is_some() {
+                if probe.windows.is_some() {
                     return Err(SiteFileError::Json(
                         "windows: a version 1 site file has no windows; say \"sunlot_site\": 2".into(),
                     ));
@@ -158,7 +164,6 @@ impl SiteModel {
             Some(v) => return Err(SiteFileError::UnknownVersion { found: v.to_string() }),
             None => return Err(SiteFileError::Json("missing field `sunlot_site` (the format version, 2)".into())),
         }
-        drop(raw);
         let file: SiteFile = read_with_path(text).map_err(SiteFileError::Json)?;
         file.within_budget()?;
         file.into_model()
@@ -562,9 +567,15 @@ impl SiteModel {
     pub fn read(text: &str) -> Result<ReadSite, String> {
         within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")
             .map_err(|e| e.hint("split the site or simplify its outlines").to_string())?;
-        let is_geojson = serde_json::from_str::<serde_json::Value>(text)
+        // Only the top-level "type": the rest is skipped, not built as a tree.
+        #[derive(Deserialize)]
+        struct Probe {
+            #[serde(rename = "type")]
+            kind: Option<serde_json::Value>,
+        }
+        let is_geojson = serde_json::from_str::<Probe>(text)
             .ok()
-            .is_some_and(|v| v.get("type").and_then(|t| t.as_str()) == Some("FeatureCollection"));
+            .is_some_and(|p| p.kind.as_ref().and_then(|t| t.as_str()) == Some("FeatureCollection"));
         let model = if is_geojson {
             SiteModel::from_geojson(text).map_err(|e| e.to_string())?
         } else {
