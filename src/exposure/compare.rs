@@ -3,52 +3,91 @@
 
 use serde::Serialize;
 
-use super::grid::ExposureError;
+use super::grid::{ExposureError, Grid};
 use super::shade::Massing;
 use super::sun_hours::{sun_hours, SunHours, SunHoursRequest};
 
-/// Figures of a map over the cells inside its area.
+/// Figures of a map over an area, each cell weighted by the share of it in the area.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct MapStats {
-    /// Cells inside the area.
+    /// Cells with any of their area in the area.
     pub cells: usize,
-    /// Their plan area, m² (cells × cell area).
+    /// The area, m²: the cells' covered parts, so exactly the polygon's area when the weights are
+    /// [`Grid::cover_of`] (the cells' whole area when there are no weights).
     pub area_m2: f64,
     /// Smallest value.
     pub min: f64,
-    /// Mean value.
+    /// Mean value, area-weighted.
     pub mean: f64,
     /// Largest value.
     pub max: f64,
     /// The threshold `at_least_*` refers to.
     pub threshold: f64,
-    /// Plan area of the cells with at least `threshold`, m².
+    /// Area with at least `threshold`, m².
     pub at_least_m2: f64,
-    /// Share of the cells with at least `threshold`, 0–1.
+    /// Share of the area with at least `threshold`, 0–1.
     pub at_least_share: f64,
+    /// Share of the area (0–1) in cells whose centre sample may not stand for the whole cell: cells
+    /// cut by the area's edge, and cells with an edge-neighbour on the other side of the threshold.
+    /// `at_least_share` is within this of the exact share as long as the map resolves its shadows
+    /// (no patch of sun or shade smaller than a cell); it shrinks with the cell size.
+    pub uncertain_share: f64,
 }
 
-/// Figures of `values` (row-major, `None` outside the area) on cells of `cell_m`; `None` when no cell
-/// is inside.
-pub fn map_stats(values: &[Option<f64>], cell_m: f64, threshold: f64) -> Option<MapStats> {
-    let inside: Vec<f64> = values.iter().flatten().copied().collect();
-    if inside.is_empty() {
-        return None;
-    }
-    let n = inside.len();
-    let cell_m2 = cell_m * cell_m;
+/// Figures of `values` (row-major over `grid`, `None` outside it) over an area whose share of each
+/// cell is `weights` (from [`Grid::cover_of`]; `None`: every cell with a value counts whole); `None`
+/// when no cell with a value has any weight.
+pub fn map_stats(grid: &Grid, values: &[Option<f64>], weights: Option<&[f64]>, threshold: f64) -> Option<MapStats> {
+    let weight = |k: usize| match (values[k], weights) {
+        (None, _) => 0.0,
+        (Some(_), None) => 1.0,
+        (Some(_), Some(w)) => w[k],
+    };
     // A tolerance of 1e-9 of the map's unit (for hours, about 4 µs) keeps a cell at exactly the
     // threshold from falling under it by rounding in the sums.
-    let hits = inside.iter().filter(|&&v| v >= threshold - 1e-9).count();
+    let hit = |v: f64| v >= threshold - 1e-9;
+    let cols = grid.cols;
+    let (mut cells, mut total, mut sum, mut at_least, mut uncertain) = (0, 0.0, 0.0, 0.0, 0.0);
+    let (mut min, mut max) = (f64::INFINITY, f64::NEG_INFINITY);
+    for (k, v) in values.iter().enumerate() {
+        let (Some(v), w) = (*v, weight(k)) else { continue };
+        if w <= 0.0 {
+            continue;
+        }
+        cells += 1;
+        total += w;
+        sum += w * v;
+        min = min.min(v);
+        max = max.max(v);
+        if hit(v) {
+            at_least += w;
+        }
+        let (col, row) = (k % cols, k / cols);
+        let neighbours = [
+            (col > 0).then(|| k - 1),
+            (col + 1 < cols).then(|| k + 1),
+            (row > 0).then(|| k - cols),
+            (row + 1 < grid.rows).then(|| k + cols),
+        ];
+        let across = neighbours.iter().flatten().any(|&j| values[j].is_some_and(|u| hit(u) != hit(v)));
+        if w < 1.0 - 1e-12 || across {
+            uncertain += w;
+        }
+    }
+    if cells == 0 {
+        return None;
+    }
+    let cell_m2 = grid.cell_m * grid.cell_m;
     Some(MapStats {
-        cells: n,
-        area_m2: n as f64 * cell_m2,
-        min: inside.iter().copied().fold(f64::INFINITY, f64::min),
-        mean: inside.iter().sum::<f64>() / n as f64,
-        max: inside.iter().copied().fold(f64::NEG_INFINITY, f64::max),
+        cells,
+        area_m2: total * cell_m2,
+        min,
+        mean: sum / total,
+        max,
         threshold,
-        at_least_m2: hits as f64 * cell_m2,
-        at_least_share: hits as f64 / n as f64,
+        at_least_m2: at_least * cell_m2,
+        at_least_share: at_least / total,
+        uncertain_share: uncertain / total,
     })
 }
 

@@ -55,11 +55,45 @@ pub struct Grid {
 
 impl Grid {
     /// A grid of `cell_m` cells over `area` (its bounding box), at most `max_cells` cells (and never
-    /// more than [`crate::limits::MAX_GRID_CELLS`]).
+    /// more than [`crate::limits::MAX_GRID_CELLS`]); a cell is inside when its centre is in the area.
+    ///
+    /// The lattice is anchored at the plan origin (cell corners at whole multiples of `cell_m`), so two
+    /// grids of one cell size over different areas sample the same points.
     ///
     /// # Errors
     /// [`ExposureError`] for a cell under 1 cm, too many cells or an empty area.
     pub fn over(area: &MultiPolygon<f64>, cell_m: f64, max_cells: usize) -> Result<Self, ExposureError> {
+        let mut g = Grid::lattice(area, cell_m, max_cells)?;
+        let mut spans = RowSpans::new(&g);
+        for p in &area.0 {
+            spans.add_polygon(&g, p);
+        }
+        for row in 0..g.rows {
+            for (a, b) in spans.merged(row) {
+                g.inside[row * g.cols + a..row * g.cols + b].fill(true);
+            }
+        }
+        Ok(g)
+    }
+
+    /// As [`Grid::over`], but a cell is inside when any of its area (more than
+    /// [`super::cover::MIN_COVER`] of it) lies in the area: the grid for figures over an area, whose
+    /// cells are weighted by [`Grid::cover_of`].
+    ///
+    /// # Errors
+    /// As [`Grid::over`].
+    pub fn covering(area: &MultiPolygon<f64>, cell_m: f64, max_cells: usize) -> Result<Self, ExposureError> {
+        let mut g = Grid::lattice(area, cell_m, max_cells)?;
+        for p in &area.0 {
+            let cover = super::cover::cell_cover(&g, p);
+            for (inside, share) in g.inside.iter_mut().zip(cover) {
+                *inside |= share > 0.0;
+            }
+        }
+        Ok(g)
+    }
+
+    fn lattice(area: &MultiPolygon<f64>, cell_m: f64, max_cells: usize) -> Result<Self, ExposureError> {
         if !(cell_m.is_finite() && cell_m >= 0.01) {
             return Err(ExposureError::CellSize(cell_m));
         }
@@ -67,25 +101,16 @@ impl Grid {
         if !(r.width() > 0.0 && r.height() > 0.0) {
             return Err(ExposureError::EmptyArea);
         }
-        let cols = (r.width() / cell_m).ceil().max(1.0);
-        let rows = (r.height() / cell_m).ceil().max(1.0);
+        let origin = Coord { x: (r.min().x / cell_m).floor() * cell_m, y: (r.min().y / cell_m).floor() * cell_m };
+        let cols = ((r.max().x - origin.x) / cell_m).ceil().max(1.0);
+        let rows = ((r.max().y - origin.y) / cell_m).ceil().max(1.0);
         let cells = cols * rows;
         let max_cells = max_cells.min(crate::limits::MAX_GRID_CELLS);
         if cells > max_cells as f64 {
             return Err(ExposureError::TooManyCells { cells: cells.min(usize::MAX as f64) as usize, limit: max_cells });
         }
         let (cols, rows) = (cols as usize, rows as usize);
-        let mut g = Grid { origin: r.min(), col0: 0, row0: 0, cell_m, cols, rows, inside: vec![false; cols * rows] };
-        let mut spans = RowSpans::new(&g);
-        for p in &area.0 {
-            spans.add_polygon(&g, p);
-        }
-        for row in 0..rows {
-            for (a, b) in spans.merged(row) {
-                g.inside[row * cols + a..row * cols + b].fill(true);
-            }
-        }
-        Ok(g)
+        Ok(Grid { origin, col0: 0, row0: 0, cell_m, cols, rows, inside: vec![false; cols * rows] })
     }
 
     /// A grid over one polygon.
@@ -142,19 +167,10 @@ impl Grid {
         }
     }
 
-    /// `values` with every cell whose centre is outside `polygon` set to `None` (the figures of one
-    /// area of a grid laid over several).
-    pub fn only_in<T: Clone>(&self, polygon: &Polygon<f64>, values: &[Option<T>]) -> Vec<Option<T>> {
-        let mut spans = RowSpans::new(self);
-        spans.add_polygon(self, polygon);
-        let mut out = vec![None; values.len()];
-        for row in 0..self.rows {
-            for (a, b) in spans.merged(row) {
-                let r = row * self.cols;
-                out[r + a..r + b].clone_from_slice(&values[r + a..r + b]);
-            }
-        }
-        out
+    /// The share (0–1) of each cell, row-major, that lies in `polygon`, exactly (see
+    /// [`super::cover`]); the weights of an area's figures.
+    pub fn cover_of(&self, polygon: &Polygon<f64>) -> Vec<f64> {
+        super::cover::cell_cover(self, polygon)
     }
 
     /// Number of cells inside the area.

@@ -3,6 +3,7 @@
 //! and the periods they run over; a point's day and year, and a window's hours of direct sun.
 
 mod compare;
+mod cover;
 mod geojson_out;
 mod grid;
 mod insolation;
@@ -17,6 +18,7 @@ mod window_sun;
 mod year_profile;
 
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
+pub use cover::MIN_COVER;
 pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};

@@ -1,6 +1,7 @@
 //! Checking a site against a rule: each area's sun before and after the proposal.
 
 use chrono::NaiveDate;
+use geo::MultiPolygon;
 use serde::Serialize;
 
 use super::rule::{Combine, Rule, RuleError};
@@ -36,7 +37,7 @@ pub struct AreaCheck {
     pub id: String,
     /// Area name.
     pub name: String,
-    /// Plan area sampled (cells × cell area), m².
+    /// Plan area of the area's polygon, m² (each cell weighted by its exact overlap with it).
     pub area_m2: f64,
     /// Share with at least the rule's hours before the proposal, 0–1.
     pub before_share: f64,
@@ -58,6 +59,13 @@ pub struct AreaCheck {
     pub ratio_margin: Option<f64>,
     /// The verdict.
     pub passes: bool,
+    /// Discretisation error estimate of the shares before and after, share points (0–1): the share
+    /// of the area in cells cut by its edge or by the threshold's contour (see
+    /// [`crate::exposure::MapStats::uncertain_share`]).
+    pub share_error: f64,
+    /// Whether the verdict could change within `share_error` (of the share or of the ratio): check
+    /// again with smaller cells.
+    pub near_threshold: bool,
     /// Mean hours of direct sun before and after.
     pub mean_before_h: f64,
     /// Mean hours after.
@@ -115,7 +123,7 @@ pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> 
     period.check(model, req.delta_t)?;
     let grids = areas
         .iter()
-        .map(|a| Grid::over_polygon(&a.polygon, req.cell_m, DEFAULT_MAX_CELLS))
+        .map(|a| Grid::covering(&MultiPolygon::new(vec![a.polygon.clone()]), req.cell_m, DEFAULT_MAX_CELLS))
         .collect::<Result<Vec<_>, _>>()?;
     // Twice: before and after.
     period.check_work(2 * grids.iter().map(Grid::inside_count).sum::<usize>())?;
@@ -131,9 +139,10 @@ pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> 
             massing: crate::exposure::Massing::WithProposed,
         };
         let ba = before_after(&sun, |f| progress((k as f64 + f) / n))?;
+        let cover = grid.cover_of(&area.polygon);
         let (Some(b), Some(a)) = (
-            map_stats(&ba.before.hours, grid.cell_m, rule.min_hours),
-            map_stats(&ba.after.hours, grid.cell_m, rule.min_hours),
+            map_stats(grid, &ba.before.hours, Some(&cover), rule.min_hours),
+            map_stats(grid, &ba.after.hours, Some(&cover), rule.min_hours),
         ) else {
             continue; // the area is smaller than a cell's centre spacing: nothing sampled
         };
@@ -145,6 +154,22 @@ pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> 
             (Some(r), Combine::Either) => share_test || r,
             (Some(r), Combine::Both) => share_test && r,
         };
+        let share_error = a.uncertain_share.max(b.uncertain_share);
+        // The verdict at both ends of the shares' error ranges: near the threshold when they differ.
+        let verdict_at = |e: f64| {
+            let share = a.at_least_share + e * a.uncertain_share >= rule.min_share;
+            let ratio = rule.min_ratio.map(|r| {
+                let after = (a.at_least_share + e * a.uncertain_share).max(0.0);
+                let before = (b.at_least_share - e * b.uncertain_share).max(0.0);
+                after >= r * before - 1e-9
+            });
+            match (ratio, rule.combine) {
+                (None, _) => share,
+                (Some(r), Combine::Either) => share || r,
+                (Some(r), Combine::Both) => share && r,
+            }
+        };
+        let near_threshold = verdict_at(-1.0) != verdict_at(1.0);
         out.push(AreaCheck {
             id: area.id.clone(),
             name: area.name.clone(),
@@ -159,6 +184,8 @@ pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> 
             ratio_test,
             ratio_margin: rule.min_ratio.zip(ratio).map(|(r, x)| x - r),
             passes,
+            share_error,
+            near_threshold,
             mean_before_h: b.mean,
             mean_after_h: a.mean,
         });
@@ -201,6 +228,61 @@ mod tests {
         let inverted = r#"{"id":"x","title":"t","month":6,"day":21,"from":"15:00","to":"09:00","min_hours":2,"min_share":0.5,"area_kinds":["garden"]}"#;
         assert!(Rule::from_json(inverted).unwrap_err().to_string().contains("inverted"));
         assert!(preset("nope").unwrap_err().to_string().contains("bre-br209-amenity"));
+    }
+
+    #[test]
+    fn an_area_share_is_the_same_from_the_check_and_from_a_map_over_all_areas() {
+        // `sunlot check` grids each area alone, `sunlot hours --area` lays one grid over all the picked
+        // areas: on the lattice anchored at the plan origin both sample the same points and weigh
+        // them by the same exact cover, so they agree; the area is the polygon's.
+        use crate::exposure::{sun_hours, Massing};
+        use geo::Area;
+        let m = crate::demo::demo();
+        let rule = preset("bre-br209-amenity").unwrap();
+        let r = check_rule(&req(&m, &rule), |_| true).unwrap();
+        let gardens: Vec<_> = m.areas.iter().filter(|a| r.areas.iter().any(|c| c.id == a.id)).collect();
+        let all = MultiPolygon::new(gardens.iter().map(|a| a.polygon.clone()).collect());
+        let grid = Grid::covering(&all, 1.0, DEFAULT_MAX_CELLS).unwrap();
+        let date = NaiveDate::from_ymd_opt(2026, 3, 21).unwrap();
+        let sun = SunHoursRequest {
+            model: &m,
+            grid: &grid,
+            period: Period::day(date, 10),
+            plane_m: 0.0,
+            delta_t: DeltaT::EspenakMeeus,
+            massing: Massing::WithProposed,
+        };
+        let map = sun_hours(&sun, |_| true).unwrap();
+        for (area, c) in gardens.iter().zip(&r.areas) {
+            let s = map_stats(&grid, &map.hours, Some(&grid.cover_of(&area.polygon)), 2.0).unwrap();
+            assert!(
+                (s.at_least_share - c.after_share).abs() < 1e-9,
+                "{}: {} vs {}",
+                c.id,
+                s.at_least_share,
+                c.after_share
+            );
+            assert!((c.area_m2 - area.polygon.unsigned_area()).abs() < 1e-6, "{}: {}", c.id, c.area_m2);
+        }
+    }
+
+    #[test]
+    fn an_area_share_converges_within_its_error_estimate_as_cells_shrink() {
+        let m = crate::demo::demo();
+        let rule = preset("bre-br209-amenity").unwrap();
+        let at = |cell_m: f64| {
+            let r = check_rule(&CheckRequest { cell_m, ..req(&m, &rule) }, |_| true).unwrap();
+            r.areas.into_iter().map(|a| (a.after_share, a.share_error)).collect::<Vec<_>>()
+        };
+        let fine = at(0.125);
+        for cell_m in [1.0, 0.5] {
+            for (k, ((share, err), (best, best_err))) in at(cell_m).into_iter().zip(&fine).enumerate() {
+                assert!(
+                    (share - best).abs() <= err + best_err,
+                    "area {k} at {cell_m} m: {share} ± {err} vs {best} ± {best_err}"
+                );
+            }
+        }
     }
 
     #[test]

@@ -109,7 +109,7 @@ impl MapIn {
         if polys.is_empty() {
             return Err(JsError::new("areas: the site has no areas to map"));
         }
-        let grid = Grid::over(
+        let grid = Grid::covering(
             &MultiPolygon::new(polys),
             self.cell_m,
             self.max_cells.unwrap_or(crate::exposure::DEFAULT_MAX_CELLS),

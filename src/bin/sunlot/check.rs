@@ -63,6 +63,7 @@ pub fn report_table(r: &CheckReport) -> Table {
             "after_over_before",
             "share_test",
             "share_margin_pct",
+            "share_error_pct",
             "ratio_test",
             "ratio_margin",
             "verdict",
@@ -77,9 +78,15 @@ pub fn report_table(r: &CheckReport) -> Table {
             a.ratio.map_or(Cell::Empty, |x| Cell::num(x, 2)),
             Cell::text(if a.share_test { "pass" } else { "fail" }),
             pct(a.share_margin),
+            pct(a.share_error),
             a.ratio_test.map_or(Cell::Empty, |p| Cell::text(if p { "pass" } else { "fail" })),
             a.ratio_margin.map_or(Cell::Empty, |x| Cell::num(x, 2)),
-            Cell::text(if a.passes { "PASS" } else { "FAIL" }),
+            Cell::text(match (a.passes, a.near_threshold) {
+                (true, false) => "PASS",
+                (false, false) => "FAIL",
+                (true, true) => "PASS (near threshold)",
+                (false, true) => "FAIL (near threshold)",
+            }),
         ]);
     }
     if !r.rule.source.is_empty() {
@@ -106,6 +113,19 @@ pub fn report_table(r: &CheckReport) -> Table {
         r.cell_m,
         r.step_min
     ));
+    t.notes.push(
+        "Areas are the polygons' areas: each cell counts by its exact overlap with the area. share_error_pct is \
+         the share of the area in cells cut by its edge or by the edge of the sunlit part, a bound on the \
+         discretisation error while the cells resolve the shadows."
+            .into(),
+    );
+    if r.areas.iter().any(|a| a.near_threshold) {
+        t.notes.push(format!(
+            "A verdict marked near threshold could change within that error: check again with smaller cells \
+             (--cell-m {}).",
+            r.cell_m / 2.0
+        ));
+    }
     t.notes.push(r.caution.into());
     t
 }

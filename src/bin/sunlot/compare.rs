@@ -83,7 +83,8 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
         ],
     );
     for area in maps::pick_areas(model, &a.grid.area, "--area")? {
-        let stats = |v: &[Option<f64>], th| map_stats(&grid.only_in(&area.polygon, v), grid.cell_m, th);
+        let cover = grid.cover_of(&area.polygon);
+        let stats = |v: &[Option<f64>], th| map_stats(&grid, v, Some(&cover), th);
         let (Some(b), Some(af), Some(lost)) =
             (stats(&ba.before.hours, h), stats(&ba.after.hours, h), stats(&ba.lost_h, 0.0))
         else {

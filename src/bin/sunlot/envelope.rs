@@ -90,7 +90,7 @@ pub fn run(a: &EnvelopeArgs) -> Result<String, String> {
     let mut bar = Bar::new("solar envelope", a.files.quiet);
     let env = solar_envelope(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
     drop(bar);
-    let stats = map_stats(&env.height_m, grid.cell_m, a.max_height_m).ok_or("the lot is smaller than one cell")?;
+    let stats = map_stats(&grid, &env.height_m, None, a.max_height_m).ok_or("the lot is smaller than one cell")?;
     let names: Vec<&str> = protected.iter().map(|x| x.id.as_str()).collect();
     let period = format!(
         "{}{}, {}, {}-minute steps",

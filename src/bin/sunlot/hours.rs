@@ -57,7 +57,7 @@ pub fn area_rows(
 ) -> Vec<Vec<Cell>> {
     let mut rows = Vec::new();
     for area in maps::pick_areas(model, ids, "--area").unwrap_or_default() {
-        let Some(s) = map_stats(&grid.only_in(&area.polygon, values), grid.cell_m, threshold) else { continue };
+        let Some(s) = map_stats(grid, values, Some(&grid.cover_of(&area.polygon)), threshold) else { continue };
         rows.push(vec![
             Cell::text(&area.id),
             Cell::text(&area.name),

@@ -71,7 +71,8 @@ pub fn run(a: &InsolationArgs) -> Result<String, String> {
         ],
     );
     for area in maps::pick_areas(model, &a.grid.area, "--area")? {
-        let stats = |v: &[Option<f64>]| map_stats(&grid.only_in(&area.polygon, v), grid.cell_m, 0.0);
+        let cover = grid.cover_of(&area.polygon);
+        let stats = |v: &[Option<f64>]| map_stats(&grid, v, Some(&cover), 0.0);
         let (Some(total), Some(beam), Some(diffuse), Some(svf), Some(hours)) = (
             stats(&map.total_kwh_m2),
             stats(&map.beam_kwh_m2),

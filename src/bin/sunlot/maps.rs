@@ -100,7 +100,7 @@ impl GridArgs {
     pub fn grid(&self, model: &SiteModel) -> Result<Grid, String> {
         let polys: Vec<Polygon<f64>> =
             pick_areas(model, &self.area, "--area")?.iter().map(|a| a.polygon.clone()).collect();
-        Grid::over(&MultiPolygon::new(polys), self.cell_m, self.max_cells).map_err(|e| format!("--cell-m: {e}"))
+        Grid::covering(&MultiPolygon::new(polys), self.cell_m, self.max_cells).map_err(|e| format!("--cell-m: {e}"))
     }
 }
 
