@@ -112,6 +112,22 @@ impl<'de> Visitor<'de> for Walk {
     }
 }
 
+/// `T` read from a JSON value, a serde error with the field's path first (as [`read_with_path`],
+/// without line and column).
+///
+/// # Errors
+/// The message.
+pub fn read_value_with_path<T: serde::de::DeserializeOwned>(value: serde_json::Value) -> Result<T, String> {
+    serde_path_to_error::deserialize(value).map_err(|e| {
+        let path = e.path().to_string();
+        if path.is_empty() || path == "." {
+            e.inner().to_string()
+        } else {
+            format!("{path}: {}", e.inner())
+        }
+    })
+}
+
 /// A serde error from reading `T` out of JSON text, with the field's path in the user's terms first:
 /// `volumes[2].top_m: invalid type: string "tall", expected f64 at line 9 column 40`.
 ///

@@ -21,9 +21,9 @@ use std::path::PathBuf;
 use std::time::{Duration, Instant};
 
 use serde_json::Value;
-use sunlot::rules::{preset, Rule, PRESETS};
+use sunlot::rules::{preset, AnyRule, PRESETS};
 use sunlot::site::SiteModel;
-use support::{check_rule_on, check_site_outputs, Mutator};
+use support::{check_rule_on, check_site_outputs, check_windows_on, Mutator};
 
 fn corpus(kind: &str) -> Vec<String> {
     let dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("tests/fuzz/corpus").join(kind);
@@ -126,9 +126,10 @@ fn site_reader_never_panics_and_accepted_sites_give_finite_valid_results() {
 #[test]
 fn rule_reader_never_panics_and_accepted_rules_check_a_site() {
     let mut seeds = corpus("rule");
-    seeds.extend(PRESETS.iter().map(|p| preset(p).unwrap().to_json()));
+    seeds.extend(PRESETS.iter().map(|p| preset(p.id).unwrap().to_json()));
     let site = SiteModel::from_json(&corpus("site")[1]).unwrap();
-    fuzz("rule", &seeds, |text| match Rule::from_json(text) {
+    let with_windows = sunlot::demo::demo();
+    fuzz("rule", &seeds, |text| match AnyRule::from_json(text) {
         Err(e) => {
             let m = e.to_string();
             if m.trim().is_empty() {
@@ -136,8 +137,12 @@ fn rule_reader_never_panics_and_accepted_rules_check_a_site() {
             }
             Ok(false)
         }
-        Ok(rule) => {
+        Ok(AnyRule::Area(rule)) => {
             check_rule_on(&site, &rule)?;
+            Ok(true)
+        }
+        Ok(AnyRule::Window(rule)) => {
+            check_windows_on(&with_windows, &rule)?;
             Ok(true)
         }
     });

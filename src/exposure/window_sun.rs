@@ -47,8 +47,30 @@ pub fn window_sun_hours(
     period: &Period,
     massing: Massing,
     delta_t: DeltaT,
+    progress: impl FnMut(f64) -> bool,
+) -> Result<WindowSun, ExposureError> {
+    window_sun_hours_above(model, point, facing_deg, period, massing, delta_t, 0.0, progress)
+}
+
+/// As [`window_sun_hours`], but the sun counts (in `sun_hours` and `front_hours`) only at an apparent
+/// altitude of at least `min_altitude_deg`, as tests that ignore a sun too low to matter require.
+///
+/// # Errors
+/// As [`window_sun_hours`], and for a `min_altitude_deg` outside 0–90.
+#[allow(clippy::too_many_arguments)]
+pub fn window_sun_hours_above(
+    model: &SiteModel,
+    point: ViewPoint,
+    facing_deg: f64,
+    period: &Period,
+    massing: Massing,
+    delta_t: DeltaT,
+    min_altitude_deg: f64,
     mut progress: impl FnMut(f64) -> bool,
 ) -> Result<WindowSun, ExposureError> {
+    if !(0.0..=90.0).contains(&min_altitude_deg) {
+        return Err(ExposureError::Period(format!("min_altitude_deg must be 0 to 90, got {min_altitude_deg}")));
+    }
     if !facing_deg.is_finite() {
         return Err(ExposureError::Period(format!("facing_deg must be a finite azimuth, got {facing_deg}")));
     }
@@ -61,7 +83,9 @@ pub fn window_sun_hours(
         for s in &steps {
             let h = s.dt_s / 3600.0;
             out.day_hours += h;
-            if !in_front_of_wall(s.sun.azimuth_deg, facing_deg) {
+            if !in_front_of_wall(s.sun.azimuth_deg, facing_deg)
+                || (min_altitude_deg > 0.0 && s.sun.altitude_deg < min_altitude_deg)
+            {
                 continue;
             }
             out.front_hours += h;

@@ -197,7 +197,7 @@ pub fn check_rule(req: &CheckRequest, mut progress: impl FnMut(f64) -> bool) -> 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::rules::preset;
+    use crate::rules::area_preset as preset;
 
     fn req<'a>(m: &'a SiteModel, r: &'a Rule) -> CheckRequest<'a> {
         CheckRequest { model: m, rule: r, year: 2026, cell_m: 1.0, step_min: 10, delta_t: DeltaT::EspenakMeeus }

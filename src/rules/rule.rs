@@ -3,6 +3,7 @@
 use chrono::{NaiveDate, NaiveTime};
 use serde::{Deserialize, Serialize};
 
+use super::window_rule::WindowRule;
 use crate::site::AreaKind;
 
 /// Problems with a rule or a check request; found before any work starts.
@@ -120,12 +121,7 @@ impl Rule {
                 return Err(self.field("min_ratio", format!("must be 0 to 1, got {r}")));
             }
         }
-        let (from, to) = self.window_times()?;
-        if let (Some(f), Some(t)) = (from, to) {
-            if t <= f {
-                return Err(self.field("to", format!("the window {f}–{t} is empty or inverted")));
-            }
-        }
+        self.window_times()?;
         if self.area_kinds.is_empty() && self.area_ids.is_empty() {
             return Err(self.field("area_kinds", "name at least one area kind or area id"));
         }
@@ -135,24 +131,101 @@ impl Rule {
     /// The daily window's clock times; both `None` for sunrise to sunset.
     ///
     /// # Errors
-    /// [`RuleError::Field`] for an unreadable time or only one end given.
+    /// [`RuleError::Field`] for an unreadable time, only one end given, or an empty window.
     pub fn window_times(&self) -> Result<(Option<NaiveTime>, Option<NaiveTime>), RuleError> {
-        let parse = |field, s: &Option<String>| {
-            s.as_deref()
-                .map(|t| {
-                    NaiveTime::parse_from_str(t, "%H:%M").map_err(|_| self.field(field, format!("{t:?} is not HH:MM")))
-                })
-                .transpose()
-        };
-        let (f, t) = (parse("from", &self.from)?, parse("to", &self.to)?);
-        if f.is_some() != t.is_some() {
-            return Err(self.field("from", "give both ends of the window, or neither"));
-        }
-        Ok((f, t))
+        clock_window(&self.id, &self.from, &self.to)
     }
 
     /// The rule as pretty JSON.
     pub fn to_json(&self) -> String {
         serde_json::to_string_pretty(self).unwrap_or_default()
+    }
+}
+
+/// A rule's daily window from its `from` and `to` members (`HH:MM`); both `None` for sunrise to
+/// sunset.
+///
+/// # Errors
+/// [`RuleError::Field`] for an unreadable time, only one end given, or an empty or inverted window.
+pub(crate) fn clock_window(
+    rule: &str,
+    from: &Option<String>,
+    to: &Option<String>,
+) -> Result<(Option<NaiveTime>, Option<NaiveTime>), RuleError> {
+    let field = |field, reason: String| RuleError::Field { rule: rule.to_string(), field, reason };
+    let parse = |name, s: &Option<String>| {
+        s.as_deref()
+            .map(|t| NaiveTime::parse_from_str(t, "%H:%M").map_err(|_| field(name, format!("{t:?} is not HH:MM"))))
+            .transpose()
+    };
+    let (f, t) = (parse("from", from)?, parse("to", to)?);
+    if f.is_some() != t.is_some() {
+        return Err(field("from", "give both ends of the window, or neither".into()));
+    }
+    if let (Some(f), Some(t)) = (f, t) {
+        if t <= f {
+            return Err(field("to", format!("the window {f}–{t} is empty or inverted")));
+        }
+    }
+    Ok((f, t))
+}
+
+/// Any rule: on areas ([`Rule`]) or on windows ([`WindowRule`]).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[serde(untagged)]
+pub enum AnyRule {
+    /// A share of each area with enough hours of sun.
+    Area(Rule),
+    /// A test of each window.
+    Window(WindowRule),
+}
+
+impl AnyRule {
+    /// A rule read from JSON: its `test` member picks the kind (`area_sun`, the default when absent,
+    /// or one of the window tests).
+    ///
+    /// # Errors
+    /// [`RuleError`] naming the member.
+    pub fn from_json(text: &str) -> Result<Self, RuleError> {
+        crate::limits::within("rule", text.len() as f64, MAX_RULE_TEXT_BYTES as f64, "bytes")
+            .map_err(|e| RuleError::Json(e.to_string()))?;
+        crate::json_check::unique_members(text).map_err(RuleError::Json)?;
+        #[derive(Deserialize)]
+        struct Probe {
+            #[serde(default)]
+            test: Option<serde_json::Value>,
+        }
+        let probe: Probe = serde_json::from_str(text).map_err(|e| RuleError::Json(e.to_string()))?;
+        match probe.test {
+            None => Rule::from_json(text).map(AnyRule::Area),
+            Some(serde_json::Value::String(t)) if t == "area_sun" => {
+                let mut members: serde_json::Map<String, serde_json::Value> =
+                    serde_json::from_str(text).map_err(|e| RuleError::Json(e.to_string()))?;
+                members.remove("test");
+                let r: Rule = crate::json_check::read_value_with_path(serde_json::Value::Object(members))
+                    .map_err(RuleError::Json)?;
+                r.validated().map(AnyRule::Area)
+            }
+            Some(_) => {
+                let members = serde_json::from_str(text).map_err(|e| RuleError::Json(e.to_string()))?;
+                WindowRule::from_members(members).map(AnyRule::Window)
+            }
+        }
+    }
+
+    /// The rule's id.
+    pub fn id(&self) -> &str {
+        match self {
+            AnyRule::Area(r) => &r.id,
+            AnyRule::Window(r) => &r.id,
+        }
+    }
+
+    /// The rule as pretty JSON.
+    pub fn to_json(&self) -> String {
+        match self {
+            AnyRule::Area(r) => r.to_json(),
+            AnyRule::Window(r) => r.to_json(),
+        }
     }
 }

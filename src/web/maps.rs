@@ -10,7 +10,6 @@ use wasm_bindgen::prelude::*;
 use super::{err, read, read_site_text, read_split, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
-use crate::rules::{check_rule, preset, CheckRequest, Rule};
 use crate::shadow::ViewPoint;
 use crate::site::SiteModel;
 use crate::time::DeltaT;
@@ -264,53 +263,6 @@ pub fn insolation_map(
     set(&out, "skyView", &array(&m.sky_view))?;
     set(&out, "sunHours", &array(&m.sun_hours))?;
     Ok(out)
-}
-
-#[derive(Deserialize)]
-#[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct CheckIn {
-    site: String,
-    /// A preset id (default: the BRE BR 209 amenity preset) …
-    preset: Option<String>,
-    /// … or a rule as an object of the rule-file format.
-    rule: Option<serde_json::Value>,
-    year: i32,
-    #[serde(default = "half")]
-    cell_m: f64,
-    #[serde(default = "five")]
-    step_min: u32,
-}
-
-/// A rule check: the report (rule, date, each area's figures, pass/fail, margins, caution).
-#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "CheckReport")]
-pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
-    let i: CheckIn = read(input, "checkRule")?;
-    if !(-2000..=6000).contains(&i.year) {
-        return Err(JsError::new(&format!("year: must be -2000 to 6000, got {}", i.year)));
-    }
-    let model = site(&i.site)?;
-    let rule = match (&i.rule, &i.preset) {
-        (Some(r), _) => Rule::from_json(&r.to_string()).map_err(|e| match e {
-            // A field path first (`min_ratio: invalid type …`) reads as `rule.min_ratio: …`.
-            crate::rules::RuleError::Json(m) => {
-                let head = m.split(':').next().unwrap_or_default();
-                let is_path = !head.is_empty() && head.chars().all(|c| c.is_alphanumeric() || "_[].".contains(c));
-                JsError::new(&if is_path { format!("rule.{m}") } else { format!("rule: {m}") })
-            }
-            other => err(other),
-        })?,
-        (None, p) => preset(p.as_deref().unwrap_or("bre-br209-amenity")).map_err(err)?,
-    };
-    let req = CheckRequest {
-        model: &model,
-        rule: &rule,
-        year: i.year,
-        cell_m: i.cell_m,
-        step_min: i.step_min,
-        delta_t: DeltaT::EspenakMeeus,
-    };
-    let report = serde_json::to_value(check_rule(&req, |_| true).map_err(err)?).map_err(err)?;
-    write(&camel_keys(report))
 }
 
 #[derive(Deserialize)]

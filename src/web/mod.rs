@@ -11,15 +11,16 @@ use wasm_bindgen::JsCast;
 mod canvas;
 mod layer;
 mod maps;
+mod rules;
 mod studies;
 mod types;
 mod window;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
 pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
-    check_rule_js, compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js,
-    sun_hours_map,
+    compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js, sun_hours_map,
 };
+pub use rules::{check_rule_js, check_windows_js, rule_presets};
 pub use studies::{shadow_table_js, sky_view_js, year_profile_js};
 pub use window::window_light;
 

@@ -43,13 +43,20 @@ export interface InsolationInput extends MapInput { aod500?: number; skyStepDeg?
 export interface InsolationMap { grid: GridGeometry; totalKwhM2: Float64Array; beamKwhM2: Float64Array;
   diffuseKwhM2: Float64Array; skyView: Float64Array; sunHours: Float64Array;
   open: { totalKwhM2: number; beamKwhM2: number; diffuseKwhM2: number; sunHours: number }; }
-export interface CheckInput { site: SiteText; preset?: string; rule?: object; year: number; cellM?: number; stepMin?: number; }
+export interface CheckInput { site: SiteText; preset?: string; rule?: object; year: number; cellM?: number; stepMin?: number;
+  azimuthStepDeg?: number; }
 export interface CheckReport { rule: { id: string; title: string; source: string; month: number; day: number;
     minHours: number; minShare: number; minRatio: number; combine: string; areaKinds: string[]; areaIds: string[] } & Record<string, unknown>;
   date: string; cellM: number; stepMin: number; allPass: boolean; caution: string;
   areas: { id: string; name: string; areaM2: number; beforeShare: number; afterShare: number; beforeM2: number;
     afterM2: number; ratio: number; shareTest: boolean; shareMargin: number; ratioTest: boolean; ratioMargin: number;
-    passes: boolean; meanBeforeH: number; meanAfterH: number }[]; }
+    passes: boolean; shareError: number; nearThreshold: boolean; meanBeforeH: number; meanAfterH: number }[]; }
+export interface WindowReport { rule: { id: string; title: string; source: string; fromMemory: boolean; windowIds: string[];
+    statuses: string[]; test: "window_sky" | "window_sun_day" | "window_sun_year" } & Record<string, unknown>;
+  year: number; stepMin: number; sharePassing: number | null; passes: boolean; cautions: string[];
+  windows: { id: string; name: string; status: string; facingDeg: number;
+    figures: { name: string; before: number | null; after: number }[]; passes: boolean | null; reason: string }[]; }
+export interface RulePreset { id: string; kind: "area" | "window"; summary: string; rule: Record<string, unknown>; }
 export interface EnvelopeInput { site: SiteText; lot: string; protect?: string[]; date: string; to?: string; window?: string;
   stepMin?: number; cellM?: number; maxHeightM?: number; heightStepM?: number; }
 export interface Envelope { grid: GridGeometry; heightM: Float64Array; steps: number; }

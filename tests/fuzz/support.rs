@@ -4,7 +4,7 @@ use chrono::{DateTime, NaiveDate, Utc};
 use geo::{Area, MultiPolygon, Validation};
 use serde_json::Value;
 use sunlot::exposure::{sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
-use sunlot::rules::{check_rule, CheckRequest, Rule};
+use sunlot::rules::{check_rule, check_windows, CheckRequest, Rule, WindowCheckRequest, WindowRule};
 use sunlot::shadow::{shadow_study, study_geojson, Study};
 use sunlot::site::SiteModel;
 use sunlot::time::DeltaT;
@@ -326,6 +326,33 @@ pub fn check_rule_on(site: &SiteModel, rule: &Rule) -> Result<(), String> {
                     [a.area_m2, a.before_share, a.after_share, a.before_m2, a.after_m2, a.mean_before_h, a.mean_after_h]
                 {
                     finite(&format!("rule figures of {}", a.id), x)?;
+                }
+            }
+            Ok(())
+        }
+    }
+}
+
+/// A window rule that reads must check `site` with finite figures, or be refused with a typed error.
+pub fn check_windows_on(site: &SiteModel, rule: &WindowRule) -> Result<(), String> {
+    let req = WindowCheckRequest {
+        model: site,
+        rule,
+        year: 2026,
+        step_min: 60,
+        azimuth_step_deg: 2.0,
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    match check_windows(&req, |_| true) {
+        Err(e) if e.to_string().trim().is_empty() => Err("an empty window check error".into()),
+        Err(_) => Ok(()),
+        Ok(report) => {
+            for w in &report.windows {
+                for f in &w.figures {
+                    finite(&format!("{} of window {}", f.name, w.id), f.after)?;
+                    if let Some(b) = f.before {
+                        finite(&format!("{} of window {}", f.name, w.id), b)?;
+                    }
                 }
             }
             Ok(())

@@ -3,27 +3,26 @@
 use std::path::PathBuf;
 
 use clap::Args;
-use sunlot::rules::{check_rule, preset, CheckReport, CheckRequest, Rule};
+use sunlot::rules::{
+    check_rule, check_windows, preset, AnyRule, CheckReport, CheckRequest, WindowCheckRequest, WindowReport, PRESETS,
+};
 
 use crate::args::DeltaTArgs;
 use crate::output::{Cell, Format, Table};
 use crate::progress::Bar;
 use crate::shadows::SiteFileArgs;
 
-/// The presets, for `--help`.
-pub const PRESET_HELP: &str =
-    "Presets:\n  bre-br209-amenity  at least half of each garden or amenity area with at least 2 h of \
-direct sun on 21 March, or at least 0.8 times the area so sunlit before (BRE BR 209, Site layout planning for daylight \
-and sunlight, 3rd ed. 2022; same numbers in the 2nd ed. 2011)";
-
 #[derive(Debug, Args)]
-#[command(after_help = PRESET_HELP)]
+#[command(after_help = sunlot::rules::presets_help())]
 pub struct CheckArgs {
     #[command(flatten)]
     pub site: SiteFileArgs,
-    /// A rule preset (listed below).
-    #[arg(long, default_value = "bre-br209-amenity", conflicts_with = "rule_file")]
-    pub rule: String,
+    /// Rule presets, comma-separated (listed below); each is checked in turn.
+    #[arg(long, value_delimiter = ',', default_value = sunlot::rules::DEFAULT_AREA_PRESET, conflicts_with = "rule_file")]
+    pub rule: Vec<String>,
+    /// List the presets with their sources and stop.
+    #[arg(long)]
+    pub list: bool,
     /// A rule of your own, as JSON (see README: "Rules").
     #[arg(long, value_name = "FILE")]
     pub rule_file: Option<PathBuf>,
@@ -36,6 +35,9 @@ pub struct CheckArgs {
     /// Time step, minutes.
     #[arg(long, default_value_t = 5)]
     pub step_min: u32,
+    /// Azimuth step of the vertical sky component's integration, degrees (window sky rules).
+    #[arg(long, default_value_t = sunlot::daylight::DEFAULT_AZIMUTH_STEP_DEG)]
+    pub azimuth_step_deg: f64,
     #[command(flatten)]
     pub delta_t: DeltaTArgs,
     /// No progress bar.
@@ -130,29 +132,134 @@ pub fn report_table(r: &CheckReport) -> Table {
     t
 }
 
+/// A window report as a table with its rule, cautions and source.
+pub fn window_table(r: &WindowReport) -> Table {
+    let names: Vec<&str> =
+        r.windows.iter().flat_map(|w| w.figures.iter().map(|f| f.name)).fold(Vec::new(), |mut v, n| {
+            if !v.contains(&n) {
+                v.push(n);
+            }
+            v
+        });
+    let mut columns = vec!["window".to_string(), "name".into(), "facing_deg".into()];
+    for n in &names {
+        columns.push(format!("before_{n}"));
+        columns.push(format!("after_{n}"));
+    }
+    columns.extend(["verdict".to_string(), "why".into()]);
+    let mut t = Table::new(
+        format!("Rule {} ({}): {}", r.rule.id, r.year, r.rule.title),
+        columns.iter().map(String::as_str).collect(),
+    );
+    for w in &r.windows {
+        let mut row = vec![Cell::text(&w.id), Cell::text(&w.name), Cell::num(w.facing_deg, 0)];
+        for n in &names {
+            let f = w.figures.iter().find(|f| f.name == *n);
+            let (scale, digits) =
+                if n.ends_with("_share") { (100.0, 1) } else { (1.0, if n.ends_with("_h") { 2 } else { 1 }) };
+            row.push(f.and_then(|f| f.before).map_or(Cell::Empty, |x| Cell::num(scale * x, digits)));
+            row.push(f.map_or(Cell::Empty, |f| Cell::num(scale * f.after, digits)));
+        }
+        row.push(Cell::text(match w.passes {
+            Some(true) => "PASS",
+            Some(false) => "FAIL",
+            None => "not tested",
+        }));
+        row.push(Cell::text(&w.reason));
+        t.rows.push(row);
+    }
+    if !r.rule.source.is_empty() {
+        t.notes.push(format!("Source: {}.", r.rule.source));
+    }
+    if names.iter().any(|n| n.ends_with("_share")) {
+        t.notes.push("Shares are percent of the year's sun-up hours at the site.".into());
+    }
+    let tested = r.windows.iter().filter(|w| w.passes.is_some()).count();
+    let passing = r.windows.iter().filter(|w| w.passes == Some(true)).count();
+    t.notes.push(format!(
+        "{passing} of {tested} windows tested pass; the rule {}. Before = existing massing, after = with the proposal; \
+         {}-minute steps.",
+        if r.passes { "passes" } else { "fails" },
+        r.step_min
+    ));
+    t.notes.extend(r.cautions.iter().cloned());
+    t
+}
+
+/// The presets as a table.
+fn preset_table() -> Table {
+    let mut t = Table::new("Rule presets", vec!["id", "test", "summary", "source", "numbers"]);
+    for p in PRESETS {
+        let rule = (p.rule)();
+        let (test, source, memory) = match &rule {
+            AnyRule::Area(r) => ("area_sun", r.source.clone(), false),
+            AnyRule::Window(w) => (
+                match w.test {
+                    sunlot::rules::WindowTest::WindowSky(_) => "window_sky",
+                    sunlot::rules::WindowTest::WindowSunDay(_) => "window_sun_day",
+                    sunlot::rules::WindowTest::WindowSunYear(_) => "window_sun_year",
+                },
+                w.source.clone(),
+                w.from_memory,
+            ),
+        };
+        t.rows.push(vec![
+            Cell::text(p.id),
+            Cell::text(test),
+            Cell::text(p.summary),
+            Cell::text(&source),
+            Cell::text(if memory { "from memory: check the document" } else { "from the project's references" }),
+        ]);
+    }
+    t.notes.push("A rule file of your own: see README, \"Rules\". Results are indicative; local planning codes and a licensed professional's assessment govern.".into());
+    t
+}
+
 pub fn run(a: &CheckArgs) -> Result<String, String> {
-    let rule = match &a.rule_file {
+    if a.list {
+        return Ok(preset_table().render(a.format));
+    }
+    let rules = match &a.rule_file {
         Some(path) => {
             let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;
-            Rule::from_json(&text).map_err(|e| format!("{}: {e}", path.display()))?
+            vec![AnyRule::from_json(&text).map_err(|e| format!("{}: {e}", path.display()))?]
         }
-        None => preset(&a.rule).map_err(|e| format!("--rule: {e}"))?,
+        None => {
+            a.rule.iter().map(|id| preset(id.trim()).map_err(|e| format!("--rule: {e}"))).collect::<Result<_, _>>()?
+        }
     };
     let model = a.site.load()?.model;
     let year = a.year.unwrap_or_else(|| chrono::Datelike::year(&chrono::Utc::now()));
-    let req = CheckRequest {
-        model: &model,
-        rule: &rule,
-        year,
-        cell_m: a.cell_m,
-        step_min: a.step_min,
-        delta_t: a.delta_t.delta_t()?,
-    };
-    let mut bar = Bar::new("rule check", a.quiet);
-    let report = check_rule(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
-    drop(bar);
+    let delta_t = a.delta_t.delta_t()?;
+    let (mut text, mut json) = (Vec::new(), Vec::new());
+    for rule in &rules {
+        let mut bar = Bar::new(&format!("rule {}", rule.id()), a.quiet);
+        let (value, table) = match rule {
+            AnyRule::Area(rule) => {
+                let req = CheckRequest { model: &model, rule, year, cell_m: a.cell_m, step_min: a.step_min, delta_t };
+                let report = check_rule(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
+                (serde_json::to_value(&report), report_table(&report))
+            }
+            AnyRule::Window(rule) => {
+                let req = WindowCheckRequest {
+                    model: &model,
+                    rule,
+                    year,
+                    step_min: a.step_min,
+                    azimuth_step_deg: a.azimuth_step_deg,
+                    delta_t,
+                };
+                let report = check_windows(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
+                (serde_json::to_value(&report), window_table(&report))
+            }
+        };
+        drop(bar);
+        json.push(value.map_err(|e| e.to_string())?);
+        text.push(table.render(a.format));
+    }
     Ok(match a.format {
-        Format::Json => serde_json::to_string_pretty(&report).unwrap_or_default() + "\n",
-        f => report_table(&report).render(f),
+        Format::Json if json.len() == 1 => serde_json::to_string_pretty(&json[0]).unwrap_or_default() + "\n",
+        Format::Json => serde_json::to_string_pretty(&json).unwrap_or_default() + "\n",
+        _ => text.join("\n"),
     })
 }

@@ -112,7 +112,7 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
     );
     out += &shade.render(Format::Table);
     out.push('\n');
-    let rule = sunlot::rules::preset("bre-br209-amenity").map_err(|e| e.to_string())?;
+    let rule = sunlot::rules::area_preset(sunlot::rules::DEFAULT_AREA_PRESET).map_err(|e| e.to_string())?;
     let req = sunlot::rules::CheckRequest { model: &model, rule: &rule, year, cell_m: 0.5, step_min: 5, delta_t: dt };
     let report = sunlot::rules::check_rule(&req, |_| true).map_err(|e| e.to_string())?;
     let mut check = crate::check::report_table(&report);

@@ -1,0 +1,123 @@
+//! Rule checks for pages (wasm32 only): areas against an area rule, windows against a window rule,
+//! and the presets with their sources. Errors name the member.
+
+use serde::{Deserialize, Serialize};
+use wasm_bindgen::prelude::*;
+
+use super::maps::camel_keys;
+use super::{err, read, site, write};
+use crate::daylight::DEFAULT_AZIMUTH_STEP_DEG;
+use crate::rules::{
+    check_rule, check_windows, preset, AnyRule, CheckRequest, RuleError, WindowCheckRequest, DEFAULT_AREA_PRESET,
+    PRESETS,
+};
+use crate::time::DeltaT;
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct CheckIn {
+    site: String,
+    /// A preset id (default: the BRE BR 209 amenity preset for `checkRule`) …
+    preset: Option<String>,
+    /// … or a rule as an object of the rule-file format.
+    rule: Option<serde_json::Value>,
+    year: i32,
+    #[serde(default = "half")]
+    cell_m: f64,
+    #[serde(default = "five")]
+    step_min: u32,
+    azimuth_step_deg: Option<f64>,
+}
+
+fn half() -> f64 {
+    0.5
+}
+
+fn five() -> u32 {
+    5
+}
+
+/// The rule of a request: its `rule` object, or its preset (`default` when neither is given).
+fn rule_of(i: &CheckIn, default: Option<&str>) -> Result<AnyRule, JsError> {
+    if !(-2000..=6000).contains(&i.year) {
+        return Err(JsError::new(&format!("year: must be -2000 to 6000, got {}", i.year)));
+    }
+    match (&i.rule, i.preset.as_deref().or(default)) {
+        (Some(r), _) => AnyRule::from_json(&r.to_string()).map_err(|e| match e {
+            // A field path first (`min_ratio: invalid type …`) reads as `rule.min_ratio: …`.
+            RuleError::Json(m) => {
+                let head = m.split(':').next().unwrap_or_default();
+                let is_path = !head.is_empty() && head.chars().all(|c| c.is_alphanumeric() || "_[].".contains(c));
+                JsError::new(&if is_path { format!("rule.{m}") } else { format!("rule: {m}") })
+            }
+            other => err(other),
+        }),
+        (None, Some(p)) => preset(p).map_err(|e| JsError::new(&format!("preset: {e}"))),
+        (None, None) => Err(JsError::new("preset, rule: give a window rule's preset id or the rule")),
+    }
+}
+
+/// A rule check on areas: the report (rule, date, each area's figures, pass/fail, margins, caution).
+#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "CheckReport")]
+pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
+    let i: CheckIn = read(input, "checkRule")?;
+    let AnyRule::Area(rule) = rule_of(&i, Some(DEFAULT_AREA_PRESET))? else {
+        return Err(JsError::new("preset, rule: a window rule; check it with checkWindows"));
+    };
+    let model = site(&i.site)?;
+    let req = CheckRequest {
+        model: &model,
+        rule: &rule,
+        year: i.year,
+        cell_m: i.cell_m,
+        step_min: i.step_min,
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    let report = serde_json::to_value(check_rule(&req, |_| true).map_err(err)?).map_err(err)?;
+    write(&camel_keys(report))
+}
+
+/// A rule check on the site's windows: the report (rule, each window's figures before and with the
+/// proposal, pass/fail and why, the share passing, the cautions).
+#[wasm_bindgen(js_name = checkWindows, unchecked_return_type = "WindowReport")]
+pub fn check_windows_js(
+    #[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
+    let i: CheckIn = read(input, "checkWindows")?;
+    let AnyRule::Window(rule) = rule_of(&i, None)? else {
+        return Err(JsError::new("preset, rule: an area rule; check it with checkRule"));
+    };
+    let model = site(&i.site)?;
+    let req = WindowCheckRequest {
+        model: &model,
+        rule: &rule,
+        year: i.year,
+        step_min: i.step_min,
+        azimuth_step_deg: i.azimuth_step_deg.unwrap_or(DEFAULT_AZIMUTH_STEP_DEG),
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    let report = serde_json::to_value(check_windows(&req, |_| true).map_err(err)?).map_err(err)?;
+    write(&camel_keys(report))
+}
+
+/// The rule presets: `[{id, kind, summary, rule}]`, `kind` `"area"` or `"window"`, `rule` the full
+/// rule (its source, and `fromMemory` for a window rule whose numbers must be checked).
+#[wasm_bindgen(js_name = rulePresets, unchecked_return_type = "RulePreset[]")]
+pub fn rule_presets() -> Result<JsValue, JsError> {
+    #[derive(Serialize)]
+    struct Out {
+        id: &'static str,
+        kind: &'static str,
+        summary: &'static str,
+        rule: serde_json::Value,
+    }
+    let out: Vec<Out> = PRESETS
+        .iter()
+        .map(|p| {
+            let rule = (p.rule)();
+            let kind = if matches!(rule, AnyRule::Area(_)) { "area" } else { "window" };
+            Out { id: p.id, kind, summary: p.summary, rule: serde_json::to_value(&rule).unwrap_or_default() }
+        })
+        .collect();
+    write(&camel_keys(serde_json::to_value(out).map_err(err)?))
+}
