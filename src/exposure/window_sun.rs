@@ -9,7 +9,9 @@
 //! have; clear-sky hours are an upper bound of them.
 
 use super::grid::ExposureError;
-use super::period::Period;
+use chrono::NaiveDate;
+
+use super::period::{Period, Step};
 use super::shade::Massing;
 use super::sun_hours::{for_each_day, MIN_CAST_ALTITUDE_DEG};
 use super::timeline::PointSky;
@@ -68,35 +70,109 @@ pub fn window_sun_hours_above(
     min_altitude_deg: f64,
     mut progress: impl FnMut(f64) -> bool,
 ) -> Result<WindowSun, ExposureError> {
-    if !(0.0..=90.0).contains(&min_altitude_deg) {
-        return Err(ExposureError::Period(format!("min_altitude_deg must be 0 to 90, got {min_altitude_deg}")));
-    }
-    if !facing_deg.is_finite() {
-        return Err(ExposureError::Period(format!("facing_deg must be a finite azimuth, got {facing_deg}")));
-    }
+    check_window(facing_deg, min_altitude_deg)?;
     period.check(model, delta_t)?;
     let casters = model.volumes.len() + model.walls.len();
     crate::limits::ray_tests("step_min", period.max_steps(), casters, "use a longer step or a shorter period")?;
     let sky = PointSky::new(model, point, massing, delta_t);
     let mut out = WindowSun { sun_hours: 0.0, front_hours: 0.0, day_hours: 0.0 };
     for_each_day(model, period, delta_t, &mut progress, |_, steps| {
-        for s in &steps {
-            let h = s.dt_s / 3600.0;
-            out.day_hours += h;
-            if !in_front_of_wall(s.sun.azimuth_deg, facing_deg)
-                || (min_altitude_deg > 0.0 && s.sun.altitude_deg < min_altitude_deg)
-            {
-                continue;
-            }
-            out.front_hours += h;
-            let az = model.plan_azimuth_deg(s.sun.azimuth_deg);
-            if sky.toward(az, s.sun.altitude_deg.max(MIN_CAST_ALTITUDE_DEG))? == Exposure::Sunlit {
-                out.sun_hours += h;
-            }
-        }
-        Ok(())
+        add_steps(model, &sky, facing_deg, min_altitude_deg, &steps, &mut out)
     })?;
     Ok(out)
+}
+
+fn check_window(facing_deg: f64, min_altitude_deg: f64) -> Result<(), ExposureError> {
+    if !(0.0..=90.0).contains(&min_altitude_deg) {
+        return Err(ExposureError::Period(format!("min_altitude_deg must be 0 to 90, got {min_altitude_deg}")));
+    }
+    if !facing_deg.is_finite() {
+        return Err(ExposureError::Period(format!("facing_deg must be a finite azimuth, got {facing_deg}")));
+    }
+    Ok(())
+}
+
+/// Adds the hours of `steps` to `out`.
+fn add_steps(
+    model: &SiteModel,
+    sky: &PointSky,
+    facing_deg: f64,
+    min_altitude_deg: f64,
+    steps: &[Step],
+    out: &mut WindowSun,
+) -> Result<(), ExposureError> {
+    for s in steps {
+        let h = s.dt_s / 3600.0;
+        out.day_hours += h;
+        if !in_front_of_wall(s.sun.azimuth_deg, facing_deg)
+            || (min_altitude_deg > 0.0 && s.sun.altitude_deg < min_altitude_deg)
+        {
+            continue;
+        }
+        out.front_hours += h;
+        let az = model.plan_azimuth_deg(s.sun.azimuth_deg);
+        if sky.toward(az, s.sun.altitude_deg.max(MIN_CAST_ALTITUDE_DEG))? == Exposure::Sunlit {
+            out.sun_hours += h;
+        }
+    }
+    Ok(())
+}
+
+/// A period's sun-up steps, computed once and shared by many windows and massings (the sun's
+/// positions and the days' events are most of the cost of a window's year). Holds every step: for
+/// periods of up to a year or so.
+#[derive(Debug, Clone)]
+pub struct SunSteps {
+    days: Vec<(NaiveDate, Vec<Step>)>,
+    max_steps: f64,
+}
+
+impl SunSteps {
+    /// The steps of `period`.
+    ///
+    /// # Errors
+    /// [`ExposureError`] for a bad period or a cancelled run.
+    pub fn of(
+        model: &SiteModel,
+        period: &Period,
+        delta_t: DeltaT,
+        mut progress: impl FnMut(f64) -> bool,
+    ) -> Result<Self, ExposureError> {
+        period.check(model, delta_t)?;
+        let mut days = Vec::with_capacity(period.days());
+        for_each_day(model, period, delta_t, &mut progress, |date, steps| {
+            days.push((date, steps));
+            Ok(())
+        })?;
+        Ok(SunSteps { days, max_steps: period.max_steps() })
+    }
+
+    /// The hours of direct sun on a window (as [`window_sun_hours_above`]) over the steps of the
+    /// days for which `on` holds.
+    ///
+    /// # Errors
+    /// As [`window_sun_hours_above`].
+    #[allow(clippy::too_many_arguments)]
+    pub fn window(
+        &self,
+        model: &SiteModel,
+        point: ViewPoint,
+        facing_deg: f64,
+        massing: Massing,
+        delta_t: DeltaT,
+        min_altitude_deg: f64,
+        on: impl Fn(NaiveDate) -> bool,
+    ) -> Result<WindowSun, ExposureError> {
+        check_window(facing_deg, min_altitude_deg)?;
+        let casters = model.volumes.len() + model.walls.len();
+        crate::limits::ray_tests("step_min", self.max_steps, casters, "use a longer step or a shorter period")?;
+        let sky = PointSky::new(model, point, massing, delta_t);
+        let mut out = WindowSun { sun_hours: 0.0, front_hours: 0.0, day_hours: 0.0 };
+        for (_, steps) in self.days.iter().filter(|(d, _)| on(*d)) {
+            add_steps(model, &sky, facing_deg, min_altitude_deg, steps, &mut out)?;
+        }
+        Ok(out)
+    }
 }
 
 #[cfg(test)]

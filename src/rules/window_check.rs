@@ -1,12 +1,12 @@
 //! Checking a site's windows against a window rule, before and with the proposal.
 
-use chrono::NaiveDate;
+use chrono::{Datelike, NaiveDate};
 use serde::Serialize;
 
 use super::rule::{clock_window, RuleError};
 use super::window_rule::{SkyTest, SunDayTest, SunYearTest, WindowRule, WindowTest};
 use crate::daylight::{sky_component_pct, SkyPlane};
-use crate::exposure::{window_sun_hours_above, Massing, Period, Window, WindowSun};
+use crate::exposure::{window_sun_hours_above, Massing, Period, SunSteps, Window, WindowSun};
 use crate::site::{SiteModel, Status, WindowPoint};
 use crate::time::DeltaT;
 
@@ -126,14 +126,30 @@ pub fn check_windows(
             reason: format!("must be more than 0, got {}", req.azimuth_step_deg),
         });
     }
-    let n = windows.len() as f64;
+    // The year's steps once for every window and massing (most of the year test's cost).
+    let year = match &rule.test {
+        WindowTest::WindowSunYear(_) => {
+            let period = Period {
+                first: date(&rule.id, req.year, 1, 1)?,
+                last: date(&rule.id, req.year, 12, 31)?,
+                window: Window::Daylight,
+                step_min: req.step_min,
+            };
+            Some(SunSteps::of(model, &period, req.delta_t, |f| progress(0.5 * f))?)
+        }
+        _ => None,
+    };
+    let (n, done) = (windows.len() as f64, if year.is_some() { 0.5 } else { 0.0 });
     let mut out = Vec::new();
     for (k, w) in windows.iter().enumerate() {
-        let mut part = |f: f64| progress((k as f64 + f) / n);
+        let mut part = |f: f64| progress(done + (1.0 - done) * (k as f64 + f) / n);
         out.push(match &rule.test {
             WindowTest::WindowSky(t) => sky(req, w, t)?,
             WindowTest::WindowSunDay(t) => sun_day(req, &rule, w, t, &mut part)?,
-            WindowTest::WindowSunYear(t) => sun_year(req, w, t, &mut part)?,
+            WindowTest::WindowSunYear(t) => match &year {
+                Some(steps) => sun_year(req, w, t, steps)?,
+                None => continue, // computed above for this test
+            },
         });
         if !part(1.0) {
             return Err(crate::exposure::ExposureError::Period("cancelled".into()).into());
@@ -270,7 +286,7 @@ fn sun_year(
     req: &WindowCheckRequest,
     w: &WindowPoint,
     t: &SunYearTest,
-    progress: &mut dyn FnMut(f64) -> bool,
+    year: &SunSteps,
 ) -> Result<WindowCheck, RuleError> {
     let lat = req.model.location.latitude_deg;
     if !faces_equator(w.facing_deg, lat, t.facing_within_deg) {
@@ -282,70 +298,54 @@ fn sun_year(
             format!("faces {:.0}°, more than {}° from due {toward}: not tested", w.facing_deg, t.facing_within_deg),
         ));
     }
-    let rule = &req.rule.id;
-    let period = |a: (u32, u32), b: (u32, u32)| -> Result<Period, RuleError> {
-        Ok(Period {
-            first: date(rule, req.year, a.0, a.1)?,
-            last: date(rule, req.year, b.0, b.1)?,
-            window: Window::Daylight,
-            step_min: req.step_min,
-        })
-    };
-    // The winter half-year, taken within the one calendar year: 21 September to 21 March north of
-    // the equator, 21 March to 21 September south of it.
-    let year = period((1, 1), (12, 31))?;
-    let winter: Vec<Period> = if lat >= 0.0 {
-        vec![period((1, 1), (3, 21))?, period((9, 21), (12, 31))?]
-    } else {
-        vec![period((3, 21), (9, 21))?]
-    };
-    let mut done = 0.0;
-    let mut shares = |m: Massing| -> Result<(f64, f64), RuleError> {
-        let mut step = |f: f64| progress((done + f) / 6.0);
-        let all = sun(req, w, &year, m, 0.0, &mut step)?;
-        let mut winter_h = 0.0;
-        for p in &winter {
-            winter_h += sun(req, w, p, m, 0.0, &mut |_| true)?.sun_hours;
+    // The winter half-year, within the one calendar year: 21 September to 21 March north of the
+    // equator, 21 March to 21 September south of it.
+    let (march, september) = ((3, 21), (9, 21));
+    let winter = |d: NaiveDate| {
+        let md = (d.month(), d.day());
+        if lat >= 0.0 {
+            md <= march || md >= september
+        } else {
+            md >= march && md <= september
         }
-        let winter = winter_h;
-        done += 3.0;
-        let possible = all.day_hours.max(1e-9);
-        Ok((all.sun_hours / possible, winter / possible))
     };
-    let (before, (annual, winter)) = before_after(w, &mut shares)?;
+    let shares = |m: Massing| -> Result<(f64, f64), RuleError> {
+        let hours = |on: &dyn Fn(NaiveDate) -> bool| {
+            year.window(req.model, w.view_point(), w.facing_deg, m, req.delta_t, 0.0, on).map_err(RuleError::from)
+        };
+        let all = hours(&|_| true)?;
+        let cold = hours(&winter)?;
+        let possible = all.day_hours.max(1e-9);
+        Ok((all.sun_hours / possible, cold.sun_hours / possible))
+    };
+    let (before, (annual, winter)) = before_after(w, shares)?;
     let low = annual < t.annual_min_share - 1e-9 || winter < t.winter_min_share - 1e-9;
+    let pct = |x: f64| 100.0 * x;
     let (passes, reason) = match before {
         None => (
             !low,
-            format!(
-                "annual {:.1} %, winter {:.1} % (a proposed window: the shares alone)",
-                100.0 * annual,
-                100.0 * winter
-            ),
+            format!("annual {:.1} %, winter {:.1} % (a proposed window: the shares alone)", pct(annual), pct(winter)),
         ),
         Some((ba, bw)) => {
             let cut = annual < t.min_ratio * ba - 1e-9 || winter < t.min_ratio * bw - 1e-9;
             let lost = ba - annual > t.max_annual_loss + 1e-9;
-            let fails = low && cut && lost;
             let why = if !low {
                 "meets both shares".to_string()
             } else if !cut {
                 format!("keeps at least {} × its former shares", t.min_ratio)
             } else if !lost {
-                format!("loses no more than {:.0} % of the year", 100.0 * t.max_annual_loss)
+                format!("loses no more than {:.0} % of the year", pct(t.max_annual_loss))
             } else {
                 "below the shares, below the ratio and a loss over the limit".to_string()
             };
-            (
-                !fails,
-                format!(
-                    "annual {:.1} % (was {:.1} %), winter {:.1} % (was {:.1} %): {why}",
-                    100.0 * annual,
-                    100.0 * ba,
-                    100.0 * winter,
-                    100.0 * bw
-                ),
-            )
+            let text = format!(
+                "annual {:.1} % (was {:.1} %), winter {:.1} % (was {:.1} %): {why}",
+                pct(annual),
+                pct(ba),
+                pct(winter),
+                pct(bw)
+            );
+            (!(low && cut && lost), text)
         }
     };
     Ok(result(
