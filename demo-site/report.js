@@ -16,16 +16,6 @@
   const hhmm = t => (t ? t.slice(11, 16) : "—");
   const fixed = (v, d = 1) => (Number.isFinite(v) ? v.toFixed(d) : "—");
 
-  /** The neighbours' ground-floor windows (plan metres, 5 cm in front of the façade, sill + 0.2 m). */
-  const WINDOWS = [
-    { id: "w16-side", name: "16 Tenter Lane, side window facing the lot", xM: 27.95, yM: 9.0, zM: 1.2 },
-    { id: "w12-side", name: "12 Tenter Lane, side window facing the lot", xM: 0.05, yM: 9.0, zM: 1.2 },
-    { id: "w9-west", name: "9 Weir Close, front window (west)", xM: 8.0, yM: 62.95, zM: 1.2 },
-    { id: "w9-east", name: "9 Weir Close, front window (east)", xM: 20.0, yM: 62.95, zM: 1.2 },
-    { id: "w16-rear", name: "16 Tenter Lane, rear kitchen window (faces north)", xM: 31.5, yM: 12.05, zM: 1.2 },
-  ];
-
-
   /** Export buttons for a widget or a table. */
   function exports(target, stem, kinds) {
     const span = el("span", { class: "exports" });
@@ -93,7 +83,7 @@
       const lost = figure(figs, "sunlot-map", { id: "summary-lost", date: march.date, layer: "lost" },
         `Hours of direct sun lost to the proposal on ${march.date}`, ["png", "svg", "csv", "geojson"], site);
       ruleTable(m, site, $("rule"));
-      windowTable(m, site, $("windows"), [march, december]);
+      windowVerdicts(m, site, $("windows"), ["bre-br209-window-sky", "bre-br209-window-sun"]);
       await Promise.all([plan.drawn, lost.drawn]);
       $("print").addEventListener("click", () => window.print());
     },
@@ -169,8 +159,9 @@
 
     async windows(m, site, info) {
       const all = seasons(m, info, 2026);
-      windowTable(m, site, $("tables"), [all[0], all[3]]);
-      const drawn = WINDOWS.map(w => figure($("figures"), "sunlot-sky", { id: `sky-${w.id}`, date: all[0].date, time: "12:00",
+      windowVerdicts(m, site, $("verdicts"), ["bre-br209-window-sky", "bre-br209-window-sun", "en17037-window-sun"]);
+      windowTable(m, site, info, $("tables"), [all[0], all[3]]);
+      const drawn = info.windows.map(w => figure($("figures"), "sunlot-sky", { id: `sky-${w.id}`, date: all[0].date, time: "12:00",
         point: `${w.xM},${w.yM},${w.zM}`, projection: "rectangular" },
       `${w.name}: sun paths and the skyline with the proposal (rectangular projection)`, ["png", "svg"], site).drawn);
       await Promise.all(drawn);
@@ -220,14 +211,41 @@
     parent.append(el("p", { class: "caution", text: r.caution }));
   }
 
+  /** Window rule checks: per rule a table of each window's figures before and with the proposal, the
+   *  verdict and why, the source, and the cautions (numbers from memory are said so). */
+  function windowVerdicts(m, site, parent, presets) {
+    for (const preset of presets) {
+      const r = m.checkWindows({ site, preset, year: 2026, stepMin: 10 });
+      const names = [...new Set(r.windows.flatMap(w => w.figures.map(f => f.name)))];
+      const label = { vsc_pct: "VSC %", sun_h: "Sun h", annual_share: "Year's sun %", winter_share: "Winter's sun %" };
+      const scale = n => (n.endsWith("_share") ? 100 : 1);
+      const head = ["Window"];
+      for (const n of names) head.push(`${label[n] || n} now`, `${label[n] || n} with proposal`);
+      head.push("Result", "Why");
+      const rows = r.windows.map(w => {
+        const cells = [w.name];
+        for (const n of names) {
+          const f = w.figures.find(x => x.name === n);
+          cells.push(f && f.before !== null ? fixed(scale(n) * f.before, 1) : "—", f ? fixed(scale(n) * f.after, 1) : "—");
+        }
+        cells.push(w.passes === null ? "not tested" : w.passes ? "passes" : "fails", w.reason);
+        return cells;
+      });
+      const tested = r.windows.filter(w => w.passes !== null);
+      const passing = tested.filter(w => w.passes).length;
+      parent.append(table(`windows-${preset}`, `${r.rule.title} — ${passing} of ${tested.length} windows pass; the rule ${r.passes ? "passes" : "fails"}`, head, rows));
+      parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
+      for (const c of r.cautions) parent.append(el("p", { class: "caution", text: c }));
+    }
+  }
+
   /** Hours of direct sun at each window before and after, on the given season days, and sky view. */
-  function windowTable(m, site, parent, days) {
-    const rows = WINDOWS.map(w => {
+  function windowTable(m, site, info, parent, days) {
+    const rows = info.windows.map(w => {
       const cells = [w.name];
       for (const d of days) {
-        for (const massing of ["existing", "withProposed"]) {
-          cells.push(fixed(m.pointTimeline({ site, xM: w.xM, yM: w.yM, zM: w.zM, date: d.date, massing }).sunHours, 2));
-        }
+        const light = m.windowLight({ site, id: w.id, date: d.date });
+        cells.push(fixed(light.existing.sunH, 2), fixed(light.withProposed.sunH, 2));
       }
       cells.push(fixed(m.skyView({ site, xM: w.xM, yM: w.yM, zM: w.zM, massing: "existing" }), 3));
       cells.push(fixed(m.skyView({ site, xM: w.xM, yM: w.yM, zM: w.zM, massing: "withProposed" }), 3));
@@ -236,7 +254,7 @@
     const head = ["Window"];
     for (const d of days) head.push(`${d.date} now h`, `${d.date} with proposal h`);
     head.push("Sky view now", "Sky view with proposal");
-    parent.append(table("windows", "Direct sun at the neighbours' ground-floor windows (hours in the day) and their sky-view factor (cosine-weighted share of the sky seen)", head, rows));
+    parent.append(table("windows", "Direct sun on the neighbours' ground-floor windows (hours in the day with the sun in front of the glazing and unblocked) and the sky-view factor at each (cosine-weighted share of the sky seen)", head, rows));
   }
 
   window.sunlot.then(async m => {

@@ -46,6 +46,7 @@ function parses(kind, bytes) {
 const pages = process.argv.length > 2 ? process.argv.slice(2)
   : ["index", "sun", "shadows", "gardens", "windows", "envelope", "interactive"];
 let ruleRows = null;
+const windowVerdicts = {};
 for (const name of pages) {
   const page = await context.newPage();
   const errors = [];
@@ -80,6 +81,15 @@ for (const name of pages) {
     check((await page.textContent(".caution")).includes("licensed professional"), "index: the caution is shown beside the pass/fail table");
     ruleRows = await page.$$eval("#table-rule-check tbody tr", rows => rows.map(r => Array.from(r.cells).map(c => c.textContent)));
   }
+  if (name === "index" || name === "windows") {
+    for (const preset of ["bre-br209-window-sky", "bre-br209-window-sun"]) {
+      windowVerdicts[`${name} ${preset}`] = await page.$$eval(`#table-windows-${preset} tbody tr`,
+        rows => rows.map(r => { const c = Array.from(r.cells).map(x => x.textContent); return [c[0], c[c.length - 2]]; }));
+    }
+    const cautions = await page.$$eval("#windows .caution, #verdicts .caution", ps => ps.map(p => p.textContent).join(" "));
+    check(cautions.includes("licensed professional") && cautions.includes("from memory") && cautions.includes("probable sunlight"),
+      `${name}: the window verdicts show the caution, the numbers from memory and the clear-sky caveat`);
+  }
   if (name === "interactive") {
     const before = await page.evaluate(() => document.querySelector("#plan").state.site);
     await page.fill("#top", "24");
@@ -102,6 +112,19 @@ const want = cli.areas.map(a => [a.id, a.name, (100 * a.before_share).toFixed(1)
   a.ratio.toFixed(3), a.passes ? "passes" : "fails"]);
 check(JSON.stringify(ruleRows) === JSON.stringify(want),
   `the rule-check table equals \`sunlot check\` on demo-site/hollin-vale.site.json (${want.length} areas)`);
+}
+
+// The window verdicts against the CLI's window checks on the same site file and step.
+if (Object.keys(windowVerdicts).length) {
+  const exe = ["release", "debug"].map(p => path.join(root, "target", p, "sunlot")).find(existsSync);
+  const cli = JSON.parse(execFileSync(exe, ["check", path.join(root, "demo-site", "hollin-vale.site.json"), "--year", "2026",
+    "--rule", "bre-br209-window-sky,bre-br209-window-sun", "--step-min", "10", "--quiet", "--format", "json"]).toString());
+  for (const [key, rows] of Object.entries(windowVerdicts)) {
+    const report = cli.find(r => key.endsWith(r.rule.id));
+    const want = report.windows.map(w => [w.name, w.passes === null ? "not tested" : w.passes ? "passes" : "fails"]);
+    check(rows.length > 0 && JSON.stringify(rows) === JSON.stringify(want),
+      `${key}: the window verdicts equal \`sunlot check --rule ${report.rule.id}\` (${want.map(w => w[1]).join(", ")})`);
+  }
 }
 
 // Served over HTTP on localhost as `./dev demo` serves it (Python's http.server): the pages work there too.

@@ -441,3 +441,43 @@ fn window_light_through_the_facade_equals_the_core() {
     ))));
     assert!(m.contains("facing_deg must be 0 to 360"), "{m}");
 }
+
+/// `checkWindows` gives the core's window report (camel-case members) for a preset, refuses an area
+/// rule naming the right call, and `rulePresets` lists every preset of the core's table.
+#[wasm_bindgen_test]
+fn check_windows_through_the_facade_equals_the_core() {
+    let site = serde_json::to_string(sunlot::demo::DEMO_SITE_JSON).unwrap();
+    let out = sunlot::web::check_windows_js(js(&format!(
+        r#"{{"site": {site}, "preset": "bre-br209-window-sky", "year": 2026, "stepMin": 30, "azimuthStepDeg": 1}}"#
+    )))
+    .unwrap();
+    let m = sunlot::demo::demo();
+    let sunlot::rules::AnyRule::Window(rule) = sunlot::rules::preset("bre-br209-window-sky").unwrap() else {
+        panic!("a window preset")
+    };
+    let req = sunlot::rules::WindowCheckRequest {
+        model: &m,
+        rule: &rule,
+        year: 2026,
+        step_min: 30,
+        azimuth_step_deg: 1.0,
+        delta_t: sunlot::time::DeltaT::EspenakMeeus,
+    };
+    let core = sunlot::rules::check_windows(&req, |_| true).unwrap();
+    let windows = js_sys::Array::from(&get(&out, "windows"));
+    assert_eq!(windows.length() as usize, core.windows.len());
+    for (k, w) in core.windows.iter().enumerate() {
+        let js_w = windows.get(k as u32);
+        assert_eq!(get(&js_w, "id").as_string().unwrap(), w.id);
+        assert_eq!(get(&js_w, "passes").as_bool(), w.passes);
+        let f = js_sys::Array::from(&get(&js_w, "figures")).get(0);
+        assert_eq!(num(&f, "after"), w.figures[0].after);
+    }
+    assert_eq!(get(&out, "passes").as_bool(), Some(core.passes));
+    let area = sunlot::web::check_windows_js(js(&format!(
+        r#"{{"site": {site}, "preset": "bre-br209-amenity", "year": 2026}}"#
+    )));
+    assert!(error_message(area).contains("checkRule"));
+    let presets = js_sys::Array::from(&sunlot::web::rule_presets().unwrap());
+    assert_eq!(presets.length() as usize, sunlot::rules::PRESETS.len());
+}
