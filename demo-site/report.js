@@ -161,6 +161,9 @@
       const all = seasons(m, info, 2026);
       windowVerdicts(m, site, $("verdicts"), ["bre-br209-window-sky", "bre-br209-window-sun", "en17037-window-sun"]);
       windowTable(m, site, info, $("tables"), [all[0], all[3]]);
+      for (const [volume, show] of [["terrace-east", "hours"], ["terrace-east", "lost"], ["house-9", "lost"]]) {
+        facadeFigure(m, site, $("facades"), { volume, date: all[0].date, show });
+      }
       const drawn = info.windows.map(w => figure($("figures"), "sunlot-sky", { id: `sky-${w.id}`, date: all[0].date, time: "12:00",
         point: `${w.xM},${w.yM},${w.zM}`, projection: "rectangular" },
       `${w.name}: sun paths and the skyline with the proposal (rectangular projection)`, ["png", "svg"], site).drawn);
@@ -237,6 +240,41 @@
       parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
       for (const c of r.cautions) parent.append(el("p", { class: "caution", text: c }));
     }
+  }
+
+  /** A building's faces unfolded, hours of direct sun with the proposal, the site's windows marked;
+   *  exports PNG (the canvas), SVG and CSV (each cell) from the same computation's drawing code. */
+  function facadeFigure(m, site, parent, { volume, date, show }) {
+    const input = { site, volume, date, stepMin: 10, cellM: 0.5, show };
+    const stem = `facade-${volume}-${show}`;
+    const canvas = el("canvas", { id: stem, class: "facade" });
+    m.drawFacade(canvas, input);
+    const target = {
+      save: async (kind, name) => {
+        if (kind === "png") {
+          const blob = await new Promise(res => canvas.toBlob(res, "image/png"));
+          window.sunlotDownload(name, blob);
+        } else if (kind === "svg") {
+          window.sunlotDownload(name, new Blob([m.facadeSvg(input)], { type: "image/svg+xml" }));
+        } else {
+          const lost = show === "lost";
+          const rows = [`face,facing_deg,col,row,sun_hours,beam_kwh_m2${lost ? ",sun_hours_existing,lost_h" : ""}`];
+          const after = m.facadeMap({ ...input, show: undefined }).faces;
+          const before = lost ? m.facadeMap({ ...input, show: undefined, massing: "existing" }).faces : null;
+          after.forEach((f, n) => {
+            for (let k = 0; k < f.sunHours.length; k++) {
+              const cells = [f.number, f.facingDeg, k % f.cols, Math.floor(k / f.cols), f.sunHours[k].toFixed(4), f.beamKwhM2[k].toFixed(4)];
+              if (lost) cells.push(before[n].sunHours[k].toFixed(4), Math.max(0, before[n].sunHours[k] - f.sunHours[k]).toFixed(4));
+              rows.push(cells.join(","));
+            }
+          });
+          window.sunlotDownload(name, new Blob([rows.join("\n") + "\n"], { type: "text/csv" }));
+        }
+      },
+    };
+    const what = show === "lost" ? "hours of direct sun lost to the proposal" : "hours of direct sun with the proposal";
+    const caption = `The faces of ${volume} unfolded: ${what} on ${date}, the site's windows outlined (cells of 0.5 m, sampled 1 cm in front of each face)`;
+    parent.append(el("figure", {}, canvas, el("figcaption", {}, caption, exports(target, stem, ["png", "svg", "csv"]))));
   }
 
   /** Hours of direct sun at each window before and after, on the given season days, and sky view. */

@@ -56,8 +56,8 @@ for (const name of pages) {
   await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 120000 });
   check(await page.evaluate(() => document.body.dataset.ready) === "yes" && await page.isHidden("#error"),
     `${name}: loads from file:// and starts`);
-  const inks = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map")).map(w => {
-    const c = w.canvas, d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
+  const inks = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map, canvas.facade")).map(w => {
+    const c = w.canvas || w, d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
     let ink = 0;
     for (let i = 0; i < d.length; i += 4) if (d[i] < 200 || d[i + 1] < 200 || d[i + 2] < 200) ink++;
     return [w.id, ink];

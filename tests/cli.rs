@@ -627,3 +627,50 @@ fn window_by_id_from_the_site_file() {
     assert_eq!(o.status.code(), Some(2));
     assert!(stderr(&o).contains("no window \"nope\" (its windows: w-16-rear, w-12-rear"), "{}", stderr(&o));
 }
+
+#[test]
+fn facade_maps_every_face_with_its_windows_and_writes_the_elevations() {
+    let d = out_dir("facade");
+    let (png, svg, csv) = (d.join("f.png"), d.join("f.svg"), d.join("f.csv"));
+    let o = sunlot(
+        &[
+            "facade",
+            "--demo",
+            "--volume",
+            "terrace-east",
+            "--date",
+            "2026-03-21",
+            "--step-min",
+            "15",
+            "--quiet",
+            "--png",
+            png.to_str().unwrap(),
+            "--svg",
+            svg.to_str().unwrap(),
+            "--csv",
+            csv.to_str().unwrap(),
+            "--format",
+            "json",
+        ],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    let rows: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let rows = rows.as_array().unwrap();
+    let facing: Vec<f64> = rows.iter().map(|r| r["facing_deg"].as_f64().unwrap()).collect();
+    assert_eq!(facing, vec![180.0, 90.0, 0.0, 270.0]);
+    // The open south face gets the whole equinox day; the west face has the side window.
+    assert!(rows[0]["min_sun_h"].as_f64().unwrap() > 11.5);
+    assert_eq!(rows[3]["windows"].as_str().unwrap(), "w16-side");
+    assert_eq!(&std::fs::read(&png).unwrap()[1..4], b"PNG");
+    let text = std::fs::read_to_string(&svg).unwrap();
+    assert!(text.starts_with("<svg") && text.contains("w16-side") && text.contains("licensed professional"));
+    let cells = std::fs::read_to_string(&csv).unwrap();
+    assert!(cells.starts_with("face,facing_deg,col,row,x_m,y_m,z_m,sun_hours,beam_kwh_m2"));
+    let o = sunlot(&["facade", "--demo", "--volume", "shed", "--date", "2026-03-21"], None);
+    assert!(
+        !o.status.success() && stderr(&o).contains("shed") && stderr(&o).contains("terrace-east"),
+        "{}",
+        stderr(&o)
+    );
+}

@@ -481,3 +481,38 @@ fn check_windows_through_the_facade_equals_the_core() {
     let presets = js_sys::Array::from(&sunlot::web::rule_presets().unwrap());
     assert_eq!(presets.length() as usize, sunlot::rules::PRESETS.len());
 }
+
+/// `facadeMap` gives the core's facade map, `facadeSvg` the elevation figure with the windows, and a
+/// volume the site does not have is refused naming it.
+#[wasm_bindgen_test]
+fn facade_map_through_the_facade_equals_the_core() {
+    let site = serde_json::to_string(sunlot::demo::DEMO_SITE_JSON).unwrap();
+    let input = format!(
+        r#"{{"site": {site}, "volume": "terrace-east", "date": "2026-03-21", "stepMin": 30, "cellM": 2}}"#
+    );
+    let out = sunlot::web::facade_map_js(js(&input)).unwrap();
+    let m = sunlot::demo::demo();
+    let date = chrono::NaiveDate::from_ymd_opt(2026, 3, 21).unwrap();
+    let dt = sunlot::time::DeltaT::EspenakMeeus;
+    let steps = sunlot::exposure::SunSteps::of(&m, &sunlot::exposure::Period::day(date, 30), dt, |_| true).unwrap();
+    let req = sunlot::exposure::FacadeRequest {
+        model: &m,
+        volume_id: "terrace-east",
+        cell_m: 2.0,
+        massing: sunlot::exposure::Massing::WithProposed,
+        delta_t: dt,
+        atmosphere: sunlot::sky::BirdAtmosphere::default(),
+    };
+    let core = sunlot::exposure::facade_map(&req, &steps, |_| true).unwrap();
+    let faces = js_sys::Array::from(&get(&out, "faces"));
+    assert_eq!(faces.length() as usize, core.len());
+    for (k, f) in core.iter().enumerate() {
+        let hours = js_sys::Array::from(&get(&faces.get(k as u32), "sunHours"));
+        let got: Vec<f64> = hours.iter().map(|v| v.as_f64().unwrap()).collect();
+        assert_eq!(got, f.sun_hours);
+    }
+    let svg = sunlot::web::facade_svg(js(&input.replace("\"stepMin\"", "\"show\": \"lost\", \"stepMin\""))).unwrap();
+    assert!(svg.starts_with("<svg") && svg.contains("w16-side") && svg.contains("lost to the proposal"));
+    let bad = sunlot::web::facade_map_js(js(&input.replace(r#""volume": "terrace-east""#, r#""volume": "shed""#)));
+    assert!(error_message(bad).contains("shed"));
+}

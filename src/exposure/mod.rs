@@ -4,6 +4,7 @@
 
 mod compare;
 mod cover;
+mod facade;
 mod geojson_out;
 mod grid;
 mod insolation;
@@ -19,6 +20,7 @@ mod year_profile;
 
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
 pub use cover::MIN_COVER;
+pub use facade::{facade_map, faces_of, FacadeRequest, Face, FaceMap, FaceWindow, MAX_FACADE_CELLS, SAMPLE_OFFSET_M};
 pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};

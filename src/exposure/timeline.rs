@@ -73,6 +73,11 @@ impl<'a> PointSky<'a> {
         }
     }
 
+    /// Moves the test to `point`, keeping the massing.
+    pub(crate) fn set_point(&mut self, point: ViewPoint) {
+        self.point = point;
+    }
+
     /// The ray test at `t` for a sun counted as up.
     pub(crate) fn at(&mut self, t: DateTime<Utc>) -> Result<Exposure, ExposureError> {
         let sun = self.eph.sun_at(t, self.delta_t)?.observe(&self.model.location, &Atmosphere::default());

@@ -118,6 +118,9 @@ fn add_steps(
     Ok(())
 }
 
+/// Most steps (counting whole days) a [`SunSteps`] holds: a year at 2-minute steps, about 40 MB.
+pub const MAX_HELD_STEPS: f64 = 400_000.0;
+
 /// A period's sun-up steps, computed once and shared by many windows and massings (the sun's
 /// positions and the days' events are most of the cost of a window's year). Holds every step: for
 /// periods of up to a year or so.
@@ -139,12 +142,23 @@ impl SunSteps {
         mut progress: impl FnMut(f64) -> bool,
     ) -> Result<Self, ExposureError> {
         period.check(model, delta_t)?;
+        crate::limits::within("to, step_min", period.max_steps(), MAX_HELD_STEPS, "steps held at once")?;
         let mut days = Vec::with_capacity(period.days());
         for_each_day(model, period, delta_t, &mut progress, |date, steps| {
             days.push((date, steps));
             Ok(())
         })?;
         Ok(SunSteps { days, max_steps: period.max_steps() })
+    }
+
+    /// Every step, day by day.
+    pub fn all(&self) -> impl Iterator<Item = &Step> {
+        self.days.iter().flat_map(|(_, steps)| steps.iter())
+    }
+
+    /// An upper bound of the steps, known before they were computed (for budgets).
+    pub fn max_steps(&self) -> f64 {
+        self.max_steps
     }
 
     /// The hours of direct sun on a window (as [`window_sun_hours_above`]) over the steps of the

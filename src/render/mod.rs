@@ -4,6 +4,7 @@
 //! exposure map and the sun-path diagram. They are composed in pixel coordinates, y down.
 
 mod draw;
+mod elevation;
 mod heat_map;
 mod layer;
 mod pixmap;
@@ -16,6 +17,7 @@ mod sky_chart;
 mod svg;
 
 pub use draw::{footnote, heading, text_width_px, wrap, Anchor, Colour, Draw, Image, INK, PAPER};
+pub use elevation::{draw_elevation, elevation_size, Elevation, ELEVATION_PX};
 pub use heat_map::{draw_heat_map, HeatMap, FIGURE_PX};
 pub use layer::{draw_cells, draw_legend, MapLayer, LEGEND_PX};
 pub use pixmap::Pixmap;

@@ -14,7 +14,7 @@ use crate::shadow::ViewPoint;
 use crate::site::SiteModel;
 use crate::time::DeltaT;
 
-fn window(text: Option<&str>) -> Result<Window, JsError> {
+pub(crate) fn window(text: Option<&str>) -> Result<Window, JsError> {
     text.map_or(Ok(Window::Daylight), |t| Window::parse(t).map_err(|e| JsError::new(&format!("window: {e}"))))
 }
 

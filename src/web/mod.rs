@@ -9,6 +9,7 @@ use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 
 mod canvas;
+mod facade;
 mod layer;
 mod maps;
 mod rules;
@@ -16,6 +17,7 @@ mod studies;
 mod types;
 mod window;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
+pub use facade::{draw_facade, facade_map_js, facade_svg};
 pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
     compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js, sun_hours_map,

@@ -7,6 +7,7 @@ mod compare;
 mod day;
 mod demo;
 mod envelope;
+mod facade;
 mod hours;
 mod insolation;
 mod irradiance;
@@ -66,6 +67,8 @@ enum Command {
     Year(timeline::YearArgs),
     /// A window's vertical sky component and hours of direct sun, existing and with the proposal.
     Window(window::WindowArgs),
+    /// Hours of direct sun and clear-sky beam on every face of a building, drawn as elevations.
+    Facade(facade::FacadeArgs),
     /// The sun-path diagram of a site (PNG or SVG), with the skyline seen from a point.
     Sky(sky::SkyArgs),
     /// Convert a site between sunlot's site file and GeoJSON.
@@ -93,6 +96,7 @@ fn main() -> ExitCode {
         Command::Timeline(a) => timeline::run_timeline(a),
         Command::Year(a) => timeline::run_year(a),
         Command::Window(a) => window::run(a),
+        Command::Facade(a) => facade::run(a),
         Command::Sky(a) => sky::run(a),
         Command::Convert(a) => shadows::run_convert(a),
         Command::Point(a) => point::run(a),
