@@ -123,6 +123,25 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
     );
     out += &check.render(Format::Table);
     out.push('\n');
+    // The neighbours' windows against BR 209's window tests.
+    for id in ["bre-br209-window-sky", "bre-br209-window-sun"] {
+        let sunlot::rules::AnyRule::Window(rule) = sunlot::rules::preset(id).map_err(|e| e.to_string())? else {
+            continue;
+        };
+        let req = sunlot::rules::WindowCheckRequest {
+            model: &model,
+            rule: &rule,
+            year,
+            step_min: 10,
+            azimuth_step_deg: sunlot::daylight::DEFAULT_AZIMUTH_STEP_DEG,
+            delta_t: dt,
+        };
+        let report = sunlot::rules::check_windows(&req, |_| true).map_err(|e| e.to_string())?;
+        let mut table = crate::check::window_table(&report);
+        table.drop_columns(&["name"]);
+        out += &table.render(Format::Table);
+        out.push('\n');
+    }
     out += "Indicative results from the NREL SPA; the site is invented. Local planning codes and a licensed\nprofessional's assessment govern any planning decision.\n";
     Ok(out)
 }
