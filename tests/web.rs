@@ -487,9 +487,8 @@ fn check_windows_through_the_facade_equals_the_core() {
 #[wasm_bindgen_test]
 fn facade_map_through_the_facade_equals_the_core() {
     let site = serde_json::to_string(sunlot::demo::DEMO_SITE_JSON).unwrap();
-    let input = format!(
-        r#"{{"site": {site}, "volume": "terrace-east", "date": "2026-03-21", "stepMin": 30, "cellM": 2}}"#
-    );
+    let input =
+        format!(r#"{{"site": {site}, "volume": "terrace-east", "date": "2026-03-21", "stepMin": 30, "cellM": 2}}"#);
     let out = sunlot::web::facade_map_js(js(&input)).unwrap();
     let m = sunlot::demo::demo();
     let date = chrono::NaiveDate::from_ymd_opt(2026, 3, 21).unwrap();

@@ -72,6 +72,51 @@ pub fn sky_component_pct(
     massing: Massing,
     azimuth_step_deg: f64,
 ) -> Result<f64, ExposureError> {
+    // Both integrals carry the luminance's 1/3; the unobstructed horizontal one is 2π · 7/6 of them.
+    let bands = Bands { vertical: vertical_band, horizontal: horizontal_band, whole_horizontal: 2.0 * PI * 7.0 / 6.0 };
+    Ok(100.0 * seen_sky(model, point, plane, massing, azimuth_step_deg, &bands)?)
+}
+
+/// The view factor of the visible sky from `point` on `plane` past `massing` for a sky of uniform
+/// radiance (the isotropic diffuse model; Liu & Jordan 1963): the diffuse irradiance on the plane as a
+/// share (0–1) of the diffuse horizontal irradiance of the whole sky. An unobstructed vertical plane
+/// gets (1 + cos 90°)/2 = ½, a horizontal one 1. Integrated as [`sky_component_pct`], with
+/// ∫ cos²θ dθ = θ/2 + sin 2θ/4 and ∫ cos θ sin θ dθ = sin²θ/2.
+///
+/// # Errors
+/// As [`sky_component_pct`].
+pub fn isotropic_sky_view(
+    model: &SiteModel,
+    point: ViewPoint,
+    plane: SkyPlane,
+    massing: Massing,
+    azimuth_step_deg: f64,
+) -> Result<f64, ExposureError> {
+    let bands = Bands {
+        vertical: |t| t / 2.0 + (2.0 * t).sin() / 4.0,
+        horizontal: |t| t.sin().powi(2) / 2.0,
+        whole_horizontal: PI,
+    };
+    seen_sky(model, point, plane, massing, azimuth_step_deg, &bands)
+}
+
+/// A sky's altitude integrals: on a vertical plane, on the horizontal, and the whole sky's on the
+/// horizontal (over every azimuth).
+struct Bands {
+    vertical: fn(f64) -> f64,
+    horizontal: fn(f64) -> f64,
+    whole_horizontal: f64,
+}
+
+/// The visible sky's light on `plane` as a share of the whole sky's on the horizontal.
+fn seen_sky(
+    model: &SiteModel,
+    point: ViewPoint,
+    plane: SkyPlane,
+    massing: Massing,
+    azimuth_step_deg: f64,
+    bands: &Bands,
+) -> Result<f64, ExposureError> {
     if !(azimuth_step_deg.is_finite() && (0.01..=5.0).contains(&azimuth_step_deg)) {
         return Err(ExposureError::Period(format!(
             "azimuth_step_deg must be 0.01 to 5 degrees, got {azimuth_step_deg}"
@@ -101,7 +146,8 @@ pub fn sky_component_pct(
                     let mid = (az.to_radians() - facing + PI).rem_euclid(2.0 * PI) - PI;
                     let (lo, hi) = ((mid - half).max(-FRAC_PI_2), (mid + half).min(FRAC_PI_2));
                     (hi > lo).then(|| {
-                        let seen = vertical_band(FRAC_PI_2) - vertical_band(alt.to_radians().clamp(0.0, FRAC_PI_2));
+                        let g = bands.vertical;
+                        let seen = g(FRAC_PI_2) - g(alt.to_radians().clamp(0.0, FRAC_PI_2));
                         (hi.sin() - lo.sin()) * seen
                     })
                 })
@@ -111,12 +157,12 @@ pub fn sky_component_pct(
         SkyPlane::Horizontal => sky
             .iter()
             .map(|&(_, alt)| {
-                2.0 * half * (horizontal_band(FRAC_PI_2) - horizontal_band(alt.to_radians().clamp(0.0, FRAC_PI_2)))
+                let h = bands.horizontal;
+                2.0 * half * (h(FRAC_PI_2) - h(alt.to_radians().clamp(0.0, FRAC_PI_2)))
             })
             .sum(),
     };
-    // Both integrals carry the luminance's 1/3; the unobstructed horizontal one is 2π · 7/6 of them.
-    Ok(100.0 * total / (2.0 * PI * 7.0 / 6.0))
+    Ok(total / bands.whole_horizontal)
 }
 
 #[cfg(test)]
@@ -181,6 +227,42 @@ mod tests {
             // The skyline sampled per quarter degree, integrated exactly in altitude: within 0.01 %.
             assert!((v - closed(alpha)).abs() < 0.01, "α {:.2}°: {v} against {}", alpha.to_degrees(), closed(alpha));
         }
+    }
+
+    /// The isotropic sky: ½ on an unobstructed vertical plane and 1 on a horizontal one (Liu & Jordan's
+    /// (1 + cos β)/2 at tilts 90° and 0°; pvlib's `isotropic` gives 0.5 × DHI at 90°), and behind a long
+    /// wall of angular height α seen square-on from the ground beside it, ∫ cos φ [π/4 −
+    /// B(atan(tan α cos φ))] dφ / π with B(θ) = θ/2 + sin 2θ/4 (Simpson's rule, as above).
+    #[test]
+    fn the_isotropic_view_factor_is_a_half_on_a_wall_and_follows_the_closed_form() {
+        let m = site(vec![block("house", -5.0, 0.0, 5.0, 8.0, 7.0)]);
+        let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 1.5 };
+        let v =
+            isotropic_sky_view(&m, p, SkyPlane::Vertical { facing_deg: 180.0 }, Massing::WithProposed, 0.25).unwrap();
+        assert!((v - 0.5).abs() < 1e-6, "{v}");
+        let roof = ViewPoint { x_m: 0.0, y_m: 4.0, z_m: 7.5 };
+        let h = isotropic_sky_view(&m, roof, SkyPlane::Horizontal, Massing::WithProposed, 1.0).unwrap();
+        assert!((h - 1.0).abs() < 1e-9, "{h}");
+        let b = |t: f64| t / 2.0 + (2.0 * t).sin() / 4.0;
+        let closed = |alpha: f64| {
+            let f = |phi: f64| phi.cos() * (b(FRAC_PI_2) - b((alpha.tan() * phi.cos()).atan()));
+            let n = 20_000;
+            let h = PI / n as f64;
+            let mut s = f(-FRAC_PI_2) + f(FRAC_PI_2);
+            for k in 1..n {
+                s += f(-FRAC_PI_2 + k as f64 * h) * if k % 2 == 1 { 4.0 } else { 2.0 };
+            }
+            s * h / 3.0 / PI
+        };
+        let (distance, height) = (12.0, 9.0);
+        let m = site(vec![
+            block("house", -5.0, 0.0, 5.0, 8.0, 7.0),
+            block("wall", -20_000.0, -distance - 10.0, 20_000.0, -distance, height),
+        ]);
+        let alpha = ((height - 1.5) / distance).atan();
+        let v =
+            isotropic_sky_view(&m, p, SkyPlane::Vertical { facing_deg: 180.0 }, Massing::WithProposed, 0.25).unwrap();
+        assert!((v - closed(alpha)).abs() < 1e-4, "{v} against {}", closed(alpha));
     }
 
     #[test]

@@ -1,5 +1,5 @@
-//! Facade maps: hours of direct sun and clear-sky beam insolation on a grid over each face of a
-//! building, for elevations (the faces unfolded side by side).
+//! Facade maps: hours of direct sun and clear-sky insolation (beam and diffuse) on a grid over each
+//! face of a building, for elevations (the faces unfolded side by side).
 //!
 //! # Method
 //! Each edge of a volume's footprint (outer ring) is a vertical face from the volume's base to its
@@ -10,7 +10,10 @@
 //! steps of [`SunSteps`]); its beam insolation adds DNI · cos i over those steps, i the angle of
 //! incidence on the vertical face (cos i = cos α · cos(A − β); Duffie & Beckman, *Solar Engineering of
 //! Thermal Processes*, eq. 1.6.3 with tilt 90°) and DNI from the Bird clear-sky model (Bird & Hulstrom
-//! 1981). Diffuse light on the face is not counted.
+//! 1981). Its diffuse insolation is the Bird diffuse horizontal irradiance summed over every sun-up
+//! step, times the cell's view factor of the visible sky for an isotropic sky
+//! ([`crate::daylight::isotropic_sky_view`], ½ for an open face; Liu & Jordan 1963), skyline sampled
+//! every [`FACADE_SKY_STEP_DEG`]. Light reflected from the ground and from buildings is not counted.
 
 use geo::Coord;
 
@@ -24,6 +27,9 @@ use crate::shadow::{Exposure, ViewPoint};
 use crate::site::{SiteModel, Status};
 use crate::sky::BirdAtmosphere;
 use crate::time::DeltaT;
+
+/// Azimuth bins of the cells' sky view, degrees.
+pub const FACADE_SKY_STEP_DEG: f64 = 1.0;
 
 /// How far in front of the face a cell is sampled, metres.
 pub const SAMPLE_OFFSET_M: f64 = 0.01;
@@ -89,6 +95,8 @@ pub struct FaceMap {
     pub sun_hours: Vec<f64>,
     /// Clear-sky beam insolation on the face per cell, kWh/m².
     pub beam_kwh_m2: Vec<f64>,
+    /// Clear-sky diffuse insolation from the visible sky per cell (isotropic sky), kWh/m².
+    pub diffuse_kwh_m2: Vec<f64>,
     /// The site's windows on this face.
     pub windows: Vec<FaceWindow>,
 }
@@ -189,18 +197,21 @@ pub fn facade_map(
             let cols = (face.length_m() / req.cell_m).ceil().max(1.0) as usize;
             let rows = ((face.top_m - face.base_m) / req.cell_m).ceil().max(1.0) as usize;
             let windows = windows_on(model, &face);
-            FaceMap { face, cols, rows, sun_hours: vec![], beam_kwh_m2: vec![], windows }
+            FaceMap { face, cols, rows, sun_hours: vec![], beam_kwh_m2: vec![], diffuse_kwh_m2: vec![], windows }
         })
         .collect();
     let cells: usize = maps.iter().map(|m| m.cols * m.rows).sum();
     crate::limits::within("cell_m", cells as f64, MAX_FACADE_CELLS as f64, "facade cells")?;
     let casters = model.volumes.len() + model.walls.len();
+    let per_cell = steps.max_steps() + 360.0 / FACADE_SKY_STEP_DEG;
     crate::limits::ray_tests(
         "cell_m, step_min",
-        steps.max_steps() * cells as f64,
+        per_cell * cells as f64,
         casters,
         "use larger cells, a longer step or a shorter period",
     )?;
+    // The whole sky's diffuse on the horizontal over the period, Wh/m².
+    let dhi_wh: f64 = steps.all().map(|s| step_sky(s, &req.atmosphere).dhi_w_m2 * s.dt_s / 3600.0).sum();
     // The mapped volume stands whatever the massing (a proposed building's own faces, before: nothing
     // to map, so it counts as built).
     let mut massing = req.massing;
@@ -212,6 +223,8 @@ pub fn facade_map(
         let (n, facing) = (m.cols * m.rows, m.face.facing_deg);
         m.sun_hours = vec![0.0; n];
         m.beam_kwh_m2 = vec![0.0; n];
+        m.diffuse_kwh_m2 = vec![0.0; n];
+        let plane = crate::daylight::SkyPlane::Vertical { facing_deg: facing };
         for row in 0..m.rows {
             for col in 0..m.cols {
                 let p = m.sample(col, row);
@@ -238,6 +251,8 @@ pub fn facade_map(
                 }
                 m.sun_hours[row * m.cols + col] = hours;
                 m.beam_kwh_m2[row * m.cols + col] = wh / 1000.0;
+                let view = crate::daylight::isotropic_sky_view(model, p, plane, massing, FACADE_SKY_STEP_DEG)?;
+                m.diffuse_kwh_m2[row * m.cols + col] = view * dhi_wh / 1000.0;
                 done += 1;
             }
             if !progress(done as f64 / cells as f64) {
@@ -343,6 +358,13 @@ mod tests {
         .unwrap();
         assert!(maps[0].sun_hours.iter().all(|h| (h - want.sun_hours).abs() < 1e-9), "{:?}", maps[0].sun_hours);
         assert!(maps[0].beam_kwh_m2.iter().all(|&k| k > 1.0 && k < 8.0), "{:?}", maps[0].beam_kwh_m2[0]);
+        // An open face sees half the isotropic sky: half the day's diffuse horizontal.
+        let dhi: f64 = steps.all().map(|s| step_sky(s, &BirdAtmosphere::default()).dhi_w_m2 * s.dt_s / 3.6e6).sum();
+        assert!(
+            maps[0].diffuse_kwh_m2.iter().all(|&k| (k - dhi / 2.0).abs() < 1e-3 * dhi),
+            "{} vs {dhi}",
+            maps[0].diffuse_kwh_m2[0]
+        );
         let shaded = flat_site(
             vec![block("house", 0.0, 0.0, 10.0, 6.0, 7.5), block("wall", -50.0, -14.0, 60.0, -10.0, 12.0)],
             52.0,

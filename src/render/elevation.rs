@@ -140,6 +140,7 @@ mod tests {
             rows: 3,
             sun_hours: (0..12).map(f64::from).collect(),
             beam_kwh_m2: vec![0.0; 12],
+            diffuse_kwh_m2: vec![0.0; 12],
             windows: vec![FaceWindow { id: "w-1".into(), along_m: 2.0, z_m: 1.5, width_m: 1.0, height_m: 1.2 }],
         }
     }

@@ -25,7 +25,8 @@ struct FacadeIn {
     #[serde(default = "one")]
     cell_m: f64,
     massing: Option<String>,
-    /// `hours` (default) or `beam`, for the figures.
+    /// `hours` (default), `beam`, `insolation` (beam and diffuse) or `lost` (hours lost to the
+    /// proposal), for the figures.
     show: Option<String>,
 }
 
@@ -99,7 +100,9 @@ fn shown(
             "Hours of direct sun lost to the proposal",
         ),
         (Some(other), _) => {
-            return Err(JsError::new(&format!("show: {other:?} is not \"hours\", \"beam\" or \"lost\"")))
+            return Err(JsError::new(&format!(
+                "show: {other:?} is not \"hours\", \"beam\", \"insolation\" or \"lost\""
+            )))
         }
     })
 }
@@ -122,7 +125,7 @@ fn figure(i: &FacadeIn, surface: &mut dyn crate::render::Draw) -> Result<(), JsE
 }
 
 /// The faces of a building with their cells: `{faces: [{number, facingDeg, compass, startM: [x, y],
-/// endM: [x, y], baseM, topM, cols, rows, sunHours, beamKwhM2, windows: [{id, alongM, zM, widthM,
+/// endM: [x, y], baseM, topM, cols, rows, sunHours, beamKwhM2, diffuseKwhM2, windows: [{id, alongM, zM, widthM,
 /// heightM}]}], caution}`; cells row-major from the bottom row, columns from the face's left end seen
 /// from outside.
 #[wasm_bindgen(js_name = facadeMap, unchecked_return_type = "FacadeMap")]
@@ -144,7 +147,8 @@ pub fn facade_map_js(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input
                 "number": f.face.number, "facingDeg": f.face.facing_deg, "compass": f.face.compass(),
                 "startM": [f.face.start.x, f.face.start.y], "endM": [f.face.end.x, f.face.end.y],
                 "baseM": f.face.base_m, "topM": f.face.top_m, "cols": f.cols, "rows": f.rows,
-                "sunHours": f.sun_hours, "beamKwhM2": f.beam_kwh_m2, "windows": windows,
+                "sunHours": f.sun_hours, "beamKwhM2": f.beam_kwh_m2, "diffuseKwhM2": f.diffuse_kwh_m2,
+                "windows": windows,
             })
         })
         .collect();
@@ -182,7 +186,15 @@ fn size_of(i: &FacadeIn) -> Result<(u32, u32), JsError> {
     let faces: Vec<FaceMap> = crate::exposure::faces_of(&model, &i.volume)
         .map_err(err)?
         .into_iter()
-        .map(|face| FaceMap { face, cols: 1, rows: 1, sun_hours: vec![0.0], beam_kwh_m2: vec![0.0], windows: vec![] })
+        .map(|face| FaceMap {
+            face,
+            cols: 1,
+            rows: 1,
+            sun_hours: vec![0.0],
+            beam_kwh_m2: vec![0.0],
+            diffuse_kwh_m2: vec![0.0],
+            windows: vec![],
+        })
         .collect();
     Ok(elevation_size(&faces))
 }

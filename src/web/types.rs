@@ -57,9 +57,9 @@ export interface WindowReport { rule: { id: string; title: string; source: strin
   windows: { id: string; name: string; status: string; facingDeg: number;
     figures: { name: string; before: number | null; after: number }[]; passes: boolean | null; reason: string }[]; }
 export interface FacadeInput { site: SiteText; volume: string; date: string; to?: string; window?: string; stepMin?: number;
-  cellM?: number; massing?: Massing; show?: "hours" | "beam" | "lost"; }
+  cellM?: number; massing?: Massing; show?: "hours" | "beam" | "insolation" | "lost"; }
 export interface FacadeMap { caution: string; faces: { number: number; facingDeg: number; compass: string; startM: [number, number];
-    endM: [number, number]; baseM: number; topM: number; cols: number; rows: number; sunHours: number[]; beamKwhM2: number[];
+    endM: [number, number]; baseM: number; topM: number; cols: number; rows: number; sunHours: number[]; beamKwhM2: number[]; diffuseKwhM2: number[];
     windows: { id: string; alongM: number; zM: number; widthM: number; heightM: number }[] }[]; }
 export interface RulePreset { id: string; kind: "area" | "window"; summary: string; rule: Record<string, unknown>; }
 export interface EnvelopeInput { site: SiteText; lot: string; protect?: string[]; date: string; to?: string; window?: string;

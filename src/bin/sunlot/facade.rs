@@ -21,6 +21,8 @@ pub enum Show {
     Hours,
     /// Clear-sky beam insolation, kWh/m².
     Beam,
+    /// Clear-sky insolation, beam and sky diffuse, kWh/m².
+    Insolation,
     /// Hours of direct sun lost to the proposal (existing massing alone minus with the proposal).
     Lost,
 }
@@ -75,7 +77,8 @@ fn stats(values: &[f64]) -> (f64, f64, f64) {
 
 fn cells_csv(faces: &[FaceMap]) -> Result<Vec<u8>, String> {
     let mut w = csv::Writer::from_writer(Vec::new());
-    let header = ["face", "facing_deg", "col", "row", "x_m", "y_m", "z_m", "sun_hours", "beam_kwh_m2"];
+    let header =
+        ["face", "facing_deg", "col", "row", "x_m", "y_m", "z_m", "sun_hours", "beam_kwh_m2", "diffuse_kwh_m2"];
     w.write_record(header).map_err(|e| e.to_string())?;
     for f in faces {
         for row in 0..f.rows {
@@ -92,6 +95,7 @@ fn cells_csv(faces: &[FaceMap]) -> Result<Vec<u8>, String> {
                     format!("{:.3}", p.z_m),
                     format!("{:.4}", f.sun_hours[i]),
                     format!("{:.4}", f.beam_kwh_m2[i]),
+                    format!("{:.4}", f.diffuse_kwh_m2[i]),
                 ];
                 w.write_record(&rec).map_err(|e| e.to_string())?;
             }
@@ -129,6 +133,8 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
     };
     drop(bar);
     let which = if a.existing_only { "existing massing" } else { "existing and proposed massing" };
+    let total: Vec<Vec<f64>> =
+        faces.iter().map(|f| f.beam_kwh_m2.iter().zip(&f.diffuse_kwh_m2).map(|(b, d)| b + d).collect()).collect();
     let lost_h: Vec<Vec<f64>> = before
         .iter()
         .flat_map(|b| {
@@ -150,6 +156,7 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
             "mean_sun_h",
             "max_sun_h",
             "mean_beam_kwh_m2",
+            "mean_diffuse_kwh_m2",
             "windows",
         ],
     );
@@ -159,6 +166,7 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
     for (k, f) in faces.iter().enumerate() {
         let (lo, mean, hi) = stats(&f.sun_hours);
         let (_, beam, _) = stats(&f.beam_kwh_m2);
+        let (_, diffuse, _) = stats(&f.diffuse_kwh_m2);
         let windows: Vec<&str> = f.windows.iter().map(|w| w.id.as_str()).collect();
         t.rows.push(vec![
             Cell::num(f.face.number as f64, 0),
@@ -171,6 +179,7 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
             Cell::num(mean, 2),
             Cell::num(hi, 2),
             Cell::num(beam, 2),
+            Cell::num(diffuse, 2),
             Cell::text(windows.join(" ")),
         ]);
         if let Some(l) = lost_h.get(k) {
@@ -181,7 +190,8 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
     t.notes.push(format!(
         "Cells at most {} m a side, fitted to each face, sampled at their centres {} m in front of it; the sun counts \
          when it is in front of the face and the ray to it is clear. Beam: Bird clear sky (AOD500 {}), DNI · cos i on \
-         the face; diffuse light is not counted.",
+         the face; sky diffuse: the diffuse horizontal times each cell's view of the isotropic sky (½ for an open face); \
+         light reflected from the ground and buildings is not counted.",
         a.cell_m,
         sunlot::exposure::SAMPLE_OFFSET_M,
         a.sky.aod_500
@@ -189,6 +199,9 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
     let (values, unit, label): (Vec<&[f64]>, &str, &str) = match a.show {
         Show::Hours => (faces.iter().map(|f| f.sun_hours.as_slice()).collect(), "h", "Hours of direct sun"),
         Show::Beam => (faces.iter().map(|f| f.beam_kwh_m2.as_slice()).collect(), "kWh/m²", "Clear-sky beam insolation"),
+        Show::Insolation => {
+            (total.iter().map(Vec::as_slice).collect(), "kWh/m²", "Clear-sky insolation (beam and sky diffuse)")
+        }
         Show::Lost => (lost_h.iter().map(Vec::as_slice).collect(), "h", "Hours of direct sun lost to the proposal"),
     };
     let top = values.iter().flat_map(|v| v.iter().copied()).fold(0.0_f64, f64::max);
