@@ -175,6 +175,17 @@ mod tests {
         flat_site(volumes, 51.5)
     }
 
+    /// ∫ f(φ) dφ over −90°…90° by Simpson's rule on 20,000 intervals.
+    fn simpson_over_front(f: impl Fn(f64) -> f64) -> f64 {
+        let n = 20_000;
+        let h = PI / n as f64;
+        let mut s = f(-FRAC_PI_2) + f(FRAC_PI_2);
+        for k in 1..n {
+            s += f(-FRAC_PI_2 + k as f64 * h) * if k % 2 == 1 { 4.0 } else { 2.0 };
+        }
+        s * h / 3.0
+    }
+
     /// The closed form of an unobstructed vertical plane under the CIE overcast sky, derived here from
     /// L(θ) = Lz (1 + 2 sin θ)/3: E_v = (2/3) Lz (π/4 + 2/3), E_h = (7π/9) Lz, ratio 39.62 %. Daylight
     /// guidance quotes "almost 40 %" for an unobstructed window (BRE BR 209; from memory).
@@ -205,13 +216,7 @@ mod tests {
     fn a_long_obstruction_matches_the_closed_form() {
         let closed = |alpha: f64| {
             let f = |phi: f64| phi.cos() * (vertical_band(FRAC_PI_2) - vertical_band((alpha.tan() * phi.cos()).atan()));
-            let n = 20_000;
-            let h = PI / n as f64;
-            let mut s = f(-FRAC_PI_2) + f(FRAC_PI_2);
-            for k in 1..n {
-                s += f(-FRAC_PI_2 + k as f64 * h) * if k % 2 == 1 { 4.0 } else { 2.0 };
-            }
-            100.0 * 3.0 / (7.0 * PI) * s * h / 3.0
+            100.0 * 3.0 / (7.0 * PI) * simpson_over_front(f)
         };
         assert!((closed(25f64.to_radians()) - 27.31).abs() < 0.01);
         for (distance, height) in [(20.0, 1.5 + 20.0 * 25f64.to_radians().tan()), (12.0, 9.0), (30.0, 40.0)] {
@@ -246,13 +251,7 @@ mod tests {
         let b = |t: f64| t / 2.0 + (2.0 * t).sin() / 4.0;
         let closed = |alpha: f64| {
             let f = |phi: f64| phi.cos() * (b(FRAC_PI_2) - b((alpha.tan() * phi.cos()).atan()));
-            let n = 20_000;
-            let h = PI / n as f64;
-            let mut s = f(-FRAC_PI_2) + f(FRAC_PI_2);
-            for k in 1..n {
-                s += f(-FRAC_PI_2 + k as f64 * h) * if k % 2 == 1 { 4.0 } else { 2.0 };
-            }
-            s * h / 3.0 / PI
+            simpson_over_front(f) / PI
         };
         let (distance, height) = (12.0, 9.0);
         let m = site(vec![
