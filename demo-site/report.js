@@ -76,12 +76,14 @@
   const PAGES = {
     // The one-page summary for a planning file.
     async summary(m, site, info) {
-      const [march, , , december] = seasons(m, info, 2026);
+      // The date of the garden rule's test (BR 209: 21 March), so the figures and the table agree.
+      const [march] = seasons(m, info, 2026);
+      const date = "2026-03-21";
       const figs = $("figures");
-      const plan = figure(figs, "sunlot-plan", { id: "summary-plan", date: march.date, time: "15:00" },
-        `Shadows at 15:00 on the March equinox (${march.date})`, ["png", "svg", "geojson"], site);
-      const lost = figure(figs, "sunlot-map", { id: "summary-lost", date: march.date, layer: "lost" },
-        `Hours of direct sun lost to the proposal on ${march.date}`, ["png", "svg", "csv", "geojson"], site);
+      const plan = figure(figs, "sunlot-plan", { id: "summary-plan", date, time: "15:00" },
+        `Shadows at 15:00 on ${date}, the date of the garden test (the March equinox is ${march.date})`, ["png", "svg", "geojson"], site);
+      const lost = figure(figs, "sunlot-map", { id: "summary-lost", date, layer: "lost" },
+        `Hours of direct sun lost to the proposal on ${date}`, ["png", "svg", "csv", "geojson"], site);
       ruleTable(m, site, $("rule"));
       windowVerdicts(m, site, $("windows"), ["bre-br209-window-sky", "bre-br209-window-sun"]);
       await Promise.all([plan.drawn, lost.drawn]);

@@ -674,3 +674,19 @@ fn facade_maps_every_face_with_its_windows_and_writes_the_elevations() {
         stderr(&o)
     );
 }
+
+#[test]
+fn negative_numbers_are_values_and_impossible_dates_are_named() {
+    let o = sunlot(
+        &["position", "--lat", "52", "--lon", "0", "--time", "2026-06-21T12:00:00Z", "--pressure-hpa", "-5"],
+        None,
+    );
+    assert!(!o.status.success() && stderr(&o).contains("--pressure-hpa must be between"), "{}", stderr(&o));
+    let o = sunlot(
+        &["day", "--lat", "-33.87", "--lon", "151.21", "--zone", "Australia/Sydney", "--date", "2026-06-21"],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    let o = sunlot(&["day", "--lat", "52", "--lon", "0", "--date", "2026-02-30"], None);
+    assert!(stderr(&o).contains("does not exist"), "{}", stderr(&o));
+}

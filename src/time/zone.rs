@@ -22,6 +22,9 @@ pub enum TimeError {
     /// Not a date.
     #[error("date {text:?} is not of the form YYYY-MM-DD")]
     NotDate { text: String },
+    /// Of the form YYYY-MM-DD, but no such day.
+    #[error("date {text:?} does not exist (no such day in that month)")]
+    NoSuchDay { text: String },
     /// Neither an IANA zone name nor a UTC offset.
     #[error("zone {text:?} is neither an IANA time zone name (e.g. Europe/London) nor an offset like +01:00")]
     UnknownZone { text: String },
@@ -208,7 +211,19 @@ pub(crate) fn parse_wall(text: &str) -> Result<NaiveDateTime, TimeError> {
 
 /// A date `YYYY-MM-DD`.
 pub(crate) fn parse_date(text: &str) -> Result<NaiveDate, TimeError> {
-    NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| TimeError::NotDate { text: text.to_string() })
+    NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| {
+        // The right form, a day the calendar does not have (2026-02-30, 2026-13-01)?
+        let parts: Vec<&str> = text.trim().trim_start_matches('-').split('-').collect();
+        let shaped = parts.len() == 3
+            && parts.iter().all(|p| !p.is_empty() && p.chars().all(|c| c.is_ascii_digit()))
+            && parts[1].len() <= 2
+            && parts[2].len() <= 2;
+        if shaped {
+            TimeError::NoSuchDay { text: text.to_string() }
+        } else {
+            TimeError::NotDate { text: text.to_string() }
+        }
+    })
 }
 
 impl Zone {
@@ -229,6 +244,14 @@ mod tests {
 
     fn london() -> Zone {
         "Europe/London".parse().unwrap()
+    }
+
+    #[test]
+    fn a_day_the_calendar_lacks_is_named_as_such() {
+        assert!(matches!(parse_date("2026-02-30"), Err(TimeError::NoSuchDay { .. })));
+        assert!(matches!(parse_date("2026-13-01"), Err(TimeError::NoSuchDay { .. })));
+        assert!(matches!(parse_date("21/03/2026"), Err(TimeError::NotDate { .. })));
+        assert!(matches!(parse_date("2026-3-1"), Ok(_)));
     }
 
     #[test]

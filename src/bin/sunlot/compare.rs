@@ -33,7 +33,8 @@ pub struct CompareArgs {
     pub period: PeriodArgs,
     #[command(flatten)]
     pub grid: GridArgs,
-    /// The hours of sun a cell must get to count as sunlit enough.
+    /// The hours of sun a cell must get a day (on average over a range of dates) to count as sunlit
+    /// enough.
     #[arg(long, default_value_t = 2.0)]
     pub min_hours: f64,
     /// The map drawn in --png / --svg.
@@ -64,17 +65,18 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
     let mut bar = Bar::new("before and after", a.files.quiet);
     let ba = before_after(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
     drop(bar);
-    let h = a.min_hours;
+    let (h, days) = (a.min_hours, req.period.days());
+    let per = crate::hours::per_day(days);
     let mut t = Table::new(
         format!("Sun before and after the proposal, {}", a.period.describe()),
         vec![
             "area",
             "name",
             "area_m2",
-            &format!("before_{h}h_m2"),
-            &format!("after_{h}h_m2"),
-            &format!("before_{h}h_pct"),
-            &format!("after_{h}h_pct"),
+            &format!("before_{h}h{per}_m2"),
+            &format!("after_{h}h{per}_m2"),
+            &format!("before_{h}h{per}_pct"),
+            &format!("after_{h}h{per}_pct"),
             "after_over_before",
             "mean_before_h",
             "mean_after_h",
@@ -86,7 +88,7 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
         let cover = grid.cover_of(&area.polygon);
         let stats = |v: &[Option<f64>], th| map_stats(&grid, v, Some(&cover), th);
         let (Some(b), Some(af), Some(lost)) =
-            (stats(&ba.before.hours, h), stats(&ba.after.hours, h), stats(&ba.lost_h, 0.0))
+            (stats(&ba.before.hours, h * days as f64), stats(&ba.after.hours, h * days as f64), stats(&ba.lost_h, 0.0))
         else {
             continue;
         };

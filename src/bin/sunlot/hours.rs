@@ -22,7 +22,8 @@ pub struct HoursArgs {
     /// Map the existing massing alone (before the proposal) instead of existing and proposed.
     #[arg(long)]
     pub existing_only: bool,
-    /// The hours of sun a cell must get to count in the "share with at least" column.
+    /// The hours of sun a cell must get a day (on average over a range of dates) to count in the
+    /// "share with at least" columns.
     #[arg(long, default_value_t = 2.0)]
     pub min_hours: f64,
     #[command(flatten)]
@@ -44,6 +45,15 @@ pub fn check_min_hours(h: f64) -> Result<(), String> {
         Ok(())
     } else {
         Err(format!("--min-hours must be 0 or more, got {h}"))
+    }
+}
+
+/// The columns' "per day" mark over a range of dates.
+pub fn per_day(days: usize) -> &'static str {
+    if days > 1 {
+        "_per_day"
+    } else {
+        ""
     }
 }
 
@@ -90,7 +100,8 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
     let map = sun_hours(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
     drop(bar);
     let which = if a.existing_only { "existing massing" } else { "existing and proposed massing" };
-    let h = a.min_hours;
+    let (h, days) = (a.min_hours, req.period.days());
+    let per = per_day(days);
     let mut t = Table::new(
         format!("Hours of direct sun, {} ({which})", a.period.describe()),
         vec![
@@ -100,13 +111,19 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
             "min_h",
             "mean_h",
             "max_h",
-            &format!("at_least_{h}h_m2"),
-            &format!("at_least_{h}h_pct"),
+            &format!("at_least_{h}h{per}_m2"),
+            &format!("at_least_{h}h{per}_pct"),
         ],
     );
-    t.rows = area_rows(model, &grid, &map.hours, &a.grid.area, h);
+    t.rows = area_rows(model, &grid, &map.hours, &a.grid.area, h * days as f64);
+    if days > 1 {
+        t.notes.push(format!(
+            "Over {days} days: a cell counts in the at_least columns with at least {h} h a day on average ({} h in all).",
+            h * days as f64
+        ));
+    }
     t.notes.push(format!(
-        "An open site gets {:.2} h. {} m cells sampled at their centres, plane {} m above the ground; a step counts when its midpoint is between sunrise and sunset.",
+        "An open site gets {:.2} h. {} m cells sampled at their centres, each weighted by its exact overlap with the area; plane {} m above the ground; a step counts when its midpoint is between sunrise and sunset.",
         map.open_hours, a.grid.cell_m, a.grid.plane_m
     ));
     let picture = Picture {

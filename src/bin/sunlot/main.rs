@@ -25,7 +25,7 @@ mod window;
 use std::io::Write;
 use std::process::ExitCode;
 
-use clap::{Parser, Subcommand};
+use clap::{CommandFactory, FromArgMatches, Parser, Subcommand};
 
 /// Sun-exposure analysis for building lots. Angles in degrees, azimuth clockwise from true north;
 /// times as RFC 3339 or local time with an IANA zone. Results are indicative.
@@ -79,8 +79,20 @@ enum Command {
     Demo(demo::DemoArgs),
 }
 
+/// The arguments, with negative numbers read as values in every command (`--pressure-hpa -5` is then
+/// refused by its range, not taken for a flag).
+fn parse() -> Cli {
+    let mut cmd = Cli::command();
+    let names: Vec<String> = cmd.get_subcommands().map(|s| s.get_name().to_string()).collect();
+    for name in names {
+        cmd = cmd.mut_subcommand(name, |s| s.allow_negative_numbers(true));
+    }
+    let matches = cmd.get_matches();
+    Cli::from_arg_matches(&matches).unwrap_or_else(|e| e.exit())
+}
+
 fn main() -> ExitCode {
-    let cli = Cli::parse();
+    let cli = parse();
     let result = match &cli.command {
         Command::Position(a) => position::run(a),
         Command::Day(a) => day::run(a),

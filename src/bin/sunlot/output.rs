@@ -19,7 +19,8 @@ pub enum Format {
 /// A value in a table cell.
 #[derive(Debug, Clone)]
 pub enum Cell {
-    /// A number, shown with `decimals` places in text tables and in full in CSV and JSON.
+    /// A number, shown with `decimals` places in text tables, with `decimals` + 8 places (trailing
+    /// zeros dropped) in CSV, and in full in JSON.
     Num { value: f64, decimals: usize },
     /// A whole number.
     Int(i64),
@@ -52,7 +53,7 @@ impl Cell {
 
     fn csv(&self) -> String {
         match self {
-            Cell::Num { value, .. } => format!("{value}"),
+            Cell::Num { value, decimals } => csv_number(*value, decimals + 8),
             Cell::Int(i) => i.to_string(),
             Cell::Bool(b) => b.to_string(),
             Cell::Text(s) => s.clone(),
@@ -68,6 +69,21 @@ impl Cell {
             Cell::Text(s) => Value::String(s.clone()),
             Cell::Empty => Value::Null,
         }
+    }
+}
+
+/// `value` with `places` decimals, trailing zeros (and a bare point) dropped, so float noise such as
+/// 0.19999999999999996 is written 0.2 while every stated digit is kept.
+fn csv_number(value: f64, places: usize) -> String {
+    if !value.is_finite() {
+        return value.to_string();
+    }
+    let text = format!("{value:.places$}");
+    let text = if text.contains('.') { text.trim_end_matches('0').trim_end_matches('.').to_string() } else { text };
+    if text == "-0" {
+        "0".into()
+    } else {
+        text
     }
 }
 
@@ -164,5 +180,19 @@ impl Table {
             .collect();
         let v = if self.single && objects.len() == 1 { objects[0].clone() } else { Value::Array(objects) };
         serde_json::to_string_pretty(&v).unwrap_or_default() + "\n"
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::csv_number;
+
+    #[test]
+    fn csv_numbers_drop_float_noise_and_keep_the_stated_digits() {
+        assert_eq!(csv_number(0.19999999999999996, 10), "0.2");
+        assert_eq!(csv_number(12.0, 10), "12");
+        assert_eq!(csv_number(-0.000000000001, 10), "0");
+        assert_eq!(csv_number(50.111622024036, 12), "50.111622024036");
+        assert_eq!(csv_number(f64::NAN, 3), "NaN");
     }
 }
