@@ -2,7 +2,7 @@
 //! a shadow onto protected areas during a protected period.
 //!
 //! # Method
-//! Knowles, R. L. (1981), *Sun Rhythm Form*, MIT Press: the envelope is the largest volume on a lot
+//! Knowles, R. L. (1981), *Sun Rhythm Form*, MIT Press (reference from memory): the envelope is the largest volume on a lot
 //! whose shadows stay off the protected land during the protected hours. Here the lot is cut into
 //! square cells and each cell is a square prism standing on the ground. At a step with shadow
 //! offset o per metre of height the prism of height h casts the square swept along h·o (its shadow is
