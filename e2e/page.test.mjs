@@ -155,10 +155,17 @@ const svg_vs_canvas = await page.evaluate(async () => {
 check(svg_vs_canvas.mean < 3 && svg_vs_canvas.far < 0.01,
   `the plan's SVG renders like its canvas (mean difference ${svg_vs_canvas.mean.toFixed(2)}/255, ${(100 * svg_vs_canvas.far).toFixed(2)}% of pixels far apart)`);
 
-// Animation: frames of the shadow plan; the median frame time must allow 30 frames a second.
+// Animation: frames of the shadow plan; the median frame time must allow 30 frames a second, and the
+// time and the plan must move (a slider step coarser than a frame once snapped every frame back).
+const time_before_play = await page.inputValue("#time");
+const plan_before_play = await pixels("#plan canvas");
 await page.click("#play");
 await page.waitForTimeout(1500);
 await page.click("#play");
+const time_after_play = await page.inputValue("#time");
+const plan_after_play = await pixels("#plan canvas");
+check(time_after_play !== time_before_play && plan_after_play.hash !== plan_before_play.hash,
+  `playing the day moves the time (${time_before_play} → ${time_after_play} min) and the plan`);
 const frames = await page.evaluate(() => window.sunlotFrameTimes.slice().sort((a, b) => a - b));
 const median = frames[Math.floor(frames.length / 2)];
 console.log(`     animation: ${frames.length} frames in 1.5 s, median draw ${median.toFixed(1)} ms`);
