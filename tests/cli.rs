@@ -690,3 +690,33 @@ fn negative_numbers_are_values_and_impossible_dates_are_named() {
     let o = sunlot(&["day", "--lat", "52", "--lon", "0", "--date", "2026-02-30"], None);
     assert!(stderr(&o).contains("does not exist"), "{}", stderr(&o));
 }
+
+#[test]
+fn compare_leaves_the_lot_out_unless_asked() {
+    let rows = |extra: &[&str]| {
+        let mut args = vec![
+            "compare",
+            "--demo",
+            "--date",
+            "2026-03-21",
+            "--cell-m",
+            "2",
+            "--step-min",
+            "30",
+            "--quiet",
+            "--format",
+            "json",
+        ];
+        args.extend_from_slice(extra);
+        let o = sunlot(&args, None);
+        assert!(o.status.success(), "{}", stderr(&o));
+        let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+        v.as_array().unwrap().iter().map(|r| r["area"].as_str().unwrap().to_string()).collect::<Vec<_>>()
+    };
+    let neighbours = rows(&[]);
+    assert!(
+        !neighbours.contains(&"lot-14".to_string()) && neighbours.contains(&"garden-16".to_string()),
+        "{neighbours:?}"
+    );
+    assert!(rows(&["--with-lot"]).contains(&"lot-14".to_string()));
+}

@@ -515,3 +515,26 @@ fn facade_map_through_the_facade_equals_the_core() {
     let bad = sunlot::web::facade_map_js(js(&input.replace(r#""volume": "terrace-east""#, r#""volume": "shed""#)));
     assert!(error_message(bad).contains("shed"));
 }
+
+/// `compareMap` without areas maps the neighbours' areas, not the lot the proposal stands on (its own
+/// building would set the legend of the hours lost); the values equal the core's before/after there.
+#[wasm_bindgen_test]
+fn compare_map_leaves_the_lot_out() {
+    let site = serde_json::to_string(sunlot::demo::DEMO_SITE_JSON).unwrap();
+    let out = sunlot::web::compare_map(
+        js(&format!(r#"{{"site": {site}, "date": "2026-03-21", "cellM": 2, "stepMin": 30}}"#)),
+        None,
+    )
+    .unwrap();
+    let m = sunlot::demo::demo();
+    let polys: Vec<_> = m.areas_beside_lots().iter().map(|a| a.polygon.clone()).collect();
+    assert!(polys.len() < m.areas.len());
+    let g = sunlot::exposure::Grid::covering(&geo::MultiPolygon::new(polys), 2.0, sunlot::exposure::DEFAULT_MAX_CELLS)
+        .unwrap();
+    let grid = get(&out, "grid");
+    assert_eq!(num(&grid, "cols") as usize, g.cols);
+    assert_eq!(num(&grid, "rows") as usize, g.rows);
+    let lost = js_sys::Float64Array::from(get(&out, "lostH"));
+    let inside = lost.to_vec().iter().filter(|v| !v.is_nan()).count();
+    assert_eq!(inside, g.inside_count());
+}

@@ -133,6 +133,18 @@ pub struct SiteModel {
 }
 
 impl SiteModel {
+    /// The areas a proposal's effect is measured on: every area but the lots (under a new building
+    /// its own lot loses most, which says nothing about the neighbours); all areas when every one is a
+    /// lot.
+    pub fn areas_beside_lots(&self) -> Vec<&Area> {
+        let out: Vec<&Area> = self.areas.iter().filter(|a| a.kind != AreaKind::Lot).collect();
+        if out.is_empty() {
+            self.areas.iter().collect()
+        } else {
+            out
+        }
+    }
+
     /// The sun's azimuth in the plan frame for a true azimuth, degrees 0–360.
     pub fn plan_azimuth_deg(&self, true_azimuth_deg: f64) -> f64 {
         (true_azimuth_deg + self.plan_rotation_deg).rem_euclid(360.0)

@@ -93,18 +93,28 @@ fn five() -> u32 {
 
 impl MapIn {
     fn parts(&self) -> Result<(SiteModel, Grid, Period, Massing), JsError> {
+        self.parts_over(false)
+    }
+
+    /// As [`MapIn::parts`]; with `beside_lots` and no areas named, the grid leaves out the lots (a map
+    /// of what the proposal takes from the neighbours).
+    fn parts_over(&self, beside_lots: bool) -> Result<(SiteModel, Grid, Period, Massing), JsError> {
         let model = site(&self.site)?;
         for id in &self.areas {
             if !model.areas.iter().any(|a| &a.id == id) {
                 return Err(JsError::new(&format!("areas: the site has no area {id:?}")));
             }
         }
-        let polys: Vec<Polygon<f64>> = model
-            .areas
-            .iter()
-            .filter(|a| self.areas.is_empty() || self.areas.contains(&a.id))
-            .map(|a| a.polygon.clone())
-            .collect();
+        let polys: Vec<Polygon<f64>> = if self.areas.is_empty() && beside_lots {
+            model.areas_beside_lots().iter().map(|a| a.polygon.clone()).collect()
+        } else {
+            model
+                .areas
+                .iter()
+                .filter(|a| self.areas.is_empty() || self.areas.contains(&a.id))
+                .map(|a| a.polygon.clone())
+                .collect()
+        };
         if polys.is_empty() {
             return Err(JsError::new("areas: the site has no areas to map"));
         }
@@ -201,14 +211,15 @@ pub fn sun_hours_map(
     Ok(out)
 }
 
-/// Before and after the proposal: `{grid, before, after, lostH, ratio}` as Float64Arrays.
+/// Before and after the proposal: `{grid, before, after, lostH, ratio}` as Float64Arrays; without
+/// `areas`, over every area but the lots (the neighbours').
 #[wasm_bindgen(js_name = compareMap, unchecked_return_type = "CompareMap")]
 pub fn compare_map(
     #[wasm_bindgen(unchecked_param_type = "MapInput")] input: JsValue,
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "compareMap")?;
-    let (model, grid, period, _) = i.parts()?;
+    let (model, grid, period, _) = i.parts_over(true)?;
     let req = i.request(&model, &grid, period, Massing::WithProposed);
     let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
     let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours}))?;
@@ -402,7 +413,7 @@ pub fn draw_map_figure(
 ) -> Result<JsValue, JsError> {
     let mut surface = super::Canvas::new(canvas)?;
     let (map, i): (MapIn, FigureIn) = read_split(input, "drawMapFigure", &["show", "palette"])?;
-    let (model, grid, period, massing) = map.parts()?;
+    let (model, grid, period, massing) = map.parts_over(i.show.as_deref() == Some("lost"))?;
     let req = map.request(&model, &grid, period, massing);
     let describe = format!(
         "{}{}, {}, {}-minute steps",

@@ -37,6 +37,10 @@ pub struct CompareArgs {
     /// enough.
     #[arg(long, default_value_t = 2.0)]
     pub min_hours: f64,
+    /// Include the lots in the maps and the table when no --area is given (by default they are left
+    /// out: a new building's own lot loses most, which says nothing about the neighbours).
+    #[arg(long)]
+    pub with_lot: bool,
     /// The map drawn in --png / --svg.
     #[arg(long, value_enum, default_value_t = Show::Lost)]
     pub show: Show,
@@ -53,7 +57,13 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
     check_min_hours(a.min_hours)?;
     let loaded = a.site.load()?;
     let model = &loaded.model;
-    let grid = a.grid.grid(model)?;
+    // Without --area: the neighbours' areas, the lots only with --with-lot.
+    let ids: Vec<String> = if a.grid.area.is_empty() && !a.with_lot {
+        model.areas_beside_lots().iter().map(|x| x.id.clone()).collect()
+    } else {
+        a.grid.area.clone()
+    };
+    let grid = GridArgs { area: ids.clone(), ..a.grid.clone() }.grid(model)?;
     let req = SunHoursRequest {
         model,
         grid: &grid,
@@ -84,7 +94,7 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
             "max_lost_h",
         ],
     );
-    for area in maps::pick_areas(model, &a.grid.area, "--area")? {
+    for area in maps::pick_areas(model, &ids, "--area")? {
         let cover = grid.cover_of(&area.polygon);
         let stats = |v: &[Option<f64>], th| map_stats(&grid, v, Some(&cover), th);
         let (Some(b), Some(af), Some(lost)) =
@@ -108,9 +118,13 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
         ]);
     }
     t.notes.push(format!(
-        "Before = existing massing, after = existing and proposed; {} m cells at their centres; an open site gets {:.2} h.",
+        "Before = existing massing, after = existing and proposed; {} m cells at their centres, each weighted by its \
+         exact overlap with the area; an open site gets {:.2} h.",
         a.grid.cell_m, ba.before.open_hours
     ));
+    if a.grid.area.is_empty() && !a.with_lot && model.areas.iter().any(|x| x.kind == sunlot::site::AreaKind::Lot) {
+        t.notes.push("The lots are left out (their own building shades them most); --with-lot maps them too.".into());
+    }
     let layers = [
         Layer { name: "before_h", values: &ba.before.hours },
         Layer { name: "after_h", values: &ba.after.hours },

@@ -64,7 +64,7 @@ impl PeriodArgs {
 }
 
 /// The cells to map.
-#[derive(Debug, Args)]
+#[derive(Debug, Clone, Args)]
 pub struct GridArgs {
     /// Ids of the areas to map, comma-separated (default: every area of the site).
     #[arg(long, value_delimiter = ',')]
