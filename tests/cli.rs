@@ -361,7 +361,8 @@ fn sun_hours_per_area_and_map_files() {
 fn compare_reports_each_area_before_and_after() {
     let o = sunlot(&["compare", "--demo", "--date", "2026-03-20", "--cell-m", "1", "--format", "json"], None);
     let rows = json_rows(&o);
-    assert_eq!(rows.len(), 7);
+    // Six gardens; the lot is left out unless --with-lot.
+    assert_eq!(rows.len(), 6);
     for r in &rows {
         // The proposal only adds shade: after never exceeds before.
         assert!(r["after_2h_pct"].as_f64().unwrap() <= r["before_2h_pct"].as_f64().unwrap() + 1e-9, "{r}");
