@@ -208,10 +208,14 @@
   /** The rule check against the BRE BR 209 amenity preset, with its citation and the caution. */
   function ruleTable(m, site, parent) {
     const r = m.checkRule({ site, preset: "bre-br209-amenity", year: 2026 });
+    const signed = (v, d) => (Number.isFinite(v) ? `${v >= 0 ? "+" : ""}${v.toFixed(d)}` : "—");
     const rows = r.areas.map(a => [a.id, a.name, fixed(100 * a.beforeShare, 1), fixed(100 * a.afterShare, 1),
-      fixed(a.ratio, 3), a.passes ? "passes" : "fails"]);
+      fixed(a.ratio, 3), signed(100 * a.shareMargin, 1), signed(a.ratioMargin, 2), `±${fixed(100 * a.shareError, 1)}`,
+      (a.passes ? "passes" : "fails") + (a.nearThreshold ? " (near threshold)" : "")]);
     parent.append(table("rule-check", `${r.rule.title} — checked on ${r.date}, ${r.cellM} m cells, ${r.stepMin}-minute steps`,
-      ["Area", "Name", "In 2 h+ sun now %", "With proposal %", "Ratio after / before", "Result"], rows));
+      ["Area", "Name", "In 2 h+ sun now %", "With proposal %", "Ratio after / before", "Share margin, points",
+        "Ratio margin", "Share error, points", "Result"], rows));
+    parent.append(el("p", { class: "citation", text: "Margins: how far each test is passed (+) or failed (−). Share error: the share of the area in cells cut by its edge or by the edge of the sunlit part, within which a share near its threshold could move." }));
     parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
     parent.append(el("p", { class: "caution", text: r.caution }));
   }

@@ -108,8 +108,10 @@ if (ruleRows !== null || pages.includes("index")) {
 const exe = ["release", "debug"].map(p => path.join(root, "target", p, "sunlot")).find(existsSync);
 const cli = JSON.parse(execFileSync(exe, ["check", path.join(root, "demo-site", "hollin-vale.site.json"), "--year", "2026",
   "--format", "json"]).toString());
+const signed = (v, d) => `${v >= 0 ? "+" : ""}${v.toFixed(d)}`;
 const want = cli.areas.map(a => [a.id, a.name, (100 * a.before_share).toFixed(1), (100 * a.after_share).toFixed(1),
-  a.ratio.toFixed(3), a.passes ? "passes" : "fails"]);
+  a.ratio.toFixed(3), signed(100 * a.share_margin, 1), a.ratio_margin === null ? "—" : signed(a.ratio_margin, 2), `±${(100 * a.share_error).toFixed(1)}`,
+  (a.passes ? "passes" : "fails") + (a.near_threshold ? " (near threshold)" : "")]);
 check(JSON.stringify(ruleRows) === JSON.stringify(want),
   `the rule-check table equals \`sunlot check\` on demo-site/hollin-vale.site.json (${want.length} areas)`);
 }
