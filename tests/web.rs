@@ -512,6 +512,9 @@ fn facade_map_through_the_facade_equals_the_core() {
     }
     let svg = sunlot::web::facade_svg(js(&input.replace("\"stepMin\"", "\"show\": \"lost\", \"stepMin\""))).unwrap();
     assert!(svg.starts_with("<svg") && svg.contains("w16-side") && svg.contains("lost to the proposal"));
+    let svg =
+        sunlot::web::facade_svg(js(&input.replace("\"stepMin\"", "\"show\": \"insolation\", \"stepMin\""))).unwrap();
+    assert!(svg.contains("beam and sky diffuse"));
     let bad = sunlot::web::facade_map_js(js(&input.replace(r#""volume": "terrace-east""#, r#""volume": "shed""#)));
     assert!(error_message(bad).contains("shed"));
 }

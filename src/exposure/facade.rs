@@ -123,6 +123,73 @@ impl FaceMap {
     }
 }
 
+/// What a facade elevation shows.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FacadeLayer {
+    /// Hours of direct sun.
+    Hours,
+    /// Clear-sky beam insolation, kWh/m².
+    Beam,
+    /// Clear-sky insolation, beam and sky diffuse, kWh/m².
+    Insolation,
+    /// Hours of direct sun lost to the proposal (the existing massing alone minus with it).
+    Lost,
+}
+
+impl FacadeLayer {
+    /// The layer named `hours`, `beam`, `insolation` or `lost`.
+    pub fn named(name: &str) -> Option<Self> {
+        match name {
+            "hours" => Some(FacadeLayer::Hours),
+            "beam" => Some(FacadeLayer::Beam),
+            "insolation" => Some(FacadeLayer::Insolation),
+            "lost" => Some(FacadeLayer::Lost),
+            _ => None,
+        }
+    }
+
+    /// What the values are, for a figure's title.
+    pub fn label(self) -> &'static str {
+        match self {
+            FacadeLayer::Hours => "Hours of direct sun",
+            FacadeLayer::Beam => "Clear-sky beam insolation",
+            FacadeLayer::Insolation => "Clear-sky insolation (beam and sky diffuse)",
+            FacadeLayer::Lost => "Hours of direct sun lost to the proposal",
+        }
+    }
+
+    /// The values' unit, for the legend.
+    pub fn unit(self) -> &'static str {
+        match self {
+            FacadeLayer::Hours | FacadeLayer::Lost => "h",
+            FacadeLayer::Beam | FacadeLayer::Insolation => "kWh/m²",
+        }
+    }
+
+    /// Whether the layer needs the faces before the proposal too.
+    pub fn needs_before(self) -> bool {
+        self == FacadeLayer::Lost
+    }
+
+    /// The values per face, row-major as the face's cells; `before` (the same faces with the
+    /// existing massing alone) is used by [`FacadeLayer::Lost`] only, and `None` there gives `None`.
+    pub fn values(self, faces: &[FaceMap], before: Option<&[FaceMap]>) -> Option<Vec<Vec<f64>>> {
+        Some(match self {
+            FacadeLayer::Hours => faces.iter().map(|f| f.sun_hours.clone()).collect(),
+            FacadeLayer::Beam => faces.iter().map(|f| f.beam_kwh_m2.clone()).collect(),
+            FacadeLayer::Insolation => faces
+                .iter()
+                .map(|f| f.beam_kwh_m2.iter().zip(&f.diffuse_kwh_m2).map(|(b, d)| b + d).collect())
+                .collect(),
+            FacadeLayer::Lost => before?
+                .iter()
+                .zip(faces)
+                .map(|(b, f)| b.sun_hours.iter().zip(&f.sun_hours).map(|(b, a)| (b - a).max(0.0)).collect())
+                .collect(),
+        })
+    }
+}
+
 /// The faces of volume `volume_id`, anticlockwise around its footprint.
 ///
 /// # Errors
@@ -218,7 +285,9 @@ pub fn facade_map(
     if model.volumes.iter().any(|v| v.id == req.volume_id && v.status == Status::Proposed) {
         massing = Massing::WithProposed;
     }
-    let (mut done, mut sky) = (0usize, None::<PointSky>);
+    // One ray test over the massing, moved from cell to cell.
+    let mut s = PointSky::new(model, ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 }, massing, req.delta_t);
+    let mut done = 0usize;
     for m in &mut maps {
         let (n, facing) = (m.cols * m.rows, m.face.facing_deg);
         m.sun_hours = vec![0.0; n];
@@ -228,13 +297,7 @@ pub fn facade_map(
         for row in 0..m.rows {
             for col in 0..m.cols {
                 let p = m.sample(col, row);
-                let s = match sky.as_mut() {
-                    Some(s) => {
-                        s.set_point(p);
-                        s
-                    }
-                    None => sky.insert(PointSky::new(model, p, massing, req.delta_t)),
-                };
+                s.set_point(p);
                 let (mut hours, mut wh) = (0.0, 0.0);
                 for step in steps.all() {
                     if !in_front_of_wall(step.sun.azimuth_deg, facing) {

@@ -20,7 +20,10 @@ mod year_profile;
 
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
 pub use cover::MIN_COVER;
-pub use facade::{facade_map, faces_of, FacadeRequest, Face, FaceMap, FaceWindow, MAX_FACADE_CELLS, SAMPLE_OFFSET_M};
+pub use facade::{
+    facade_map, faces_of, FacadeLayer, FacadeRequest, Face, FaceMap, FaceWindow, FACADE_SKY_STEP_DEG, MAX_FACADE_CELLS,
+    SAMPLE_OFFSET_M,
+};
 pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};

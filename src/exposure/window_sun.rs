@@ -20,7 +20,7 @@ use crate::site::SiteModel;
 use crate::time::DeltaT;
 
 /// A window's hours over a period.
-#[derive(Debug, Clone, Copy, PartialEq)]
+#[derive(Debug, Clone, Copy, Default, PartialEq)]
 pub struct WindowSun {
     /// Hours of direct sun on the window: in front of it and not blocked.
     pub sun_hours: f64,
@@ -28,6 +28,15 @@ pub struct WindowSun {
     pub front_hours: f64,
     /// Hours the sun is up.
     pub day_hours: f64,
+}
+
+impl WindowSun {
+    /// Adds `other`'s hours to these.
+    fn add(&mut self, other: &WindowSun) {
+        self.sun_hours += other.sun_hours;
+        self.front_hours += other.front_hours;
+        self.day_hours += other.day_hours;
+    }
 }
 
 /// Whether a sun at true azimuth `azimuth_deg` is in front of a vertical plane facing `facing_deg`
@@ -75,7 +84,7 @@ pub fn window_sun_hours_above(
     let casters = model.volumes.len() + model.walls.len();
     crate::limits::ray_tests("step_min", period.max_steps(), casters, "use a longer step or a shorter period")?;
     let sky = PointSky::new(model, point, massing, delta_t);
-    let mut out = WindowSun { sun_hours: 0.0, front_hours: 0.0, day_hours: 0.0 };
+    let mut out = WindowSun::default();
     for_each_day(model, period, delta_t, &mut progress, |_, steps| {
         add_steps(model, &sky, facing_deg, min_altitude_deg, &steps, &mut out)
     })?;
@@ -161,8 +170,8 @@ impl SunSteps {
         self.max_steps
     }
 
-    /// The hours of direct sun on a window (as [`window_sun_hours_above`]) over the steps of the
-    /// days for which `on` holds.
+    /// The hours of direct sun on a window (as [`window_sun_hours_above`]) over every day, and over
+    /// the days for which `on` holds, in one pass over the steps.
     ///
     /// # Errors
     /// As [`window_sun_hours_above`].
@@ -176,16 +185,21 @@ impl SunSteps {
         delta_t: DeltaT,
         min_altitude_deg: f64,
         on: impl Fn(NaiveDate) -> bool,
-    ) -> Result<WindowSun, ExposureError> {
+    ) -> Result<(WindowSun, WindowSun), ExposureError> {
         check_window(facing_deg, min_altitude_deg)?;
         let casters = model.volumes.len() + model.walls.len();
         crate::limits::ray_tests("step_min", self.max_steps, casters, "use a longer step or a shorter period")?;
         let sky = PointSky::new(model, point, massing, delta_t);
-        let mut out = WindowSun { sun_hours: 0.0, front_hours: 0.0, day_hours: 0.0 };
-        for (_, steps) in self.days.iter().filter(|(d, _)| on(*d)) {
-            add_steps(model, &sky, facing_deg, min_altitude_deg, steps, &mut out)?;
+        let (mut all, mut picked) = (WindowSun::default(), WindowSun::default());
+        for (date, steps) in &self.days {
+            let mut day = WindowSun::default();
+            add_steps(model, &sky, facing_deg, min_altitude_deg, steps, &mut day)?;
+            all.add(&day);
+            if on(*date) {
+                picked.add(&day);
+            }
         }
-        Ok(out)
+        Ok((all, picked))
     }
 }
 

@@ -5,7 +5,7 @@
 use super::draw::{footnote, heading, Anchor, Colour, Draw, Image, INK, PAPER};
 use super::layer::draw_legend;
 use super::ramp::ramp_colour;
-use crate::exposure::FaceMap;
+use crate::exposure::{FacadeLayer, FaceMap};
 
 /// Figure width and largest height, pixels; [`elevation_size`] fits the height to the faces.
 pub const ELEVATION_PX: (u32, u32) = (1200, 640);
@@ -55,6 +55,29 @@ pub struct Elevation<'a> {
     pub range: (f64, f64),
     /// Footnote (the caution).
     pub caution: String,
+}
+
+impl<'a> Elevation<'a> {
+    /// The elevation of `layer`'s `values` on `faces` of the building `volume` of the site `site_name`,
+    /// the ramp from 0 to the largest value, with the caution.
+    pub fn of_layer(
+        layer: FacadeLayer,
+        faces: &'a [FaceMap],
+        values: &'a [Vec<f64>],
+        (volume, site_name): (&str, &str),
+        subtitle: String,
+    ) -> Self {
+        let top = values.iter().flatten().copied().fold(0.0_f64, f64::max);
+        Elevation {
+            title: format!("{} on the faces of {volume} — {site_name}", layer.label()),
+            subtitle,
+            unit: layer.unit().into(),
+            faces,
+            values: values.iter().map(Vec::as_slice).collect(),
+            range: (0.0, if top > 0.0 { top } else { 1.0 }),
+            caution: crate::rules::CAUTION.into(),
+        }
+    }
 }
 
 /// Draws `e` onto `d` (sized by [`elevation_size`]).

@@ -6,7 +6,7 @@ use serde::Serialize;
 use super::rule::{clock_window, RuleError};
 use super::window_rule::{SkyTest, SunDayTest, SunYearTest, WindowRule, WindowTest};
 use crate::daylight::{sky_component_pct, SkyPlane};
-use crate::exposure::{window_sun_hours_above, Massing, Period, SunSteps, Window, WindowSun};
+use crate::exposure::{window_sun_hours_above, Massing, Period, SunSteps, Window};
 use crate::site::{SiteModel, Status, WindowPoint};
 use crate::time::DeltaT;
 
@@ -126,32 +126,29 @@ pub fn check_windows(
             reason: format!("must be more than 0, got {}", req.azimuth_step_deg),
         });
     }
-    // The year's steps once for every window and massing (most of the year test's cost).
-    let year = match &rule.test {
-        WindowTest::WindowSunYear(_) => {
+    // The year test's steps once for every window and massing (most of its cost).
+    let plan = match &rule.test {
+        WindowTest::WindowSky(t) => Plan::Sky(t),
+        WindowTest::WindowSunDay(t) => Plan::Day(t),
+        WindowTest::WindowSunYear(t) => {
             let period = Period {
                 first: date(&rule.id, req.year, 1, 1)?,
                 last: date(&rule.id, req.year, 12, 31)?,
                 window: Window::Daylight,
                 step_min: req.step_min,
             };
-            Some(SunSteps::of(model, &period, req.delta_t, |f| progress(0.5 * f))?)
+            Plan::Year(t, SunSteps::of(model, &period, req.delta_t, |f| progress(0.5 * f))?)
         }
-        _ => None,
     };
-    let (n, done) = (windows.len() as f64, if year.is_some() { 0.5 } else { 0.0 });
+    let (n, done) = (windows.len() as f64, if matches!(plan, Plan::Year(..)) { 0.5 } else { 0.0 });
     let mut out = Vec::new();
     for (k, w) in windows.iter().enumerate() {
-        let mut part = |f: f64| progress(done + (1.0 - done) * (k as f64 + f) / n);
-        out.push(match &rule.test {
-            WindowTest::WindowSky(t) => sky(req, w, t)?,
-            WindowTest::WindowSunDay(t) => sun_day(req, &rule, w, t, &mut part)?,
-            WindowTest::WindowSunYear(t) => match &year {
-                Some(steps) => sun_year(req, w, t, steps)?,
-                None => continue, // computed above for this test
-            },
+        out.push(match &plan {
+            Plan::Sky(t) => sky(req, w, t)?,
+            Plan::Day(t) => sun_day(req, &rule, w, t)?,
+            Plan::Year(t, steps) => sun_year(req, w, t, steps)?,
         });
-        if !part(1.0) {
+        if !progress(done + (1.0 - done) * (k + 1) as f64 / n) {
             return Err(crate::exposure::ExposureError::Period("cancelled".into()).into());
         }
     }
@@ -175,6 +172,13 @@ pub fn check_windows(
         ));
     }
     Ok(WindowReport { rule, year: req.year, step_min: req.step_min, windows: out, share_passing, passes, cautions })
+}
+
+/// A rule's test, ready to run on each window.
+enum Plan<'a> {
+    Sky(&'a SkyTest),
+    Day(&'a SunDayTest),
+    Year(&'a SunYearTest, SunSteps),
 }
 
 fn result(w: &WindowPoint, figures: Vec<Figure>, passes: Option<bool>, reason: String) -> WindowCheck {
@@ -221,32 +225,11 @@ fn sky(req: &WindowCheckRequest, w: &WindowPoint, t: &SkyTest) -> Result<WindowC
 }
 
 fn date(rule: &str, year: i32, month: u32, day: u32) -> Result<NaiveDate, RuleError> {
-    NaiveDate::from_ymd_opt(year, month, day).ok_or_else(|| RuleError::Field {
-        rule: rule.into(),
-        field: "day",
-        reason: format!("{year}-{month:02}-{day:02} is not a date"),
-    })
+    NaiveDate::from_ymd_opt(year, month, day).ok_or_else(|| no_date(rule, year, month, day))
 }
 
-fn sun(
-    req: &WindowCheckRequest,
-    w: &WindowPoint,
-    period: &Period,
-    massing: Massing,
-    min_altitude_deg: f64,
-    progress: &mut dyn FnMut(f64) -> bool,
-) -> Result<WindowSun, RuleError> {
-    window_sun_hours_above(
-        req.model,
-        w.view_point(),
-        w.facing_deg,
-        period,
-        massing,
-        req.delta_t,
-        min_altitude_deg,
-        progress,
-    )
-    .map_err(RuleError::from)
+fn no_date(rule: &str, year: i32, month: u32, day: u32) -> RuleError {
+    RuleError::Field { rule: rule.into(), field: "day", reason: format!("{year}-{month:02}-{day:02} is not a date") }
 }
 
 fn sun_day(
@@ -254,21 +237,21 @@ fn sun_day(
     rule: &WindowRule,
     w: &WindowPoint,
     t: &SunDayTest,
-    progress: &mut dyn FnMut(f64) -> bool,
 ) -> Result<WindowCheck, RuleError> {
-    let d = t.date_at(req.year, req.model.location.latitude_deg).ok_or_else(|| RuleError::Field {
-        rule: rule.id.clone(),
-        field: "day",
-        reason: format!("{}-{:02}-{:02} is not a date", req.year, t.month, t.day),
-    })?;
+    let d = t
+        .date_at(req.year, req.model.location.latitude_deg)
+        .ok_or_else(|| no_date(&rule.id, req.year, t.month, t.day))?;
     let window = match clock_window(&rule.id, &t.from, &t.to)? {
         (Some(from), Some(to)) => Window::Clock { from, to },
         _ => Window::Daylight,
     };
     let period = Period { first: d, last: d, window, step_min: req.step_min };
-    let (before, after) =
-        before_after(w, |m| sun(req, w, &period, m, t.min_altitude_deg, &mut |_| true).map(|s| s.sun_hours))?;
-    progress(1.0);
+    let (before, after) = before_after(w, |m| {
+        let (p, dt) = (w.view_point(), req.delta_t);
+        window_sun_hours_above(req.model, p, w.facing_deg, &period, m, dt, t.min_altitude_deg, |_| true)
+            .map(|s| s.sun_hours)
+            .map_err(RuleError::from)
+    })?;
     let passes = after >= t.min_hours - 1e-9;
     let reason = format!("{after:.2} h on {d} {} {} h", if passes { "≥" } else { "<" }, t.min_hours);
     Ok(result(w, vec![Figure { name: "sun_h", before, after }], Some(passes), reason))
@@ -310,11 +293,9 @@ fn sun_year(
         }
     };
     let shares = |m: Massing| -> Result<(f64, f64), RuleError> {
-        let hours = |on: &dyn Fn(NaiveDate) -> bool| {
-            year.window(req.model, w.view_point(), w.facing_deg, m, req.delta_t, 0.0, on).map_err(RuleError::from)
-        };
-        let all = hours(&|_| true)?;
-        let cold = hours(&winter)?;
+        let (all, cold) = year
+            .window(req.model, w.view_point(), w.facing_deg, m, req.delta_t, 0.0, winter)
+            .map_err(RuleError::from)?;
         let possible = all.day_hours.max(1e-9);
         Ok((all.sun_hours / possible, cold.sun_hours / possible))
     };
@@ -459,31 +440,27 @@ mod tests {
         assert_eq!(report.share_passing, Some(1.0));
         assert!(report.passes);
         // Counting the sun only above 6° takes the low sun off both ends.
-        let TestParts { mut t, .. } = parts(&r);
+        let mut t = day_test(&r);
         t.min_altitude_deg = 6.0;
         let high = run(&m, &rule(WindowTest::WindowSunDay(t)), 2003, 1);
         assert!(high.windows.iter().zip(&hours).all(|(w, h)| w.figures[0].after < h - 0.3));
     }
 
-    struct TestParts {
-        t: SunDayTest,
-    }
-
-    fn parts(r: &WindowRule) -> TestParts {
+    fn day_test(r: &WindowRule) -> SunDayTest {
         match &r.test {
-            WindowTest::WindowSunDay(t) => TestParts { t: t.clone() },
-            _ => unreachable!(),
+            WindowTest::WindowSunDay(t) => t.clone(),
+            _ => unreachable!("a one-day sun test"),
         }
     }
 
     #[test]
     fn a_mid_winter_date_moves_six_months_in_the_other_hemisphere() {
         let AnyRule::Window(r) = preset("nsw-adg-window-sun").unwrap() else { unreachable!() };
-        let t = parts(&r).t;
+        let t = day_test(&r);
         assert_eq!(t.date_at(2026, -33.87), NaiveDate::from_ymd_opt(2026, 6, 21));
         assert_eq!(t.date_at(2026, 52.6), NaiveDate::from_ymd_opt(2026, 12, 21));
         let AnyRule::Window(r) = preset("din5034-window-sun").unwrap() else { unreachable!() };
-        assert_eq!(parts(&r).t.date_at(2026, -33.87), NaiveDate::from_ymd_opt(2026, 7, 17));
+        assert_eq!(day_test(&r).date_at(2026, -33.87), NaiveDate::from_ymd_opt(2026, 7, 17));
     }
 
     /// The year test: an open south-facing window passes with its share of the year's sun-up hours

@@ -6,7 +6,7 @@ use wasm_bindgen::prelude::*;
 
 use super::maps::{date, massing_of, window};
 use super::{err, read, site, write};
-use crate::exposure::{facade_map, FacadeRequest, FaceMap, Massing, Period, SunSteps};
+use crate::exposure::{facade_map, FacadeLayer, FacadeRequest, FaceMap, Massing, Period, SunSteps};
 use crate::render::{draw_elevation, elevation_size, Elevation};
 use crate::sky::BirdAtmosphere;
 use crate::time::DeltaT;
@@ -47,7 +47,15 @@ struct Computed {
     describe: String,
 }
 
-fn compute(i: &FacadeIn) -> Result<Computed, JsError> {
+/// The layer `show` names (hours when absent).
+fn layer(i: &FacadeIn) -> Result<FacadeLayer, JsError> {
+    let name = i.show.as_deref().unwrap_or("hours");
+    FacadeLayer::named(name)
+        .ok_or_else(|| JsError::new(&format!("show: {name:?} is not \"hours\", \"beam\", \"insolation\" or \"lost\"")))
+}
+
+/// The facade map of the request; the faces before the proposal too when `with_before`.
+fn compute(i: &FacadeIn, with_before: bool) -> Result<Computed, JsError> {
     let model = site(&i.site)?;
     let first = date(&i.date, "date")?;
     let last = i.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
@@ -64,11 +72,10 @@ fn compute(i: &FacadeIn) -> Result<Computed, JsError> {
     };
     let bad = |e: crate::exposure::ExposureError| JsError::new(&format!("volume, cellM: {e}"));
     let faces = facade_map(&req, &steps, |_| true).map_err(bad)?;
-    let before = match i.show.as_deref() {
-        Some("lost") => {
-            Some(facade_map(&FacadeRequest { massing: Massing::Existing, ..req }, &steps, |_| true).map_err(bad)?)
-        }
-        _ => None,
+    let before = if with_before {
+        Some(facade_map(&FacadeRequest { massing: Massing::Existing, ..req }, &steps, |_| true).map_err(bad)?)
+    } else {
+        None
     };
     let describe = format!(
         "{}{}, {}, {}-minute steps",
@@ -80,48 +87,19 @@ fn compute(i: &FacadeIn) -> Result<Computed, JsError> {
     Ok(Computed { model, faces, before, describe })
 }
 
-/// The figure's values per face, unit and label for `show`.
-fn shown(
+/// Computes the map for the request's layer and draws its elevations onto the surface `make` gives
+/// for the figure's size.
+fn figure<D: crate::render::Draw>(
     i: &FacadeIn,
-    faces: &[FaceMap],
-    before: Option<&[FaceMap]>,
-) -> Result<(Vec<Vec<f64>>, &'static str, &'static str), JsError> {
-    Ok(match (i.show.as_deref(), before) {
-        (None | Some("hours"), _) => (faces.iter().map(|f| f.sun_hours.clone()).collect(), "h", "Hours of direct sun"),
-        (Some("beam"), _) => {
-            (faces.iter().map(|f| f.beam_kwh_m2.clone()).collect(), "kWh/m²", "Clear-sky beam insolation")
-        }
-        (Some("lost"), Some(b)) => (
-            b.iter()
-                .zip(faces)
-                .map(|(b, f)| b.sun_hours.iter().zip(&f.sun_hours).map(|(b, a)| (b - a).max(0.0)).collect())
-                .collect(),
-            "h",
-            "Hours of direct sun lost to the proposal",
-        ),
-        (Some(other), _) => {
-            return Err(JsError::new(&format!(
-                "show: {other:?} is not \"hours\", \"beam\", \"insolation\" or \"lost\""
-            )))
-        }
-    })
-}
-
-fn figure(i: &FacadeIn, surface: &mut dyn crate::render::Draw) -> Result<(), JsError> {
-    let Computed { model, faces, before, describe } = compute(i)?;
-    let (values, unit, label) = shown(i, &faces, before.as_deref())?;
-    let top = values.iter().flatten().copied().fold(0.0_f64, f64::max);
-    let e = Elevation {
-        title: format!("{label} on the faces of {} — {}", i.volume, model.name),
-        subtitle: describe,
-        unit: unit.into(),
-        faces: &faces,
-        values: values.iter().map(Vec::as_slice).collect(),
-        range: (0.0, if top > 0.0 { top } else { 1.0 }),
-        caution: crate::rules::CAUTION.into(),
-    };
-    draw_elevation(surface, &e);
-    Ok(())
+    make: impl FnOnce((u32, u32)) -> Result<D, JsError>,
+) -> Result<D, JsError> {
+    let layer = layer(i)?;
+    let Computed { model, faces, before, describe } = compute(i, layer.needs_before())?;
+    let values = layer.values(&faces, before.as_deref()).unwrap_or_default();
+    let e = Elevation::of_layer(layer, &faces, &values, (&i.volume, &model.name), describe);
+    let mut surface = make(elevation_size(&faces))?;
+    draw_elevation(&mut surface, &e);
+    Ok(surface)
 }
 
 /// The faces of a building with their cells: `{faces: [{number, facingDeg, compass, startM: [x, y],
@@ -131,7 +109,7 @@ fn figure(i: &FacadeIn, surface: &mut dyn crate::render::Draw) -> Result<(), JsE
 #[wasm_bindgen(js_name = facadeMap, unchecked_return_type = "FacadeMap")]
 pub fn facade_map_js(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: FacadeIn = read(input, "facadeMap")?;
-    let faces = compute(&i)?.faces;
+    let faces = compute(&i, false)?.faces;
     let faces: Vec<serde_json::Value> = faces
         .iter()
         .map(|f| {
@@ -156,45 +134,24 @@ pub fn facade_map_js(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input
 }
 
 /// Computes the facade map and draws its elevations onto `canvas`, first sized to the figure (`{width,
-/// height}` returned); `show` picks hours or beam.
+/// height}` returned); `show` picks the layer.
 #[wasm_bindgen(js_name = drawFacade, unchecked_return_type = "{ width: number; height: number }")]
 pub fn draw_facade(
     canvas: &web_sys::HtmlCanvasElement,
     #[wasm_bindgen(unchecked_param_type = "FacadeInput")] input: JsValue,
 ) -> Result<JsValue, JsError> {
     let i: FacadeIn = read(input, "drawFacade")?;
-    let size = size_of(&i)?;
-    canvas.set_width(size.0);
-    canvas.set_height(size.1);
-    figure(&i, &mut super::Canvas::new(canvas)?)?;
-    write(&serde_json::json!({"width": size.0, "height": size.1}))
+    figure(&i, |(w, h)| {
+        canvas.set_width(w);
+        canvas.set_height(h);
+        super::Canvas::new(canvas)
+    })?;
+    write(&serde_json::json!({"width": canvas.width(), "height": canvas.height()}))
 }
 
 /// The facade map's elevations as an SVG document.
 #[wasm_bindgen(js_name = facadeSvg)]
 pub fn facade_svg(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input: JsValue) -> Result<String, JsError> {
     let i: FacadeIn = read(input, "facadeSvg")?;
-    let (w, h) = size_of(&i)?;
-    let mut svg = super::canvas::svg_surface(w, h)?;
-    figure(&i, &mut svg)?;
-    Ok(svg.finish())
-}
-
-/// The figure's size from the faces alone (no sun computed).
-fn size_of(i: &FacadeIn) -> Result<(u32, u32), JsError> {
-    let model = site(&i.site)?;
-    let faces: Vec<FaceMap> = crate::exposure::faces_of(&model, &i.volume)
-        .map_err(err)?
-        .into_iter()
-        .map(|face| FaceMap {
-            face,
-            cols: 1,
-            rows: 1,
-            sun_hours: vec![0.0],
-            beam_kwh_m2: vec![0.0],
-            diffuse_kwh_m2: vec![0.0],
-            windows: vec![],
-        })
-        .collect();
-    Ok(elevation_size(&faces))
+    Ok(figure(&i, |(w, h)| super::canvas::svg_surface(w, h))?.finish())
 }

@@ -4,7 +4,7 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
-use sunlot::exposure::{facade_map, FacadeRequest, FaceMap, SunSteps};
+use sunlot::exposure::{facade_map, FacadeLayer, FacadeRequest, FaceMap, SunSteps};
 use sunlot::render::{draw_elevation, elevation_size, Elevation, Pixmap, Svg};
 use sunlot::rules::CAUTION;
 
@@ -14,7 +14,7 @@ use crate::output::{Cell, Format, Table};
 use crate::progress::Bar;
 use crate::shadows::SiteFileArgs;
 
-/// Which values the elevations show.
+/// Which values the elevations show (as [`FacadeLayer`]).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
 pub enum Show {
     /// Hours of direct sun.
@@ -25,6 +25,17 @@ pub enum Show {
     Insolation,
     /// Hours of direct sun lost to the proposal (existing massing alone minus with the proposal).
     Lost,
+}
+
+impl Show {
+    fn layer(self) -> FacadeLayer {
+        match self {
+            Show::Hours => FacadeLayer::Hours,
+            Show::Beam => FacadeLayer::Beam,
+            Show::Insolation => FacadeLayer::Insolation,
+            Show::Lost => FacadeLayer::Lost,
+        }
+    }
 }
 
 #[derive(Debug, Args)]
@@ -121,7 +132,8 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
     let mut bar = Bar::new("facade map", a.quiet);
     let steps = SunSteps::of(model, &period, delta_t, |f| bar.update(0.2 * f)).map_err(|e| e.to_string())?;
     let bad = |e: sunlot::exposure::ExposureError| format!("--volume, --cell-m: {e}");
-    let lost = a.show == Show::Lost;
+    let layer = a.show.layer();
+    let lost = layer.needs_before();
     let share = if lost { 0.4 } else { 0.8 };
     let faces = facade_map(&req, &steps, |f| bar.update(0.2 + share * f)).map_err(bad)?;
     // Before the proposal, for the hours lost.
@@ -133,16 +145,7 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
     };
     drop(bar);
     let which = if a.existing_only { "existing massing" } else { "existing and proposed massing" };
-    let total: Vec<Vec<f64>> =
-        faces.iter().map(|f| f.beam_kwh_m2.iter().zip(&f.diffuse_kwh_m2).map(|(b, d)| b + d).collect()).collect();
-    let lost_h: Vec<Vec<f64>> = before
-        .iter()
-        .flat_map(|b| {
-            b.iter()
-                .zip(&faces)
-                .map(|(b, f)| b.sun_hours.iter().zip(&f.sun_hours).map(|(b, a)| (b - a).max(0.0)).collect())
-        })
-        .collect();
+    let values = layer.values(&faces, before.as_deref()).unwrap_or_default();
     let mut t = Table::new(
         format!("Faces of {} — {}, {which}", a.volume, a.period.describe()),
         vec![
@@ -182,7 +185,7 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
             Cell::num(diffuse, 2),
             Cell::text(windows.join(" ")),
         ]);
-        if let Some(l) = lost_h.get(k) {
+        if let Some(l) = values.get(k).filter(|_| lost) {
             let (_, mean, hi) = stats(l);
             t.rows.last_mut().into_iter().for_each(|r| r.extend([Cell::num(mean, 2), Cell::num(hi, 2)]));
         }
@@ -196,24 +199,13 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
         sunlot::exposure::SAMPLE_OFFSET_M,
         a.sky.aod_500
     ));
-    let (values, unit, label): (Vec<&[f64]>, &str, &str) = match a.show {
-        Show::Hours => (faces.iter().map(|f| f.sun_hours.as_slice()).collect(), "h", "Hours of direct sun"),
-        Show::Beam => (faces.iter().map(|f| f.beam_kwh_m2.as_slice()).collect(), "kWh/m²", "Clear-sky beam insolation"),
-        Show::Insolation => {
-            (total.iter().map(Vec::as_slice).collect(), "kWh/m²", "Clear-sky insolation (beam and sky diffuse)")
-        }
-        Show::Lost => (lost_h.iter().map(Vec::as_slice).collect(), "h", "Hours of direct sun lost to the proposal"),
-    };
-    let top = values.iter().flat_map(|v| v.iter().copied()).fold(0.0_f64, f64::max);
-    let e = Elevation {
-        title: format!("{label} on the faces of {} — {}", a.volume, model.name),
-        subtitle: format!("{}, {which}", a.period.describe()),
-        unit: unit.into(),
-        faces: &faces,
-        values,
-        range: (0.0, if top > 0.0 { top } else { 1.0 }),
-        caution: CAUTION.into(),
-    };
+    let e = Elevation::of_layer(
+        layer,
+        &faces,
+        &values,
+        (&a.volume, &model.name),
+        format!("{}, {which}", a.period.describe()),
+    );
     let write =
         |path: &PathBuf, bytes: &[u8]| std::fs::write(path, bytes).map_err(|e| format!("{}: {e}", path.display()));
     let size = elevation_size(&faces);
