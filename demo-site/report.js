@@ -235,7 +235,8 @@
         const cells = [w.name];
         for (const n of names) {
           const f = w.figures.find(x => x.name === n);
-          cells.push(f && f.before !== null ? fixed(scale(n) * f.before, 1) : "—", f ? fixed(scale(n) * f.after, 1) : "—");
+          const d = n.endsWith("_h") ? 2 : 1;
+          cells.push(f && f.before !== null ? fixed(scale(n) * f.before, d) : "—", f ? fixed(scale(n) * f.after, d) : "—");
         }
         cells.push(w.passes === null ? "not tested" : w.passes ? "passes" : "fails", w.reason);
         return cells;
@@ -243,6 +244,9 @@
       const tested = r.windows.filter(w => w.passes !== null);
       const passing = tested.filter(w => w.passes).length;
       parent.append(table(`windows-${preset}`, `${r.rule.title} — ${passing} of ${tested.length} windows pass; the rule ${r.passes ? "passes" : "fails"}`, head, rows));
+      if (names.some(n => n.endsWith("_share"))) {
+        parent.append(el("p", { class: "citation", text: "Year's and winter's sun: hours of direct sun on the window, as a percent of the year's sun-up hours at the site." }));
+      }
       parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
       for (const c of r.cautions) parent.append(el("p", { class: "caution", text: c }));
     }

@@ -138,7 +138,7 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         };
         let report = sunlot::rules::check_windows(&req, |_| true).map_err(|e| e.to_string())?;
         let mut table = crate::check::window_table(&report);
-        table.drop_columns(&["name"]);
+        table.drop_columns(&["window"]);
         out += &table.render(Format::Table);
         out.push('\n');
     }
