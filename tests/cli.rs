@@ -495,7 +495,7 @@ fn sun_path_diagram_as_png_and_svg() {
     assert!(o.status.success(), "{}", stderr(&o));
     assert_eq!(&std::fs::read(&png).unwrap()[1..4], b"PNG");
     let text = std::fs::read_to_string(&svg).unwrap();
-    assert!(text.starts_with("<svg") && text.contains("21 Jun") && text.contains("obstructions"));
+    assert!(text.starts_with("<svg") && text.contains("21 Jun") && text.contains("sky hidden by"));
     let o = sunlot(&["sky", "--demo"], None);
     assert!(!o.status.success() && stderr(&o).contains("--png"));
 }

@@ -224,7 +224,7 @@ fn sky_chart_draws_on_a_canvas_and_as_svg() {
     assert!(ink > 20_000, "the chart has ink: {ink}");
     assert!(june > 200, "the June path is drawn: {june}");
     let svg = sunlot::web::sky_chart_svg(js(&input), 900, 720).expect("svg");
-    assert!(svg.starts_with("<svg") && svg.contains("obstructions"));
+    assert!(svg.starts_with("<svg") && svg.contains("sky hidden by"));
     assert!(error_message(
         sunlot::web::sky_chart_svg(js(&format!(r#"{{"site": {}, "year": 2026, "xM": 1}}"#, demo_site_js())), 10, 10)
             .map(JsValue::from)

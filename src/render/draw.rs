@@ -56,23 +56,50 @@ pub enum Anchor {
     End,
 }
 
-/// A safe estimate of a line's width, pixels: the wider of the bitmap font (8 pixels a character,
-/// scaled by whole pixels) and a monospace face at 0.6 em a character.
+/// The font family of every figure's text: DejaVu Sans (embedded in the native PNG export, so PNG and
+/// SVG read the same), then faces of nearly the same widths, then the reader's sans-serif.
+pub const FONT_FAMILY: &str = "'DejaVu Sans', Verdana, sans-serif";
+
+/// A line's width, pixels, set in DejaVu Sans at `size_px` (its advance widths; a character outside
+/// the table counts as 0.7 em, wider than most).
 pub fn text_width_px(size_px: f64, text: &str) -> f64 {
-    let n = text.chars().count() as f64;
-    n * (8.0 * (size_px / 10.0).round().max(1.0)).max(0.6 * size_px)
+    text.chars().map(advance_em).sum::<f64>() * size_px
 }
 
-/// `text` broken at spaces into lines no wider than `width_px` at `size_px`.
+fn advance_em(c: char) -> f64 {
+    let table = &super::font_widths::WIDTHS;
+    match u32::from(c) {
+        32..=126 => table[(u32::from(c) - 32) as usize].1,
+        _ => table.iter().find(|(k, _)| *k == c).map_or(0.7, |(_, w)| *w),
+    }
+}
+
+/// `text` broken into lines no wider than `width_px` at `size_px`: whole phrases (the parts between
+/// " — ") where they fit, words within a phrase that does not; a word wider than the line stands alone.
 pub fn wrap(text: &str, size_px: f64, width_px: f64) -> Vec<String> {
+    let fits = |s: &str| text_width_px(size_px, s) <= width_px;
     let mut lines: Vec<String> = Vec::new();
     let mut line = String::new();
-    for word in text.split_whitespace() {
-        let candidate = if line.is_empty() { word.to_string() } else { format!("{line} {word}") };
-        if !line.is_empty() && text_width_px(size_px, &candidate) > width_px {
-            lines.push(std::mem::replace(&mut line, word.to_string()));
-        } else {
-            line = candidate;
+    for phrase in text.split(" — ").map(str::trim).filter(|p| !p.is_empty()) {
+        let joined = if line.is_empty() { phrase.to_string() } else { format!("{line} — {phrase}") };
+        if fits(&joined) {
+            line = joined;
+            continue;
+        }
+        if !line.is_empty() {
+            lines.push(std::mem::take(&mut line));
+        }
+        if fits(phrase) {
+            line = phrase.to_string();
+            continue;
+        }
+        for word in phrase.split_whitespace() {
+            let candidate = if line.is_empty() { word.to_string() } else { format!("{line} {word}") };
+            if !line.is_empty() && !fits(&candidate) {
+                lines.push(std::mem::replace(&mut line, word.to_string()));
+            } else {
+                line = candidate;
+            }
         }
     }
     if !line.is_empty() {
@@ -102,6 +129,9 @@ pub trait Draw {
     fn stroke(&mut self, points: &[(f64, f64)], width_px: f64, colour: Colour, closed: bool);
     /// Writes one line of text with its baseline at `y`, `size_px` tall.
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor);
+    /// Writes one line of text turned a quarter anticlockwise (read from bottom to top), its baseline
+    /// through (`x`, `y`) upright and `anchor` along it, `size_px` tall.
+    fn text_vertical(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor);
     /// Draws `image` scaled into the rectangle at (`x`, `y`), `width` × `height`, without smoothing.
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image);
     /// Limits what is drawn next to the rectangle `(x, y, width, height)`; `None` lifts the limit.
@@ -112,22 +142,65 @@ pub trait Draw {
     }
 }
 
-/// A figure's title (wrapped onto the subtitle line when too long) and subtitle, at the top left.
-pub fn heading(d: &mut dyn Draw, title: &str, subtitle: &str) {
+/// Size of a figure's title, pixels.
+pub const TITLE_PX: f64 = 20.0;
+/// Size of a figure's subtitle, footnote and keys, pixels.
+pub const TEXT_PX: f64 = 14.0;
+/// Size of labels on a drawing (areas, axes, ticks), pixels: the smallest text of any figure.
+pub const LABEL_PX: f64 = 13.0;
+/// Grey of secondary text.
+pub const MUTED: Colour = Colour::rgb(95, 95, 95);
+
+/// A figure's title and subtitle at the top left, each wrapped to the figure's width; returns the y
+/// below them, where the figure's drawing may begin.
+pub fn heading(d: &mut dyn Draw, title: &str, subtitle: &str) -> f64 {
     let width = f64::from(d.size().0) - 48.0;
-    let lines = wrap(title, 16.0, width);
-    let ink = INK;
-    d.text(24.0, 30.0, 16.0, lines.first().map_or("", |s| s.as_str()), ink, Anchor::Start);
-    let sub = if lines.len() > 1 { format!("{} · {subtitle}", lines[1..].join(" ")) } else { subtitle.to_string() };
-    d.text(24.0, 52.0, 12.0, &sub, Colour::rgb(110, 110, 110), Anchor::Start);
+    let mut y = 14.0;
+    for line in wrap(title, TITLE_PX, width) {
+        y += TITLE_PX * 1.25;
+        d.text(24.0, y, TITLE_PX, &line, INK, Anchor::Start);
+    }
+    for line in wrap(subtitle, TEXT_PX, width) {
+        y += TEXT_PX * 1.35;
+        d.text(24.0, y, TEXT_PX, &line, MUTED, Anchor::Start);
+    }
+    y + 16.0
+}
+
+/// Height of a footnote of `text` at the bottom of a figure `width_px` wide, pixels.
+pub fn footnote_px(text: &str, width_px: f64) -> f64 {
+    12.0 + LABEL_PX * 1.35 * wrap(text, LABEL_PX, width_px - 48.0).len() as f64
 }
 
 /// The footnote (the caution), wrapped, at the bottom left.
 pub fn footnote(d: &mut dyn Draw, text: &str) {
     let (w, h) = d.size();
-    let lines = wrap(text, 11.0, f64::from(w) - 48.0);
+    let lines = wrap(text, LABEL_PX, f64::from(w) - 48.0);
     for (k, line) in lines.iter().enumerate() {
-        let y = f64::from(h) - 12.0 - 16.0 * (lines.len() - 1 - k) as f64;
-        d.text(24.0, y, 11.0, line, Colour::rgb(110, 110, 110), Anchor::Start);
+        let y = f64::from(h) - 12.0 - LABEL_PX * 1.35 * (lines.len() - 1 - k) as f64;
+        d.text(24.0, y, LABEL_PX, line, MUTED, Anchor::Start);
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn widths_are_dejavu_sans_advances() {
+        // DejaVu Sans 2.37: 'M' 1767/2048 em, space 651/2048 em (the font's hmtx table).
+        assert!((text_width_px(2048.0, "M") - 1767.0).abs() < 0.2);
+        assert!((text_width_px(2048.0, " ") - 651.0).abs() < 0.2);
+        assert!(text_width_px(10.0, "°") > 0.0 && text_width_px(10.0, "漢") == 7.0);
+    }
+
+    #[test]
+    fn wrapping_keeps_phrases_whole_where_they_fit() {
+        let t = "Shadows at 2026-03-21 15:00 GMT — Hollin Vale proposal";
+        let w = text_width_px(20.0, "Shadows at 2026-03-21 15:00 GMT") + 1.0;
+        assert_eq!(wrap(t, 20.0, w), vec!["Shadows at 2026-03-21 15:00 GMT", "Hollin Vale proposal"]);
+        assert_eq!(wrap(t, 20.0, 1e6), vec![t.to_string()]);
+        let narrow = wrap(t, 20.0, 120.0);
+        assert!(narrow.len() > 3 && narrow.iter().all(|l| text_width_px(20.0, l) <= 120.0 || !l.contains(' ')));
     }
 }

@@ -188,9 +188,8 @@ mod tests {
         let (bw, bh) = (f64::from(ELEVATION_PX.0) - 274.0, f64::from(ELEVATION_PX.1) - 230.0);
         let ppm = ((bw - GAP_PX) / 12.0).min(bh / 6.0);
         let (x, y) = ((24.0 + 0.5 * ppm) as usize, (110.0 + bh - 0.3 * ppm) as usize);
-        let i = (y * ELEVATION_PX.0 as usize + x) * 4;
         let lo = ramp_colour(0.0, 0.0, 11.0);
-        assert_eq!(&px.rgba()[i..i + 3], &[lo.r, lo.g, lo.b]);
+        assert_eq!(px.render().unwrap().rgb(x as u32, y as u32), [lo.r, lo.g, lo.b]);
         let mut svg = Svg::new(ELEVATION_PX.0, ELEVATION_PX.1);
         draw_elevation(&mut svg, &e);
         let text = svg.finish();

@@ -1,10 +1,11 @@
 //! A map figure: a grid of values in the colour ramp over the site plan, with a title, a legend in
 //! the map's unit, a scale bar, a north arrow and the caution line.
 
-use super::draw::{footnote, heading, Draw, PAPER};
+use super::draw::{footnote, footnote_px, heading, Draw, PAPER};
 use super::layer::{draw_cells, draw_legend, MapLayer};
 use super::plan::site_outlines;
 use super::plan::{draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, Outline, PlanFrame};
+use super::plan_view::KEY_PX;
 use crate::exposure::Grid;
 use crate::site::SiteModel;
 
@@ -59,23 +60,25 @@ impl<'a> HeatMap<'a> {
 /// Figure size, pixels.
 pub const FIGURE_PX: (u32, u32) = (960, 760);
 
-/// Draws `map` onto `d` (sized [`FIGURE_PX`]).
-pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) {
+/// Draws `map` onto `d` (sized [`FIGURE_PX`]); returns where the plan lies in the figure.
+pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) -> PlanFrame {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, PAPER);
-    heading(d, &map.title, &map.subtitle);
+    let top = heading(d, &map.title, &map.subtitle);
 
     let layer = MapLayer::on_grid(map.grid, map.values.to_vec(), "", &map.unit, map.range);
-    let frame = PlanFrame::fit(layer.bounds, &map.outlines, (24.0, 80.0, w - 260.0, h - 200.0));
+    let plan_box = (24.0, top, w - 24.0 - KEY_PX, h - top - 56.0 - footnote_px(&map.caution, w));
+    let frame = PlanFrame::fit(layer.bounds, &map.outlines, plan_box);
     draw_cells(d, &frame, &layer, &layer.rgba());
     draw_outlines(d, &frame, &map.outlines);
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, map.plan_rotation_deg);
-    let (lx, ly) = (w - 200.0, frame.by + 20.0);
+    let (lx, ly) = (w - KEY_PX + 16.0, frame.by + 20.0);
     let below = draw_legend(d, lx, ly, "", &map.unit, map.range);
     outline_key(d, &map.outlines, lx, below + 40.0);
     footnote(d, &map.caution);
+    frame
 }
 
 #[cfg(test)]
@@ -83,7 +86,7 @@ mod tests {
     use super::*;
     use crate::exposure::DEFAULT_MAX_CELLS;
     use crate::render::{ramp_colour, Pixmap, Svg};
-    use geo::{LineString, Polygon};
+    use geo::{Coord, LineString, Polygon};
 
     fn figure<'a>(grid: &'a Grid, values: &'a [Option<f64>]) -> HeatMap<'a> {
         HeatMap {
@@ -107,16 +110,17 @@ mod tests {
         let values: Vec<Option<f64>> = (0..100).map(|i| Some(if i % 10 < 5 { 0.0 } else { 10.0 })).collect();
         let map = figure(&g, &values);
         let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
-        draw_heat_map(&mut px, &map);
-        let at = |x: usize, y: usize| {
-            let i = (y * FIGURE_PX.0 as usize + x) * 4;
-            [px.rgba()[i], px.rgba()[i + 1], px.rgba()[i + 2]]
+        let frame = draw_heat_map(&mut px, &map);
+        let r = px.render().unwrap();
+        let at = |x: f64, y: f64| {
+            let (u, v) = frame.to_px(Coord { x, y });
+            r.rgb(u as u32, v as u32)
         };
-        // The plan box is centred in 24..724 × 80..680; its centre row, a quarter in from each side.
+        // Mid-height, a quarter in from the west and from the east edge of the square.
         let (lo, hi) = (ramp_colour(0.0, 0.0, 10.0), ramp_colour(10.0, 0.0, 10.0));
-        assert_eq!(at(24 + 175 + 50, 380), [lo.r, lo.g, lo.b]);
-        assert_eq!(at(24 + 525 - 50, 380), [hi.r, hi.g, hi.b]);
-        let png = px.to_png();
+        assert_eq!(at(2.5, 5.2), [lo.r, lo.g, lo.b]);
+        assert_eq!(at(7.5, 5.2), [hi.r, hi.g, hi.b]);
+        let png = px.to_png().unwrap();
         assert_eq!(&png[1..4], b"PNG");
         let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
         draw_heat_map(&mut svg, &map);

@@ -3,7 +3,7 @@
 
 use geo::{Coord, Rect};
 
-use super::draw::{Anchor, Draw, Image, INK};
+use super::draw::{Anchor, Draw, Image, INK, LABEL_PX, TEXT_PX};
 use super::plan::PlanFrame;
 use super::ramp::ramp_colour;
 use crate::exposure::Grid;
@@ -74,10 +74,10 @@ pub const LEGEND_PX: f64 = 320.0;
 pub fn draw_legend(d: &mut dyn Draw, x: f64, y: f64, label: &str, unit: &str, (lo, hi): (f64, f64)) -> f64 {
     let (lw, lh) = (24.0, LEGEND_PX);
     let title = if label.is_empty() { unit.to_string() } else { format!("{label} ({unit})") };
-    let lines = super::draw::wrap(&title, 13.0, 190.0);
-    let top = y + 16.0 * (lines.len().max(1) - 1) as f64;
+    let lines = super::draw::wrap(&title, TEXT_PX, 210.0);
+    let top = y + 19.0 * (lines.len().max(1) - 1) as f64;
     for (k, line) in lines.iter().enumerate() {
-        d.text(x, y - 10.0 + 16.0 * k as f64, 13.0, line, INK, Anchor::Start);
+        d.text(x, y - 10.0 + 19.0 * k as f64, TEXT_PX, line, INK, Anchor::Start);
     }
     let bands = 64;
     for k in 0..bands {
@@ -86,18 +86,57 @@ pub fn draw_legend(d: &mut dyn Draw, x: f64, y: f64, label: &str, unit: &str, (l
         d.fill_rect(x, top + lh - (k + 1) as f64 * lh / bands as f64, lw, lh / bands as f64 + 0.5, colour);
     }
     d.stroke(&[(x, top), (x + lw, top), (x + lw, top + lh), (x, top + lh)], 1.0, INK, true);
-    let digits = if (hi - lo).abs() >= 20.0 {
-        0
-    } else if (hi - lo).abs() >= 2.0 {
-        1
-    } else {
-        2
-    };
-    for k in 0..=4 {
-        let v = lo + (hi - lo) * f64::from(k) / 4.0;
-        let ty = top + lh - lh * f64::from(k) / 4.0;
+    let (ticks, digits) = nice_ticks(lo, hi, 6);
+    for v in ticks {
+        let ty = top + lh - lh * (v - lo) / (hi - lo);
         d.stroke(&[(x + lw, ty), (x + lw + 6.0, ty)], 1.0, INK, false);
-        d.text(x + lw + 10.0, ty + 4.0, 12.0, &format!("{v:.digits$}"), INK, Anchor::Start);
+        d.text(x + lw + 10.0, ty + 5.0, LABEL_PX, &format!("{v:.digits$}"), INK, Anchor::Start);
     }
     top + lh
+}
+
+/// Round tick values within `lo`…`hi`: multiples of 1, 2, 2.5 or 5 × 10ⁿ, at most `most` of them (at
+/// least two where the range allows), and the decimals that show them exactly (common practice for
+/// axis labels). An empty or reversed range gives its one value.
+pub fn nice_ticks(lo: f64, hi: f64, most: usize) -> (Vec<f64>, usize) {
+    if !(lo.is_finite() && hi.is_finite()) || hi <= lo {
+        return (vec![lo], 0);
+    }
+    let most = most.max(2) as f64;
+    let raw = (hi - lo) / (most - 1.0);
+    let p = 10f64.powf(raw.log10().floor());
+    let step = [1.0, 2.0, 2.5, 5.0, 10.0]
+        .into_iter()
+        .map(|k| k * p)
+        .find(|&s| ((hi - lo) / s).floor() + 1.0 <= most)
+        .unwrap_or(10.0 * p);
+    // Decimals: none for whole steps, else enough for the step (2.5 needs one, 0.25 two).
+    let digits = (0..6).find(|&n| ((step * 10f64.powi(n)).round() - step * 10f64.powi(n)).abs() < 1e-6).unwrap_or(6);
+    let unit = 10f64.powi(digits);
+    let first = (lo / step - 1e-9).ceil();
+    let ticks: Vec<f64> = (0..)
+        .map(|k| ((first + f64::from(k)) * step * unit).round() / unit)
+        .take_while(|v| *v <= hi + step * 1e-9)
+        .map(|v| if v == 0.0 { 0.0 } else { v })
+        .collect();
+    (ticks, digits as usize)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::nice_ticks;
+
+    #[test]
+    fn legend_ticks_are_round_numbers_inside_the_range() {
+        assert_eq!(nice_ticks(0.0, 12.2, 6), (vec![0.0, 2.5, 5.0, 7.5, 10.0], 1));
+        assert_eq!(nice_ticks(0.0, 10.0, 6), (vec![0.0, 2.0, 4.0, 6.0, 8.0, 10.0], 0));
+        assert_eq!(nice_ticks(0.0, 2.6, 6), (vec![0.0, 0.5, 1.0, 1.5, 2.0, 2.5], 1));
+        assert_eq!(nice_ticks(0.0, 1340.0, 6), (vec![0.0, 250.0, 500.0, 750.0, 1000.0, 1250.0], 0));
+        assert_eq!(nice_ticks(0.3, 0.95, 6), (vec![0.4, 0.6, 0.8], 1));
+        assert_eq!(nice_ticks(5.0, 5.0, 6), (vec![5.0], 0));
+        for (lo, hi) in [(0.0, 0.07), (3.0, 1e4), (-2.0, 2.0)] {
+            let (t, _) = nice_ticks(lo, hi, 6);
+            assert!(t.len() >= 2 && t.len() <= 6 && t.iter().all(|v| *v >= lo && *v <= hi), "{lo}..{hi}: {t:?}");
+        }
+    }
 }

@@ -1,28 +1,41 @@
-//! Pictures: one drawing abstraction ([`Draw`]) with a raster back end that writes PNG
-//! ([`Pixmap`]) and an SVG back end ([`Svg`]), so every figure drawn once can be exported either
-//! way (a canvas back end in the browser implements the same trait). Figures: the heat map of any
+//! Pictures: one drawing abstraction ([`Draw`]) with an SVG back end ([`Svg`]) and, natively, a raster
+//! back end that rasterises that same SVG with an embedded font and writes PNG (`Pixmap`), so every
+//! figure drawn once can be exported either way (a canvas back end in the browser implements the same
+//! trait). Figures: the heat map of any
 //! exposure map and the sun-path diagram. They are composed in pixel coordinates, y down.
 
 mod draw;
 mod elevation;
+mod font_widths;
+mod hatch;
 mod heat_map;
+mod labels;
 mod layer;
+#[cfg(not(target_arch = "wasm32"))]
 mod pixmap;
 mod plan;
 mod plan_view;
+mod png;
 mod ramp;
 mod ramp_table;
 mod restyle;
 mod sky_chart;
 mod svg;
 
-pub use draw::{footnote, heading, text_width_px, wrap, Anchor, Colour, Draw, Image, INK, PAPER};
+pub use draw::{
+    footnote, footnote_px, heading, text_width_px, wrap, Anchor, Colour, Draw, Image, FONT_FAMILY, INK, LABEL_PX,
+    MUTED, PAPER, TEXT_PX, TITLE_PX,
+};
 pub use elevation::{draw_elevation, elevation_size, Elevation, ELEVATION_PX};
+pub use hatch::hatch_segments;
 pub use heat_map::{draw_heat_map, HeatMap, FIGURE_PX};
+pub use labels::LabelPlacer;
 pub use layer::{draw_cells, draw_legend, MapLayer, LEGEND_PX};
-pub use pixmap::Pixmap;
+#[cfg(not(target_arch = "wasm32"))]
+pub use pixmap::{rasterise_svg, Pixmap, Raster, RasterError};
 pub use plan::{site_bounds, site_outlines, Outline, OutlineKind, PlanFrame};
 pub use plan_view::{draw_shadow_plan, PlanExtras, ShadowPlan};
+pub use png::encode_png;
 pub use ramp::{ramp, ramp_colour};
 pub use restyle::{Palette, Restyle};
 pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart};

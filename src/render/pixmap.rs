@@ -1,181 +1,178 @@
-//! The raster back end: an RGBA pixmap written as PNG. Polygons are filled at pixel centres with the
-//! same exact scanline rasteriser as the maps (no anti-aliasing); text uses the public-domain 8 × 8
-//! bitmap font of the `font8x8` crate, scaled by whole pixels.
+//! The raster back end (native only): a figure drawn as SVG and rasterised by `resvg`, with DejaVu Sans
+//! (from the `dejavu` crate) embedded as the only font, so a PNG is the SVG export's own picture —
+//! anti-aliased shapes, dashes, proportional text — on any machine, with no system fonts.
 
-use font8x8::UnicodeFonts;
-use geo::{Coord, LineString, Polygon};
+use std::sync::{Arc, OnceLock};
 
 use super::draw::{Anchor, Colour, Draw, Image};
-use crate::exposure::{Grid, RowSpans};
+use super::svg::Svg;
 
-/// An RGBA image being drawn, white to begin with.
+/// Why a figure could not be rasterised.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum RasterError {
+    /// The SVG the figure drew was refused by the SVG reader (a defect of the figure).
+    #[error("the figure's SVG could not be read: {0}")]
+    Svg(String),
+    /// The figure has no pixels or more than the rasteriser takes.
+    #[error("a {0} × {1} px figure cannot be rasterised")]
+    Size(u32, u32),
+    /// The PNG encoder failed.
+    #[error("the PNG encoder failed: {0}")]
+    Png(String),
+}
+
+/// An RGBA image drawn through the SVG back end and rasterised on demand.
 #[derive(Debug, Clone)]
 pub struct Pixmap {
-    width: u32,
-    height: u32,
-    rgba: Vec<u8>,
-    /// The pixels as a grid of unit cells (y down), for the rasteriser.
-    lattice: Grid,
-    /// The clip rectangle: left, top, right, bottom, pixels.
-    clip: Option<(f64, f64, f64, f64)>,
+    svg: Svg,
 }
 
-/// PNG bytes of an RGBA image.
-pub fn encode_png(rgba: &[u8], w: u32, h: u32) -> Vec<u8> {
-    let mut out = Vec::new();
-    {
-        let mut enc = png::Encoder::new(&mut out, w, h);
-        enc.set_color(png::ColorType::Rgba);
-        enc.set_depth(png::BitDepth::Eight);
-        if let Ok(mut writer) = enc.write_header() {
-            let _ = writer.write_image_data(rgba);
+/// The rasterised pixels of a figure.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Raster {
+    /// Width, pixels.
+    pub width: u32,
+    /// Height, pixels.
+    pub height: u32,
+    /// RGBA, row-major from the top, not premultiplied.
+    pub rgba: Vec<u8>,
+}
+
+impl Raster {
+    /// The RGB of the pixel at (`x`, `y`); white outside the image.
+    pub fn rgb(&self, x: u32, y: u32) -> [u8; 3] {
+        if x >= self.width || y >= self.height {
+            return [255, 255, 255];
         }
-    }
-    out
-}
-
-impl Pixmap {
-    /// A white image.
-    pub fn new(width: u32, height: u32) -> Self {
-        let (w, h) = (width.max(1), height.max(1));
-        let lattice = Grid {
-            origin: Coord { x: 0.0, y: 0.0 },
-            col0: 0,
-            row0: 0,
-            cell_m: 1.0,
-            cols: w as usize,
-            rows: h as usize,
-            inside: Vec::new(),
-        };
-        Pixmap { width: w, height: h, rgba: vec![255; (w * h * 4) as usize], lattice, clip: None }
-    }
-
-    /// The pixels, RGBA row-major from the top.
-    pub fn rgba(&self) -> &[u8] {
-        &self.rgba
+        let i = ((y * self.width + x) * 4) as usize;
+        [self.rgba[i], self.rgba[i + 1], self.rgba[i + 2]]
     }
 
     /// The image as PNG.
-    pub fn to_png(&self) -> Vec<u8> {
-        encode_png(&self.rgba, self.width, self.height)
+    ///
+    /// # Errors
+    /// [`RasterError::Png`] if the encoder fails.
+    pub fn to_png(&self) -> Result<Vec<u8>, RasterError> {
+        let size = resvg::tiny_skia::IntSize::from_wh(self.width, self.height)
+            .ok_or(RasterError::Size(self.width, self.height))?;
+        let pixmap = resvg::tiny_skia::Pixmap::from_vec(self.rgba.clone(), size)
+            .ok_or(RasterError::Size(self.width, self.height))?;
+        pixmap.encode_png().map_err(|e| RasterError::Png(e.to_string()))
+    }
+}
+
+/// The font database every rasterised figure uses: DejaVu Sans regular and bold, nothing else.
+fn fonts() -> Arc<resvg::usvg::fontdb::Database> {
+    static FONTS: OnceLock<Arc<resvg::usvg::fontdb::Database>> = OnceLock::new();
+    FONTS
+        .get_or_init(|| {
+            let mut db = resvg::usvg::fontdb::Database::new();
+            db.load_font_data(dejavu::sans::regular().to_vec());
+            db.load_font_data(dejavu::sans::bold().to_vec());
+            db.set_sans_serif_family("DejaVu Sans");
+            Arc::new(db)
+        })
+        .clone()
+}
+
+/// Rasterises an SVG document at its own size onto white paper.
+///
+/// # Errors
+/// [`RasterError`] when the document cannot be read or sized.
+pub fn rasterise_svg(svg: &str) -> Result<Raster, RasterError> {
+    let options =
+        resvg::usvg::Options { font_family: "DejaVu Sans".into(), fontdb: fonts(), ..resvg::usvg::Options::default() };
+    let tree = resvg::usvg::Tree::from_str(svg, &options).map_err(|e| RasterError::Svg(e.to_string()))?;
+    let size = tree.size().to_int_size();
+    let (w, h) = (size.width(), size.height());
+    let mut pixmap = resvg::tiny_skia::Pixmap::new(w, h).ok_or(RasterError::Size(w, h))?;
+    pixmap.fill(resvg::tiny_skia::Color::WHITE);
+    resvg::render(&tree, resvg::tiny_skia::Transform::identity(), &mut pixmap.as_mut());
+    // Opaque paper under everything: premultiplied and plain RGBA are the same bytes.
+    Ok(Raster { width: w, height: h, rgba: pixmap.take() })
+}
+
+impl Pixmap {
+    /// A blank figure, `width` × `height` pixels (at least 1 × 1).
+    pub fn new(width: u32, height: u32) -> Self {
+        Pixmap { svg: Svg::new(width.max(1), height.max(1)) }
     }
 
-    fn blend(&mut self, x: usize, y: usize, c: Colour) {
-        if x >= self.width as usize || y >= self.height as usize {
-            return;
-        }
-        if let Some((x0, y0, x1, y1)) = self.clip {
-            let (fx, fy) = (x as f64 + 0.5, y as f64 + 0.5);
-            if fx < x0 || fx >= x1 || fy < y0 || fy >= y1 {
-                return;
-            }
-        }
-        let i = (y * self.width as usize + x) * 4;
-        let a = u32::from(c.a);
-        for (k, v) in [c.r, c.g, c.b].into_iter().enumerate() {
-            let old = u32::from(self.rgba[i + k]);
-            self.rgba[i + k] = ((u32::from(v) * a + old * (255 - a)) / 255) as u8;
-        }
-        self.rgba[i + 3] = 255;
+    /// The figure's pixels.
+    ///
+    /// # Errors
+    /// [`RasterError`] if the drawing cannot be rasterised.
+    pub fn render(&self) -> Result<Raster, RasterError> {
+        rasterise_svg(&self.svg.finish())
+    }
+
+    /// The figure as PNG.
+    ///
+    /// # Errors
+    /// [`RasterError`] if the drawing cannot be rasterised or encoded.
+    pub fn to_png(&self) -> Result<Vec<u8>, RasterError> {
+        self.render()?.to_png()
+    }
+
+    /// The SVG document drawn so far.
+    pub fn svg(&self) -> String {
+        self.svg.finish()
     }
 }
 
 impl Draw for Pixmap {
     fn size(&self) -> (u32, u32) {
-        (self.width, self.height)
+        self.svg.size()
     }
-
     fn fill_polygon(&mut self, rings: &[Vec<(f64, f64)>], fill: Colour) {
-        let Some((outer, holes)) = rings.split_first() else { return };
-        let ls = |r: &Vec<(f64, f64)>| LineString::from(r.clone());
-        let poly = Polygon::new(ls(outer), holes.iter().map(ls).collect());
-        let mut spans = RowSpans::new(&self.lattice);
-        spans.add_polygon(&self.lattice, &poly);
-        for row in 0..self.lattice.rows {
-            for (a, b) in spans.merged(row) {
-                for x in a..b {
-                    self.blend(x, row, fill);
-                }
-            }
-        }
+        self.svg.fill_polygon(rings, fill);
     }
-
     fn stroke(&mut self, points: &[(f64, f64)], width_px: f64, colour: Colour, closed: bool) {
-        let n = points.len();
-        let segs = if closed { n } else { n.saturating_sub(1) };
-        let hw = (width_px / 2.0).max(0.5);
-        for i in 0..segs {
-            let (a, b) = (points[i], points[(i + 1) % n]);
-            let (dx, dy) = (b.0 - a.0, b.1 - a.1);
-            let len = dx.hypot(dy);
-            if len == 0.0 {
-                continue;
-            }
-            // The segment as a rectangle, extended by half the width at both ends (square caps).
-            let (ux, uy) = (dx / len * hw, dy / len * hw);
-            let (nx, ny) = (-uy, ux);
-            let quad = vec![
-                (a.0 - ux + nx, a.1 - uy + ny),
-                (b.0 + ux + nx, b.1 + uy + ny),
-                (b.0 + ux - nx, b.1 + uy - ny),
-                (a.0 - ux - nx, a.1 - uy - ny),
-            ];
-            self.fill_polygon(&[quad], colour);
-        }
+        self.svg.stroke(points, width_px, colour, closed);
     }
-
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
-        let scale = (size_px / 10.0).round().max(1.0) as usize;
-        let advance = 8 * scale;
-        let chars: Vec<char> = text.chars().map(|c| if c == '–' || c == '—' { '-' } else { c }).collect();
-        let width = (chars.len() * advance) as f64;
-        let x0 = match anchor {
-            Anchor::Start => x,
-            Anchor::Middle => x - width / 2.0,
-            Anchor::End => x - width,
-        };
-        let top = y - (7 * scale) as f64;
-        for (k, ch) in chars.iter().enumerate() {
-            let Some(glyph) = font8x8::BASIC_FONTS.get(*ch).or_else(|| font8x8::LATIN_FONTS.get(*ch)) else { continue };
-            for (gy, bits) in glyph.iter().enumerate() {
-                for gx in 0..8 {
-                    if bits & (1 << gx) != 0 {
-                        for sy in 0..scale {
-                            for sx in 0..scale {
-                                let px = x0 + (k * advance + gx * scale + sx) as f64;
-                                let py = top + (gy * scale + sy) as f64;
-                                if px >= 0.0 && py >= 0.0 {
-                                    self.blend(px as usize, py as usize, colour);
-                                }
-                            }
-                        }
-                    }
-                }
-            }
-        }
+        self.svg.text(x, y, size_px, text, colour, anchor);
     }
-
-    fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
-        self.clip = rect.map(|(x, y, w, h)| (x, y, x + w, y + h));
+    fn text_vertical(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
+        self.svg.text_vertical(x, y, size_px, text, colour, anchor);
     }
-
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
-        let (rgba, w, h) = (image.rgba, image.width, image.height);
-        if w == 0 || h == 0 || rgba.len() < (w * h * 4) as usize {
-            return;
-        }
-        let (x0, y0) = (x.round().max(0.0) as usize, y.round().max(0.0) as usize);
-        let (x1, y1) = ((x + width).round() as usize, (y + height).round() as usize);
-        for py in y0..y1.min(self.height as usize) {
-            let sy = (((py as f64 + 0.5 - y) / height * f64::from(h)) as usize).min(h as usize - 1);
-            for px in x0..x1.min(self.width as usize) {
-                let sx = (((px as f64 + 0.5 - x) / width * f64::from(w)) as usize).min(w as usize - 1);
-                let i = (sy * w as usize + sx) * 4;
-                let c = Colour { r: rgba[i], g: rgba[i + 1], b: rgba[i + 2], a: rgba[i + 3] };
-                if c.a > 0 {
-                    self.blend(px, py, c);
-                }
-            }
-        }
+        self.svg.image(x, y, width, height, image);
+    }
+    fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
+        self.svg.clip(rect);
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::render::INK;
+
+    #[test]
+    fn text_is_set_in_the_embedded_font_with_anti_aliasing() {
+        let mut px = Pixmap::new(200, 60);
+        px.text(10.0, 40.0, 30.0, "Sun", INK, Anchor::Start);
+        let r = px.render().unwrap();
+        let inked: Vec<u8> = (0..200).flat_map(|x| (0..60).map(move |y| (x, y))).map(|(x, y)| r.rgb(x, y)[0]).collect();
+        // Glyphs drawn (dark pixels) with grey edges (anti-aliasing), not bare black and white.
+        assert!(inked.iter().any(|&v| v < 60));
+        assert!(inked.iter().filter(|&&v| v > 60 && v < 200).count() > 20);
+        // The ink spans the measured width of "Sun" in DejaVu Sans within a few pixels.
+        let cols: Vec<u32> = (0..200).filter(|&x| (0..60).any(|y| r.rgb(x, y)[0] < 128)).collect();
+        let span = f64::from(cols[cols.len() - 1] - cols[0] + 1);
+        let want = crate::render::text_width_px(30.0, "Sun");
+        assert!((span - want).abs() < 6.0, "{span} px inked, {want} px measured");
+    }
+
+    #[test]
+    fn the_png_is_the_svg_rasterised() {
+        let mut px = Pixmap::new(40, 30);
+        px.fill_rect(0.0, 0.0, 20.0, 30.0, Colour::rgb(0, 114, 178));
+        let png = px.to_png().unwrap();
+        assert_eq!(&png[1..4], b"PNG");
+        let again = rasterise_svg(&px.svg()).unwrap();
+        assert_eq!(again.rgb(5, 5), [0, 114, 178]);
+        assert_eq!(again.rgb(35, 5), [255, 255, 255]);
     }
 }

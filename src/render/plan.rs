@@ -1,16 +1,20 @@
 //! What every plan figure shares: fitting the plan into a box, outlines of areas and volumes with
 //! labels where they fit, a scale bar, a true-north arrow and the key of outline styles.
 
-use geo::{BoundingRect, Coord, MultiPolygon, Polygon, Rect};
+use geo::{Area, BooleanOps, BoundingRect, Coord, MultiPolygon, Polygon, Rect};
 
 use crate::site::{SiteModel, Status};
 
-use super::draw::{text_width_px, Anchor, Colour, Draw, INK};
+use super::draw::{Anchor, Colour, Draw, INK, LABEL_PX, MUTED, TEXT_PX};
+use super::labels::LabelPlacer;
 
-const MUTED: Colour = Colour::rgb(110, 110, 110);
-/// The colour of proposed massing on every plan.
-pub const PROPOSED: Colour = Colour::rgb(200, 40, 120);
+/// The colour of the proposal on every plan: its outlines, and the shade it adds (deep indigo, CIE
+/// L* ≈ 24, far darker than the existing shade's grey; sunlot's own code).
+pub const PROPOSED: Colour = Colour::rgb(38, 48, 130);
+/// Roofs of existing buildings.
 const BUILDING: Colour = Colour::rgb(222, 222, 222);
+/// Roofs of proposed buildings: a pale tint of the proposal colour.
+const PROPOSED_ROOF: Colour = Colour::rgb(228, 230, 244);
 
 /// What an outline on the plan is.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -28,10 +32,13 @@ pub enum OutlineKind {
 pub struct Outline {
     /// Plan polygon, metres.
     pub polygon: Polygon<f64>,
-    /// Label drawn at its centre (may be empty).
+    /// Label drawn inside it where it fits, else beside it with a leader (may be empty).
     pub label: String,
     /// How it is drawn.
     pub kind: OutlineKind,
+    /// Where the label may go, if not anywhere in the polygon (a podium's label outside the taller
+    /// block standing on it), plan metres.
+    pub label_region: Option<MultiPolygon<f64>>,
 }
 
 impl OutlineKind {
@@ -114,32 +121,42 @@ impl PlanFrame {
     }
 }
 
-/// Existing buildings filled, every outline stroked in its style, labels where they fit inside
-/// their outline's width and clear of labels already placed.
+/// Roofs filled (existing grey, proposed a pale tint), every outline stroked in its style, then every
+/// label: inside its outline where it fits, else beside it with a leader, never over another label.
+/// Buildings are labelled before areas, the larger first.
 pub fn draw_outlines(d: &mut dyn Draw, frame: &PlanFrame, outlines: &[Outline]) {
-    for o in outlines.iter().filter(|o| o.kind == OutlineKind::Existing) {
-        d.fill_polygon(&frame.rings(&o.polygon), BUILDING);
+    for o in outlines {
+        match o.kind {
+            OutlineKind::Existing => d.fill_polygon(&frame.rings(&o.polygon), BUILDING),
+            OutlineKind::Proposed => d.fill_polygon(&frame.rings(&o.polygon), PROPOSED_ROOF),
+            OutlineKind::Area => {}
+        }
     }
-    let mut placed: Vec<(f64, f64, f64, f64)> = Vec::new();
     for o in outlines {
         let (colour, width) = o.kind.style();
         for ring in frame.rings(&o.polygon) {
             d.stroke(&ring, width, colour, true);
         }
-        let Some(r) = o.polygon.bounding_rect().filter(|_| !o.label.is_empty()) else { continue };
-        let tw = text_width_px(10.0, &o.label);
-        if tw > r.width() * frame.scale - 4.0 {
-            continue;
-        }
-        let (cx, cy) = frame.to_px(r.center());
-        for shift in [0.0, 14.0, -14.0, 28.0] {
-            let bx = (cx - tw / 2.0, cy + shift - 8.0, cx + tw / 2.0, cy + shift + 4.0);
-            if placed.iter().all(|p| bx.2 < p.0 || bx.0 > p.2 || bx.3 < p.1 || bx.1 > p.3) {
-                d.text(cx, cy + shift + 4.0, 10.0, &o.label, colour, Anchor::Middle);
-                placed.push(bx);
-                break;
-            }
-        }
+    }
+    let mut order: Vec<&Outline> = outlines.iter().filter(|o| !o.label.is_empty()).collect();
+    order.sort_by(|a, b| {
+        (a.kind == OutlineKind::Area)
+            .cmp(&(b.kind == OutlineKind::Area))
+            .then(b.polygon.unsigned_area().total_cmp(&a.polygon.unsigned_area()))
+    });
+    let mut placer = LabelPlacer::new(frame.bounds_px());
+    for o in order {
+        let colour = if o.kind == OutlineKind::Area { INK } else { o.kind.style().0 };
+        let rings: Vec<Vec<(f64, f64)>> = match &o.label_region {
+            Some(region) => region
+                .0
+                .iter()
+                .max_by(|a, b| a.unsigned_area().total_cmp(&b.unsigned_area()))
+                .map(|p| frame.rings(p))
+                .unwrap_or_default(),
+            None => frame.rings(&o.polygon),
+        };
+        placer.label(d, &rings, &o.label, LABEL_PX, colour);
     }
 }
 
@@ -153,9 +170,12 @@ fn nice_length(target: f64) -> f64 {
 pub fn draw_scale_bar(d: &mut dyn Draw, frame: &PlanFrame) {
     let len_m = nice_length(frame.ext.width() / 4.0);
     let (sx, sy) = (frame.bx, frame.by + frame.bh + 24.0);
-    d.fill_rect(sx, sy - 6.0, len_m * frame.scale, 6.0, INK);
-    d.text(sx, sy + 16.0, 11.0, "0", INK, Anchor::Middle);
-    d.text(sx + len_m * frame.scale, sy + 16.0, 11.0, &format!("{len_m} m"), INK, Anchor::Middle);
+    let half = len_m * frame.scale / 2.0;
+    // Two halves, filled and open: the bar reads in greyscale and at any size.
+    d.fill_rect(sx, sy - 6.0, half, 6.0, INK);
+    d.stroke(&[(sx, sy - 6.0), (sx + 2.0 * half, sy - 6.0), (sx + 2.0 * half, sy), (sx, sy)], 1.0, INK, true);
+    d.text(sx, sy + 18.0, LABEL_PX, "0", INK, Anchor::Middle);
+    d.text(sx + 2.0 * half, sy + 18.0, LABEL_PX, &format!("{len_m} m"), INK, Anchor::Middle);
 }
 
 /// True north at the top right of the plan's box: the plan's north turned back by its rotation.
@@ -166,7 +186,7 @@ pub fn draw_north_arrow(d: &mut dyn Draw, frame: &PlanFrame, plan_rotation_deg: 
     let left = (nx - 0.45 * r * c - 0.6 * r * s, ny - 0.45 * r * s + 0.6 * r * c);
     let right = (nx + 0.45 * r * c - 0.6 * r * s, ny + 0.45 * r * s + 0.6 * r * c);
     d.fill_polygon(&[vec![tip, right, (nx, ny), left]], INK);
-    d.text(tip.0 + 14.0 * s, tip.1 - 14.0 * c + 4.0, 12.0, "N", INK, Anchor::Middle);
+    d.text(tip.0 + 14.0 * s, tip.1 - 14.0 * c + 5.0, TEXT_PX, "N", INK, Anchor::Middle);
 }
 
 /// The key of the outline styles present, one line each from (`x`, `y`) down; returns the next free y.
@@ -177,24 +197,47 @@ pub fn outline_key(d: &mut dyn Draw, outlines: &[Outline], x: f64, y: f64) -> f6
     {
         if outlines.iter().any(|o| o.kind == kind) {
             let (colour, width) = kind.style();
-            d.stroke(&[(x, y), (x + 24.0, y)], width, colour, false);
-            d.text(x + 34.0, y + 4.0, 12.0, label, INK, Anchor::Start);
-            y += 22.0;
+            let swatch = [(x, y - 9.0), (x + 24.0, y - 9.0), (x + 24.0, y + 5.0), (x, y + 5.0)];
+            match kind {
+                OutlineKind::Existing => d.fill_polygon(&[swatch.to_vec()], BUILDING),
+                OutlineKind::Proposed => d.fill_polygon(&[swatch.to_vec()], PROPOSED_ROOF),
+                OutlineKind::Area => {}
+            }
+            d.stroke(&swatch, width, colour, true);
+            d.text(x + 34.0, y + 3.0, TEXT_PX, label, INK, Anchor::Start);
+            y += 24.0;
         }
     }
     y
 }
 
-/// The plan outlines of a site: areas, existing and proposed volumes.
+/// The plan outlines of a site: areas labelled by id, volumes by the height of their top; a volume's
+/// label stays off the footprints of taller volumes over it (a podium's on the podium, not on the
+/// block it carries).
 pub fn site_outlines(model: &SiteModel) -> Vec<Outline> {
     let mut out: Vec<Outline> = model
         .areas
         .iter()
-        .map(|a| Outline { polygon: a.polygon.clone(), label: a.id.clone(), kind: OutlineKind::Area })
+        .map(|a| Outline {
+            polygon: a.polygon.clone(),
+            label: a.id.clone(),
+            kind: OutlineKind::Area,
+            label_region: None,
+        })
         .collect();
     for v in &model.volumes {
         let kind = if v.status == Status::Proposed { OutlineKind::Proposed } else { OutlineKind::Existing };
-        out.push(Outline { polygon: v.footprint.clone(), label: format!("{} m", v.top_m), kind });
+        let own = MultiPolygon::new(vec![v.footprint.clone()]);
+        let taller: Vec<Polygon<f64>> =
+            model.volumes.iter().filter(|o| o.top_m > v.top_m).map(|o| o.footprint.clone()).collect();
+        let region = (!taller.is_empty()).then(|| own.difference(&MultiPolygon::new(taller)));
+        let label = format!("{} m", v.top_m);
+        out.push(Outline {
+            polygon: v.footprint.clone(),
+            label,
+            kind,
+            label_region: region.filter(|r| r.unsigned_area() > 0.0),
+        });
     }
     out
 }

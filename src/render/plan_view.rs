@@ -3,7 +3,8 @@
 
 use geo::{BooleanOps, Coord, MultiPolygon, Rect};
 
-use super::draw::{footnote, heading, Anchor, Colour, Draw, INK, PAPER};
+use super::draw::{footnote, footnote_px, heading, Anchor, Colour, Draw, INK, PAPER, TEXT_PX};
+use super::hatch::hatch_segments;
 use super::layer::{draw_cells, draw_legend, MapLayer};
 use super::plan::{
     draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, site_bounds, site_outlines, Outline, PlanFrame,
@@ -12,8 +13,24 @@ use super::plan::{
 use crate::shadow::Study;
 use crate::site::SiteModel;
 
-const EXISTING_SHADE: Colour = Colour { r: 60, g: 60, b: 90, a: 110 };
-const ADDED_SHADE: Colour = Colour { r: PROPOSED.r, g: PROPOSED.g, b: PROPOSED.b, a: 120 };
+/// Shade of the existing massing: a light neutral grey veil (CIE L* ≈ 76 on paper).
+pub const EXISTING_SHADE: Colour = Colour { r: 80, g: 80, b: 80, a: 100 };
+/// Shade the proposal adds: the proposal's indigo, denser (L* ≈ 47 on paper, ≥ 25 below the existing
+/// shade however colours are seen), hatched and outlined so it also reads in greyscale print.
+pub const ADDED_SHADE: Colour = Colour { r: PROPOSED.r, g: PROPOSED.g, b: PROPOSED.b, a: 178 };
+/// Spacing of the added shade's hatching, pixels.
+const HATCH_PX: f64 = 7.0;
+
+/// Fills the shade the proposal adds in `rings` (pixels): the veil, diagonal hatching and an outline.
+pub fn draw_added_shade(d: &mut dyn Draw, rings: &[Vec<(f64, f64)>]) {
+    d.fill_polygon(rings, ADDED_SHADE);
+    for [a, b] in hatch_segments(rings, HATCH_PX) {
+        d.stroke(&[a, b], 1.2, PROPOSED, false);
+    }
+    for ring in rings {
+        d.stroke(ring, 1.2, PROPOSED, true);
+    }
+}
 
 /// A shadow plan to draw (sized [`super::FIGURE_PX`]).
 #[derive(Debug, Clone)]
@@ -73,6 +90,21 @@ impl ShadowPlan {
     }
 }
 
+/// Width of the key column at the right of a plan figure, pixels.
+pub const KEY_PX: f64 = 250.0;
+
+/// The key of the two shades, from (`x`, `y`) down; returns the next free y.
+pub fn shade_key(d: &mut dyn Draw, x: f64, y: f64) -> f64 {
+    let swatch = |y: f64| vec![(x, y - 11.0), (x + 28.0, y - 11.0), (x + 28.0, y + 5.0), (x, y + 5.0)];
+    d.fill_polygon(&[swatch(y)], EXISTING_SHADE);
+    d.stroke(&swatch(y), 1.0, Colour::rgb(150, 150, 150), true);
+    d.text(x + 38.0, y + 3.0, TEXT_PX, "existing shade", INK, Anchor::Start);
+    let y2 = y + 26.0;
+    draw_added_shade(d, &[swatch(y2)]);
+    d.text(x + 38.0, y2 + 3.0, TEXT_PX, "added by proposal", INK, Anchor::Start);
+    y2 + 26.0
+}
+
 /// What a shadow plan may show besides the shadows: a map layer under them (with its cells as
 /// pixels, from [`MapLayer::rgba`]) and a view (pan and zoom) instead of the whole site.
 #[derive(Debug, Clone, Copy, Default)]
@@ -88,8 +120,8 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, PAPER);
-    heading(d, &plan.title, &plan.subtitle);
-    let plan_box = (24.0, 80.0, w - 260.0, h - 200.0);
+    let top = heading(d, &plan.title, &plan.subtitle);
+    let plan_box = (24.0, top, w - 24.0 - KEY_PX, h - top - 56.0 - footnote_px(&plan.caution, w));
     let frame = match extras.view {
         Some((centre, width_m)) => PlanFrame::view(centre, width_m, plan_box),
         None => PlanFrame::fit(plan.extent, &plan.outlines, plan_box),
@@ -98,10 +130,11 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     if let Some((layer, rgba)) = extras.layer {
         draw_cells(d, &frame, layer, rgba);
     }
-    for (mp, colour) in [(&plan.existing, EXISTING_SHADE), (&plan.added, ADDED_SHADE)] {
-        for p in &mp.0 {
-            d.fill_polygon(&frame.rings(p), colour);
-        }
+    for p in &plan.existing.0 {
+        d.fill_polygon(&frame.rings(p), EXISTING_SHADE);
+    }
+    for p in &plan.added.0 {
+        draw_added_shade(d, &frame.rings(p));
     }
     draw_outlines(d, &frame, &plan.outlines);
     d.clip(None);
@@ -111,17 +144,10 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     }
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, plan.plan_rotation_deg);
-    let (lx, ly) = (w - 200.0, frame.by + 20.0);
-    for (k, (colour, label)) in
-        [(EXISTING_SHADE, "shade of existing"), (ADDED_SHADE, "added by proposal")].iter().enumerate()
-    {
-        let y = ly + 22.0 * k as f64;
-        d.fill_rect(lx, y - 10.0, 24.0, 12.0, *colour);
-        d.text(lx + 34.0, y, 12.0, label, INK, Anchor::Start);
-    }
-    let mut y = ly + 60.0;
+    let (lx, ly) = (w - KEY_PX + 16.0, frame.by + 20.0);
+    let mut y = shade_key(d, lx, ly) + 14.0;
     if let Some((layer, _)) = extras.layer {
-        y = draw_legend(d, lx, y + 10.0, &layer.label, &layer.unit, layer.range) + 30.0;
+        y = draw_legend(d, lx, y + 14.0, &layer.label, &layer.unit, layer.range) + 30.0;
     }
     outline_key(d, &plan.outlines, lx, y);
     footnote(d, &plan.caution);
@@ -160,18 +186,19 @@ mod tests {
         let extras = PlanExtras { layer: Some((&layer, &rgba)), view: Some((Coord { x: 14.0, y: 20.0 }, 10.0)) };
         let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
         let frame = draw_shadow_plan(&mut px, &p, &extras);
-        assert!((frame.scale - 70.0).abs() < 1e-9, "700 px over 10 m");
-        let at = |x: usize, y: usize| {
-            let i = (y * FIGURE_PX.0 as usize + x) * 4;
-            [px.rgba()[i], px.rgba()[i + 1], px.rgba()[i + 2]]
-        };
+        let (bx, by, bw, bh) = frame.bounds_px();
+        assert!((frame.scale - bw / 10.0).abs() < 1e-9, "the box's width over 10 m");
+        let r = px.render().unwrap();
+        let at = |x: f64, y: f64| r.rgb(x as u32, y as u32);
         // Just inside the box's corners: the layer (under shade or outlines, never paper); just
         // outside the box (left margin, under the box): paper.
-        for (x, y) in [(30, 90), (716, 90), (30, 634), (716, 634)] {
+        for (x, y) in
+            [(bx + 6.0, by + 6.0), (bx + bw - 6.0, by + 6.0), (bx + 6.0, by + bh - 6.0), (bx + bw - 6.0, by + bh - 6.0)]
+        {
             assert_ne!(at(x, y), [255, 255, 255], "({x}, {y})");
         }
-        assert_eq!(at(10, 300), [255, 255, 255]);
-        assert_eq!(at(300, 650), [255, 255, 255]);
+        assert_eq!(at(10.0, by + bh / 2.0), [255, 255, 255]);
+        assert_eq!(at(bx + bw / 2.0, by + bh + 3.0), [255, 255, 255]);
     }
 
     #[test]

@@ -55,6 +55,9 @@ impl Draw for Restyle<'_> {
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
         self.inner.text(x, y, size_px, text, self.palette.swap(colour), anchor);
     }
+    fn text_vertical(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
+        self.inner.text_vertical(x, y, size_px, text, self.palette.swap(colour), anchor);
+    }
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
         self.inner.image(x, y, width, height, image);
     }

@@ -9,28 +9,33 @@
 
 use chrono::{DateTime, Duration, NaiveDate, NaiveTime, Utc};
 
-use super::draw::{heading, Anchor, Colour, Draw, INK, PAPER};
+use super::draw::{heading, Anchor, Colour, Draw, INK, LABEL_PX, MUTED, PAPER, TEXT_PX};
+use super::hatch::hatch_segments;
 use crate::exposure::Massing;
 use crate::shadow::{analysis_extent, skyline, Receiver, ViewPoint};
 use crate::site::SiteModel;
 use crate::solar::{Atmosphere, Ephemeris, InputError, Site};
 use crate::time::{DeltaT, Fold, Zone};
 
-const GRID: Colour = Colour::rgb(190, 190, 190);
-const HOUR: Colour = Colour::rgb(120, 120, 120);
-const OBSTRUCTION: Colour = Colour { r: 90, g: 90, b: 90, a: 150 };
+const GRID: Colour = Colour::rgb(200, 200, 200);
+const HOUR: Colour = Colour::rgb(150, 130, 110);
+/// The obstructed sky: a pale veil, hatched, under a dark skyline.
+const OBSTRUCTION: Colour = Colour { r: 70, g: 70, b: 70, a: 60 };
+const OBSTRUCTION_LINE: Colour = Colour::rgb(70, 70, 70);
 const SUN: Colour = Colour::rgb(230, 159, 0);
 
-/// Colours of the day paths: the Okabe–Ito palette, chosen to stay distinct with colour-vision
-/// deficiency (Okabe, M. & Ito, K. (2008), "Color Universal Design").
+/// Colours of the day paths, sunlot's own: winter deep blue through the equinox's near-black to
+/// summer deep red-orange, in the order of the sun's height, every one dark enough to read on white
+/// paper (CIE L* 25–55) and ordered in lightness and hue so neighbours stay apart for readers with
+/// red-green colour-vision deficiency. Index 0 is December, 6 June (see `key` in [`draw_sky_chart`]).
 const PATH_COLOURS: [Colour; 7] = [
-    Colour::rgb(0, 114, 178),
-    Colour::rgb(213, 94, 0),
-    Colour::rgb(0, 158, 115),
-    Colour::rgb(204, 121, 167),
-    Colour::rgb(86, 180, 233),
-    Colour::rgb(0, 0, 0),
-    Colour::rgb(240, 228, 66),
+    Colour::rgb(24, 52, 130),
+    Colour::rgb(40, 96, 168),
+    Colour::rgb(48, 128, 150),
+    Colour::rgb(40, 40, 40),
+    Colour::rgb(170, 110, 20),
+    Colour::rgb(196, 80, 24),
+    Colour::rgb(160, 36, 24),
 ];
 
 /// How the sky is drawn.
@@ -194,18 +199,18 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         if chart.site.longitude_deg >= 0.0 { "E" } else { "W" },
         chart.zone
     );
-    heading(d, &chart.title, &sub);
-    let (plot_w, plot_h) = (w - 220.0, h - 110.0);
-    let r = (plot_w.min(plot_h) / 2.0 - 24.0).max(10.0);
+    let top = heading(d, &chart.title, &sub);
+    let (plot_w, plot_h) = (w - 240.0, h - top - 40.0);
+    let r = (plot_w.min(plot_h) / 2.0 - 28.0).max(10.0);
     let frame = Frame {
         projection: chart.projection,
         cx: 24.0 + plot_w / 2.0,
-        cy: 70.0 + plot_h / 2.0,
+        cy: top + plot_h / 2.0,
         r,
         x0: 48.0,
-        y0: 80.0,
+        y0: top + 10.0,
         w: plot_w - 48.0,
-        h: plot_h - 40.0,
+        h: plot_h - 50.0,
     };
 
     // Obstructions first, under everything: the skyline filled down to the horizon.
@@ -215,12 +220,15 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             ring.push(frame.at(359.999, chart.skyline[0].1));
             ring.push(frame.at(359.999, 0.0));
             ring.push(frame.at(0.0, 0.0));
-            d.fill_polygon(&[ring], OBSTRUCTION);
+            obstruction(d, &[ring]);
         } else {
             // Between the horizon circle and the skyline: the horizon as the outer ring, the skyline
             // as a hole (even-odd), so only the obstructed band is filled.
             let horizon: Vec<(f64, f64)> = (0..360).map(|a| frame.at(f64::from(a), 0.0)).collect();
-            d.fill_polygon(&[horizon, ring], OBSTRUCTION);
+            obstruction(d, &[horizon, ring.clone()]);
+        }
+        for line in polylines(&frame, &chart.skyline) {
+            d.stroke(&line, 1.5, OBSTRUCTION_LINE, chart.projection != Projection::Rectangular);
         }
     }
 
@@ -231,7 +239,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         d.stroke(&line, if alt == 0.0 { 1.5 } else { 0.7 }, if alt == 0.0 { INK } else { GRID }, false);
         if alt > 0.0 {
             let (x, y) = frame.at(0.0, alt);
-            d.text(x + 3.0, y + 12.0, 10.0, &format!("{alt:.0}°"), Colour::rgb(140, 140, 140), Anchor::Start);
+            d.text(x + 4.0, y + 14.0, LABEL_PX, &format!("{alt:.0}°"), MUTED, Anchor::Start);
         }
     }
     for az in (0..360).step_by(30) {
@@ -245,13 +253,13 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             a => format!("{a}°"),
         };
         let (x, y) = match chart.projection {
-            Projection::Rectangular => (frame.at(az, 0.0).0, frame.y0 + frame.h + 18.0),
+            Projection::Rectangular => (frame.at(az, 0.0).0, frame.y0 + frame.h + 20.0),
             _ => {
                 let (s, c) = az.to_radians().sin_cos();
-                (frame.cx + (r + 14.0) * s, frame.cy - (r + 14.0) * c + 4.0)
+                (frame.cx + (r + 18.0) * s, frame.cy - (r + 18.0) * c + 5.0)
             }
         };
-        d.text(x, y, 11.0, &label, INK, Anchor::Middle);
+        d.text(x, y, TEXT_PX, &label, INK, Anchor::Middle);
     }
 
     // Hour lines: the sun at each whole local hour on every fifth day of the year.
@@ -291,8 +299,17 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         }
         flush(d, &mut pts);
         if let Some((az, alt)) = best {
+            // The hour in a small ring at the figure's summer end.
             let (x, y) = frame.at(az, alt);
-            d.text(x, y - 6.0, 10.0, &format!("{hour:02}"), HOUR, Anchor::Middle);
+            let ring: Vec<(f64, f64)> = (0..20)
+                .map(|k| {
+                    let a = f64::from(k) * 18f64.to_radians();
+                    (x + 10.0 * a.cos(), y - 12.0 + 10.0 * a.sin())
+                })
+                .collect();
+            d.fill_polygon(std::slice::from_ref(&ring), PAPER);
+            d.stroke(&ring, 0.8, HOUR, true);
+            d.text(x, y - 8.0, 11.0, &format!("{hour}"), Colour::rgb(110, 90, 70), Anchor::Middle);
         }
     }
 
@@ -320,13 +337,21 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             None => legend.push((c, label.clone())),
         }
     }
-    for (row, (c, label)) in legend.iter().enumerate() {
-        let ly = 90.0 + 20.0 * row as f64;
-        d.stroke(&[(w - 180.0, ly - 4.0), (w - 156.0, ly - 4.0)], 2.0, PATH_COLOURS[*c], false);
-        d.text(w - 148.0, ly, 12.0, label, INK, Anchor::Start);
+    if paired {
+        legend.sort_by_key(|(c, _)| *c);
     }
+    let key_x = w - 200.0;
+    d.text(key_x, top + 10.0, TEXT_PX, "Day paths", INK, Anchor::Start);
+    for (row, (c, label)) in legend.iter().enumerate() {
+        let ly = top + 36.0 + 22.0 * row as f64;
+        d.stroke(&[(key_x, ly - 5.0), (key_x + 26.0, ly - 5.0)], path_width(*c), PATH_COLOURS[*c], false);
+        d.text(key_x + 34.0, ly, LABEL_PX, label, INK, Anchor::Start);
+    }
+    // Each colour's path is labelled on the chart at its highest point (its label, the day dropped
+    // when every date is a 21st).
+    let mut tags: Vec<(usize, (f64, f64))> = Vec::new();
     for (k, (date, _)) in chart.dates.iter().enumerate() {
-        let colour = PATH_COLOURS[key(k, date)];
+        let c = key(k, date);
         let start = chart.zone.start_of_day(*date);
         let mut pts = Vec::new();
         for m in (0..=24 * 60).step_by(5) {
@@ -336,8 +361,25 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             }
         }
         for line in polylines(&frame, &pts) {
-            d.stroke(&line, 2.0, colour, false);
+            d.stroke(&line, path_width(c), PATH_COLOURS[c], false);
         }
+        if let Some(high) = pts.iter().copied().max_by(|a, b| a.1.total_cmp(&b.1)) {
+            if !tags.iter().any(|(j, _)| *j == c) {
+                tags.push((c, high));
+            }
+        }
+    }
+    // Neighbouring paths' labels on alternate sides of their highest points.
+    tags.sort_by(|a, b| a.1 .1.total_cmp(&b.1 .1));
+    for (n, (c, (az, alt))) in tags.into_iter().enumerate() {
+        let Some((_, text)) = legend.iter().find(|(j, _)| *j == c) else { continue };
+        let text = if paired { text.replace("21 ", "") } else { text.clone() };
+        let (x, y) = frame.at(az, alt);
+        let tw = super::draw::text_width_px(LABEL_PX, &text);
+        let (left, anchor, tx) =
+            if n % 2 == 0 { (x + 6.0, Anchor::Start, x + 9.0) } else { (x - tw - 12.0, Anchor::End, x - 9.0) };
+        d.fill_rect(left, y - 16.0, tw + 6.0, 16.0, Colour { a: 210, ..PAPER });
+        d.text(tx, y - 4.0, LABEL_PX, &text, PATH_COLOURS[c], anchor);
     }
 
     if let Some(t) = chart.now {
@@ -353,23 +395,47 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             d.fill_polygon(std::slice::from_ref(&disc), SUN);
             d.stroke(&disc, 1.0, INK, true);
             let label = chart.zone.local(t).format("sun at %H:%M").to_string();
-            d.text(x + 10.0, y - 8.0, 11.0, &label, INK, Anchor::Start);
+            d.text(x + 11.0, y - 9.0, TEXT_PX, &label, INK, Anchor::Start);
         }
     }
+    let mut y = top + 36.0 + 22.0 * legend.len() as f64 + 14.0;
     if !chart.skyline.is_empty() {
-        let y = 90.0 + 20.0 * legend.len() as f64 + 10.0;
-        d.fill_rect(w - 180.0, y - 10.0, 24.0, 12.0, OBSTRUCTION);
-        d.text(w - 148.0, y, 12.0, "obstructions", INK, Anchor::Start);
+        let swatch = vec![(key_x, y - 12.0), (key_x + 26.0, y - 12.0), (key_x + 26.0, y + 4.0), (key_x, y + 4.0)];
+        obstruction(d, std::slice::from_ref(&swatch));
+        d.stroke(&swatch, 1.0, OBSTRUCTION_LINE, true);
+        d.text(key_x + 34.0, y, LABEL_PX, "sky hidden by", INK, Anchor::Start);
+        d.text(key_x + 34.0, y + 17.0, LABEL_PX, "buildings and ground", INK, Anchor::Start);
+        y += 44.0;
     }
-    d.text(
-        24.0,
-        h - 14.0,
-        11.0,
-        "Hour lines: local clock time through the year. Indicative; NREL SPA positions.",
-        Colour::rgb(110, 110, 110),
-        Anchor::Start,
-    );
+    for (k, line) in super::draw::wrap(
+        "Hour lines: the sun at each whole hour of local clock time through the year.",
+        LABEL_PX,
+        190.0,
+    )
+    .iter()
+    .enumerate()
+    {
+        d.text(key_x, y + 17.0 * k as f64, LABEL_PX, line, MUTED, Anchor::Start);
+    }
+    d.text(24.0, h - 14.0, LABEL_PX, "Indicative; NREL SPA positions.", MUTED, Anchor::Start);
     Ok(())
+}
+
+/// Line width of day path colour `c`: the solstices and equinoxes heavier.
+fn path_width(c: usize) -> f64 {
+    if matches!(c, 0 | 3 | 6) {
+        2.8
+    } else {
+        1.6
+    }
+}
+
+/// Fills the obstructed sky in `rings` (even-odd): a pale veil with hatching.
+fn obstruction(d: &mut dyn Draw, rings: &[Vec<(f64, f64)>]) {
+    d.fill_polygon(rings, OBSTRUCTION);
+    for [a, b] in hatch_segments(rings, 6.0) {
+        d.stroke(&[a, b], 0.8, OBSTRUCTION_LINE, false);
+    }
 }
 
 #[cfg(test)]
@@ -397,15 +463,14 @@ mod tests {
         draw_sky_chart(&mut px, &chart).unwrap();
         // Solar noon at 52° N on the June solstice: altitude 90 − 52 + 23.44 = 61.44°, due south
         // (common practice); the path's colour is found at that point of the chart.
-        let frame_r = ((900.0_f64 - 220.0).min(700.0 - 110.0) / 2.0 - 24.0).max(10.0);
-        let (cx, cy) = (24.0 + (900.0 - 220.0) / 2.0, 70.0 + (700.0 - 110.0) / 2.0);
+        let top = heading(&mut crate::render::Svg::new(900, 700), &chart.title, "52.000° N, 0.000° E, clock times UTC");
+        let frame_r = ((900.0_f64 - 240.0).min(700.0 - top - 40.0) / 2.0 - 28.0).max(10.0);
+        let (cx, cy) = (24.0 + (900.0 - 240.0) / 2.0, top + (700.0 - top - 40.0) / 2.0);
         let rho = ((90.0_f64 - 61.44) / 2.0).to_radians().tan();
         let (x, y) = (cx, cy + frame_r * rho);
         let c = PATH_COLOURS[6]; // June: the solstice colour of the paired monthly scheme
-        let found = (-3..=3).any(|dy| {
-            let i = (((y + f64::from(dy)) as usize) * 900 + x as usize) * 4;
-            px.rgba()[i..i + 3] == [c.r, c.g, c.b]
-        });
+        let r = px.render().unwrap();
+        let found = (-3..=3).any(|dy| r.rgb(x as u32, (y + f64::from(dy)) as u32) == [c.r, c.g, c.b]);
         assert!(found, "the June path crosses due south at 61.4°");
     }
 }

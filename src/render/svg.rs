@@ -4,7 +4,7 @@ use std::fmt::Write;
 
 use base64::Engine;
 
-use super::draw::{Anchor, Colour, Draw, Image};
+use super::draw::{Anchor, Colour, Draw, Image, FONT_FAMILY};
 
 /// An SVG document being drawn.
 #[derive(Debug, Clone)]
@@ -42,12 +42,30 @@ impl Svg {
     pub fn finish(&self) -> String {
         format!(
             "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{w}\" height=\"{h}\" viewBox=\"0 0 {w} {h}\" \
-             font-family=\"monospace\">\n{}{}</svg>\n",
+             font-family=\"{font}\">\n{}{}</svg>\n",
             self.body,
             if self.clipped { "</g>\n" } else { "" },
             w = self.width,
-            h = self.height
+            h = self.height,
+            font = FONT_FAMILY.replace('\'', "&apos;")
         )
+    }
+}
+
+impl Svg {
+    #[allow(clippy::too_many_arguments)]
+    fn text_turned(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor, turn: &str) {
+        let a = match anchor {
+            Anchor::Start => "start",
+            Anchor::Middle => "middle",
+            Anchor::End => "end",
+        };
+        let _ = writeln!(
+            self.body,
+            "<text x=\"{x:.1}\" y=\"{y:.1}\" font-size=\"{size_px}\" fill=\"{}\" text-anchor=\"{a}\"{turn}>{}</text>",
+            colour.css(),
+            esc(text)
+        );
     }
 }
 
@@ -71,17 +89,11 @@ impl Draw for Svg {
     }
 
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
-        let a = match anchor {
-            Anchor::Start => "start",
-            Anchor::Middle => "middle",
-            Anchor::End => "end",
-        };
-        let _ = writeln!(
-            self.body,
-            "<text x=\"{x:.1}\" y=\"{y:.1}\" font-size=\"{size_px}\" fill=\"{}\" text-anchor=\"{a}\">{}</text>",
-            colour.css(),
-            esc(text)
-        );
+        self.text_turned(x, y, size_px, text, colour, anchor, "");
+    }
+
+    fn text_vertical(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
+        self.text_turned(x, y, size_px, text, colour, anchor, &format!(" transform=\"rotate(-90 {x:.1} {y:.1})\""));
     }
 
     fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
@@ -102,12 +114,12 @@ impl Draw for Svg {
     }
 
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
-        let png = super::pixmap::encode_png(image.rgba, image.width, image.height);
+        let png = super::png::encode_png(image.rgba, image.width, image.height);
         let data = base64::engine::general_purpose::STANDARD.encode(png);
         let _ = writeln!(
             self.body,
             "<image x=\"{x:.2}\" y=\"{y:.2}\" width=\"{width:.2}\" height=\"{height:.2}\" preserveAspectRatio=\"none\" \
-             style=\"image-rendering:pixelated\" href=\"data:image/png;base64,{data}\"/>"
+             image-rendering=\"optimizeSpeed\" style=\"image-rendering:pixelated\" href=\"data:image/png;base64,{data}\"/>"
         );
     }
 }

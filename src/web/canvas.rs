@@ -15,7 +15,7 @@ pub struct Canvas {
     height: u32,
     /// Whether a clip is in force (saved on the context's stack).
     clipped: bool,
-    /// The CSS font family of text (the canvas's `data-font`, else monospace).
+    /// The CSS font family of text (the canvas's `data-font`, else [`crate::render::FONT_FAMILY`]).
     font: String,
 }
 
@@ -43,7 +43,7 @@ impl Canvas {
         let font = canvas
             .get_attribute("data-font")
             .filter(|f| !f.is_empty() && f.len() < 200 && !f.contains(';'))
-            .unwrap_or_else(|| "monospace".into());
+            .unwrap_or_else(|| crate::render::FONT_FAMILY.into());
         let size = |px: u32| (f64::from(px) / scale).round() as u32;
         Ok(Canvas { ctx, width: size(canvas.width()), height: size(canvas.height()), clipped: false, font })
     }
@@ -59,6 +59,18 @@ impl Canvas {
         if closed {
             self.ctx.close_path();
         }
+    }
+}
+
+impl Canvas {
+    fn text_style(&self, size_px: f64, colour: Colour, anchor: Anchor) {
+        self.ctx.set_font(&format!("{size_px}px {}", self.font));
+        self.ctx.set_text_align(match anchor {
+            Anchor::Start => "start",
+            Anchor::Middle => "center",
+            Anchor::End => "end",
+        });
+        self.ctx.set_fill_style_str(&colour.css());
     }
 }
 
@@ -86,14 +98,17 @@ impl Draw for Canvas {
     }
 
     fn text(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
-        self.ctx.set_font(&format!("{size_px}px {}", self.font));
-        self.ctx.set_text_align(match anchor {
-            Anchor::Start => "start",
-            Anchor::Middle => "center",
-            Anchor::End => "end",
-        });
-        self.ctx.set_fill_style_str(&colour.css());
+        self.text_style(size_px, colour, anchor);
         let _ = self.ctx.fill_text(text, x, y);
+    }
+
+    fn text_vertical(&mut self, x: f64, y: f64, size_px: f64, text: &str, colour: Colour, anchor: Anchor) {
+        self.text_style(size_px, colour, anchor);
+        self.ctx.save();
+        let _ = self.ctx.translate(x, y);
+        let _ = self.ctx.rotate(-std::f64::consts::FRAC_PI_2);
+        let _ = self.ctx.fill_text(text, 0.0, 0.0);
+        self.ctx.restore();
     }
 
     fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {

@@ -5,7 +5,7 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use sunlot::exposure::{facade_map, FacadeLayer, FacadeRequest, FaceMap, SunSteps};
-use sunlot::render::{draw_elevation, elevation_size, Elevation, Pixmap, Svg};
+use sunlot::render::{draw_elevation, elevation_size, Elevation};
 use sunlot::rules::CAUTION;
 
 use crate::args::{AirArgs, ClearSkyArgs, DeltaTArgs};
@@ -213,18 +213,10 @@ pub fn run(a: &FacadeArgs) -> Result<String, String> {
         write(path, &cells_csv(&faces)?)?;
         t.notes.push(format!("Cells written to {}.", path.display()));
     }
-    if let Some(path) = &a.png {
-        let mut px = Pixmap::new(size.0, size.1);
-        draw_elevation(&mut px, &e);
-        write(path, &px.to_png())?;
-        t.notes.push(format!("Elevations written to {}.", path.display()));
-    }
-    if let Some(path) = &a.svg {
-        let mut svg = Svg::new(size.0, size.1);
-        draw_elevation(&mut svg, &e);
-        write(path, svg.finish().as_bytes())?;
-        t.notes.push(format!("Elevations written to {}.", path.display()));
-    }
+    t.notes.extend(crate::figure::write_figure(size, a.png.as_deref(), a.svg.as_deref(), "Elevations", |d| {
+        draw_elevation(d, &e);
+        Ok(())
+    })?);
     t.notes.push(CAUTION.into());
     Ok(t.render(a.format))
 }

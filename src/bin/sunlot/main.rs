@@ -8,6 +8,7 @@ mod day;
 mod demo;
 mod envelope;
 mod facade;
+mod figure;
 mod hours;
 mod insolation;
 mod irradiance;

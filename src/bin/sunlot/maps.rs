@@ -5,7 +5,7 @@ use std::path::PathBuf;
 use clap::Args;
 use geo::{MultiPolygon, Polygon};
 use sunlot::exposure::{map_geojson, Grid, MapColumn, Period, Window, DEFAULT_MAX_CELLS};
-use sunlot::render::{draw_heat_map, HeatMap, Pixmap, Svg, FIGURE_PX};
+use sunlot::render::{draw_heat_map, HeatMap, FIGURE_PX};
 use sunlot::rules::CAUTION;
 use sunlot::site::SiteModel;
 
@@ -194,18 +194,16 @@ pub fn write_files(
             plan_rotation_deg: model.plan_rotation_deg,
             caution: CAUTION.into(),
         };
-        if let Some(path) = &files.png {
-            let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
-            draw_heat_map(&mut px, &map);
-            write(path, &px.to_png())?;
-            notes.push(format!("heat map written to {} (PNG)", path.display()));
-        }
-        if let Some(path) = &files.svg {
-            let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
-            draw_heat_map(&mut svg, &map);
-            write(path, svg.finish().as_bytes())?;
-            notes.push(format!("heat map written to {} (SVG)", path.display()));
-        }
+        notes.extend(crate::figure::write_figure(
+            FIGURE_PX,
+            files.png.as_deref(),
+            files.svg.as_deref(),
+            "heat map",
+            |d| {
+                draw_heat_map(d, &map);
+                Ok(())
+            },
+        )?);
     }
     Ok(notes)
 }

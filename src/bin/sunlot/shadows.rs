@@ -88,18 +88,12 @@ pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
     let study = shadow_study(&model, t, a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
     let when = args::rfc3339(t, &zone);
     if a.png.is_some() || a.svg.is_some() {
-        use sunlot::render::{draw_shadow_plan, Pixmap, PlanExtras, ShadowPlan, Svg, FIGURE_PX};
+        use sunlot::render::{draw_shadow_plan, PlanExtras, ShadowPlan, FIGURE_PX};
         let plan = ShadowPlan::of_study(&model, &study, &zone.label(t));
-        if let Some(path) = &a.png {
-            let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
-            draw_shadow_plan(&mut px, &plan, &PlanExtras::default());
-            std::fs::write(path, px.to_png()).map_err(|e| format!("{}: {e}", path.display()))?;
-        }
-        if let Some(path) = &a.svg {
-            let mut svg = Svg::new(FIGURE_PX.0, FIGURE_PX.1);
-            draw_shadow_plan(&mut svg, &plan, &PlanExtras::default());
-            std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
-        }
+        crate::figure::write_figure(FIGURE_PX, a.png.as_deref(), a.svg.as_deref(), "shadow plan", |d| {
+            draw_shadow_plan(d, &plan, &PlanExtras::default());
+            Ok(())
+        })?;
     }
     if a.format == ShadowFormat::Geojson {
         return Ok(sunlot::shadow::study_geojson(&model, &study, &when, from_geojson));

@@ -4,7 +4,7 @@
 use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
-use sunlot::render::{draw_sky_chart, monthly_dates, Pixmap, Projection, SkyChart, Svg};
+use sunlot::render::{draw_sky_chart, monthly_dates, Projection, SkyChart};
 
 use crate::args::{self, DeltaTArgs};
 use crate::point::parse_point;
@@ -87,18 +87,8 @@ pub fn run(a: &SkyArgs) -> Result<String, String> {
     };
     let chart = SkyChart::for_site(&model, year, Some(dates), now, from, projection, a.delta_t.delta_t()?)
         .map_err(|e| format!("--at: {e}"))?;
-    let mut notes = String::new();
-    if let Some(path) = &a.png {
-        let mut px = Pixmap::new(SIZE.0, SIZE.1);
-        draw_sky_chart(&mut px, &chart).map_err(|e| e.to_string())?;
-        std::fs::write(path, px.to_png()).map_err(|e| format!("{}: {e}", path.display()))?;
-        notes += &format!("sun-path diagram written to {} (PNG)\n", path.display());
-    }
-    if let Some(path) = &a.svg {
-        let mut svg = Svg::new(SIZE.0, SIZE.1);
-        draw_sky_chart(&mut svg, &chart).map_err(|e| e.to_string())?;
-        std::fs::write(path, svg.finish()).map_err(|e| format!("{}: {e}", path.display()))?;
-        notes += &format!("sun-path diagram written to {} (SVG)\n", path.display());
-    }
-    Ok(notes)
+    let notes = crate::figure::write_figure(SIZE, a.png.as_deref(), a.svg.as_deref(), "sun-path diagram", |d| {
+        draw_sky_chart(d, &chart).map_err(|e| e.to_string())
+    })?;
+    Ok(notes.iter().map(|n| format!("{n}\n")).collect())
 }
