@@ -4,6 +4,8 @@
 //! colorspacious library: tests/fixtures/cvd_machado2009.csv and its generating script), and the
 //! added shade hatched, so it also reads in greyscale print.
 
+#![cfg(not(target_arch = "wasm32"))]
+
 use geo::{BooleanOps, BoundingRect, Contains, Coord, MultiPolygon, Point};
 use sunlot::render::{draw_shadow_plan, Pixmap, PlanExtras, Raster, ShadowPlan, FIGURE_PX};
 use sunlot::shadow::shadow_study;

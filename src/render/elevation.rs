@@ -142,7 +142,7 @@ pub fn draw_elevation(d: &mut dyn Draw, e: &Elevation) {
     footnote(d, &e.caution);
 }
 
-#[cfg(test)]
+#[cfg(all(test, not(target_arch = "wasm32")))]
 mod tests {
     use super::*;
     use crate::exposure::{Face, FaceWindow};

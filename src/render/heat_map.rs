@@ -81,7 +81,7 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) -> PlanFrame {
     frame
 }
 
-#[cfg(test)]
+#[cfg(all(test, not(target_arch = "wasm32")))]
 mod tests {
     use super::*;
     use crate::exposure::DEFAULT_MAX_CELLS;

@@ -154,7 +154,7 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     frame
 }
 
-#[cfg(test)]
+#[cfg(all(test, not(target_arch = "wasm32")))]
 mod tests {
     use super::*;
     use crate::render::{Pixmap, FIGURE_PX};

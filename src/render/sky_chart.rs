@@ -438,7 +438,7 @@ fn obstruction(d: &mut dyn Draw, rings: &[Vec<(f64, f64)>]) {
     }
 }
 
-#[cfg(test)]
+#[cfg(all(test, not(target_arch = "wasm32")))]
 mod tests {
     use super::*;
     use crate::render::Pixmap;
