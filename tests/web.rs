@@ -216,8 +216,8 @@ fn sky_chart_draws_on_a_canvas_and_as_svg() {
         if p[0] < 200 || p[1] < 200 || p[2] < 200 {
             ink += 1;
         }
-        // The solstice path (Okabe–Ito yellow, 240 228 66), allowing for anti-aliasing.
-        if (p[0] as i32 - 240).abs() < 12 && (p[1] as i32 - 228).abs() < 12 && (p[2] as i32 - 66).abs() < 30 {
+        // The June solstice path (the diagram's summer red, 160 36 24), allowing for anti-aliasing.
+        if (p[0] as i32 - 160).abs() < 12 && (p[1] as i32 - 36).abs() < 12 && (p[2] as i32 - 24).abs() < 12 {
             june += 1;
         }
     }
@@ -281,7 +281,8 @@ fn insolation_layers_views_palettes_and_underlays_through_the_facade() {
              "palette": {{"paper": "#fdf6e3"}}}}"##
     );
     let frame = layer.draw_plan(&canvas, js(&plan_in)).expect("plan drawn");
-    assert!((num(&frame, "pxPerM") - 700.0 / 20.0).abs() < 1e-9, "the view is 20 m across 700 px");
+    // The plan box is the figure's width less its 24 px margin and the 250 px key column.
+    assert!((num(&frame, "pxPerM") - 686.0 / 20.0).abs() < 1e-9, "the view is 20 m across 686 px");
     let ctx: web_sys::CanvasRenderingContext2d = canvas.get_context("2d").unwrap().unwrap().dyn_into().unwrap();
     let corner = ctx.get_image_data(2.0, 2.0, 1.0, 1.0).unwrap().data().0;
     assert_eq!(&corner[..3], &[0xfd, 0xf6, 0xe3], "the page's paper colour");
