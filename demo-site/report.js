@@ -136,10 +136,10 @@
       }
       for (const d of days) {
         const rows = m.shadowTable({ site, date: d.date, stepMin: 60 }).map(r => [hhmm(r.time), fixed(r.altitudeDeg),
-          fixed(r.azimuthDeg), fixed(r.lengthPerM, 2), fixed(r.directionDeg), fixed(r.tipsM["proposal-upper"], 1),
+          fixed(r.azimuthDeg), fixed(r.shadowLengthMPerM, 2), fixed(r.shadowAzimuthDeg), fixed(r.tipsM["proposal-upper"], 1),
           fixed(r.tipsM["proposal-podium"], 1)]);
         $("tables").append(table(`shadow-lengths-${d.date}`, `${d.name} (${d.date}): the sun and shadow lengths on the hour`,
-          ["Time", "Altitude °", "Azimuth °", "Shadow per m of height, m", "Shadow points to °", "Upper block tip m", "Podium tip m"], rows));
+          ["Time", "Altitude °", "Azimuth °", "Shadow length per m of height, m", "Shadow azimuth °", "Upper block tip m", "Podium tip m"], rows));
       }
       await Promise.all(drawn);
     },

@@ -36,6 +36,12 @@ const HANG_MS = 4000;
 const report = await page.evaluate(async HANG_MS => {
   let m = await window.sunlot;
   const site = m.demoSiteText();
+  // Plain building footprints (no sunlot members): one with a height, one with storeys, one with neither.
+  const box = (lon, lat) => [[[lon, lat], [lon + 2e-4, lat], [lon + 2e-4, lat + 1e-4], [lon, lat + 1e-4], [lon, lat]]];
+  const footprints = JSON.stringify({ type: "FeatureCollection", features: [
+    { type: "Feature", properties: { height: "12 m" }, geometry: { type: "Polygon", coordinates: box(-1.87, 52.62) } },
+    { type: "Feature", properties: { "building:levels": 4 }, geometry: { type: "Polygon", coordinates: box(-1.87, 52.6203) } },
+    { type: "Feature", properties: {}, geometry: { type: "Polygon", coordinates: box(-1.87, 52.6206) } }] });
   const grid = m.sunHoursMap({ site, areas: ["garden-16"], cellM: 1, date: "2026-03-20", stepMin: 30 }).grid;
   const canvas = (w, h) => { const c = document.createElement("canvas"); c.width = w; c.height = h; return c; };
   const normal = () => canvas(400, 300);
@@ -48,6 +54,10 @@ const report = await page.evaluate(async HANG_MS => {
     dayEvents: [{ latitudeDeg: 52.62, longitudeDeg: -1.87, date: "2026-12-21", zone: "Europe/London" }, (m, i) => m.dayEvents(i)],
     clearSky: [{ zenithDeg: 30, dayOfYear: 172, atmosphere: { aod500: 0.1, albedo: 0.2 } }, (m, i) => m.clearSky(i)],
     readSite: [{ text: site }, (m, i) => m.readSite(i.text)],
+    readFootprints: [{ text: footprints, zone: "Europe/London", storeyHeightM: 3, defaultHeightM: 6, name: "blocks" },
+                     (m, i) => m.readSite(i.text, { zone: i.zone, storeyHeightM: i.storeyHeightM, defaultHeightM: i.defaultHeightM,
+                                                    name: i.name })],
+    siteTextKind: [{ text: footprints }, (m, i) => m.siteTextKind(i.text)],
     sunHoursMap: [{ site, areas: ["garden-16"], cellM: 1, date: "2026-03-20", to: "2026-03-21", window: "09:00-15:00",
                     stepMin: 30, planeM: 0, massing: "existing", maxCells: 100000 }, (m, i) => m.sunHoursMap(i, () => true)],
     compareMap: [{ site, areas: ["garden-16"], cellM: 1, date: "2026-03-20", stepMin: 30 }, (m, i) => m.compareMap(i)],

@@ -235,9 +235,12 @@ const proposal = (await page.evaluate(() => JSON.parse(document.querySelector("#
 const inner = proposal.outline.reduce((a, p) => [a[0] + p[0] / proposal.outline.length, a[1] + p[1] / proposal.outline.length], [0, 0]);
 await measure();
 let [px, py] = await toFig(inner[0], inner[1]);
+const point_before_select = await page.inputValue("#point");
 await page.mouse.click(fx(px), fy(py));
 check(!(await page.isHidden("#feature")) && (await page.inputValue("#f-id")).length > 0,
   `clicking a volume selects it (${await page.inputValue("#f-id")})`);
+check(await page.inputValue("#point") === point_before_select,
+  `selecting a volume to edit leaves the sky point where it was (${point_before_select} → ${await page.inputValue("#point")})`);
 const before_raise = await pixels("#plan canvas");
 await page.fill("#f-top", "30");
 await page.click("#feature button[type=submit]");
@@ -331,6 +334,46 @@ check(JSON.parse(readFileSync(path.join(shots, "site.sunlot.json"), "utf8")).nam
 await page.click("#reset-demo");
 await page.waitForFunction(n => document.querySelector("#site-name").textContent === n, name_before, { timeout: 10000 });
 check(true, "the demo site comes back");
+check(!(await page.isHidden("#demo-note")), "the caution says the demo site is invented while it is shown");
+
+// Plain building footprints (no sunlot members, heights as OpenStreetMap gives them): the page asks
+// for the zone, offering the longitude's fixed offset; a building with no height is named, nothing is
+// lost; with the heights given the buildings replace the site and what was assumed is listed.
+const box_at = (lon, lat, d) => [[[lon, lat], [lon + d, lat], [lon + d, lat + d / 1.6], [lon, lat + d / 1.6], [lon, lat]]];
+const footprints = (second) => JSON.stringify({ type: "FeatureCollection", features: [
+  { type: "Feature", id: "way/10", properties: { building: "yes", height: "14 m" },
+    geometry: { type: "Polygon", coordinates: box_at(-1.5, 53.8, 0.0002) } },
+  { type: "Feature", id: "way/11", properties: second,
+    geometry: { type: "Polygon", coordinates: box_at(-1.5, 53.8004, 0.0003) } }] });
+const plan_demo = await pixels("#plan canvas");
+await page.setInputFiles("#import", { name: "town-blocks.geojson", mimeType: "application/geo+json",
+  buffer: Buffer.from(footprints({ building: "house" })) });
+await page.waitForFunction(() => !document.querySelector("#footprints").hidden, null, { timeout: 10000 });
+check(await page.inputValue("#fp-zone") === "Etc/GMT", `plain footprints ask for the zone, offering ${await page.inputValue("#fp-zone")}`);
+await page.fill("#fp-zone", "Europe/London");
+await page.click("#fp-import");
+await page.waitForFunction(() => !document.querySelector("#error").hidden, null, { timeout: 10000 });
+const no_height = await page.textContent("#error");
+check(no_height.includes("way/11") && no_height.includes("has no height") && await page.textContent("#site-name") === name_before
+  && !(await page.isHidden("#footprints")) && await page.inputValue("#fp-zone") === "Europe/London",
+  `a footprint with no height is named and nothing is lost: ${no_height}`);
+await page.fill("#fp-storey", "3.2");
+await page.click("#fp-cancel");
+await page.setInputFiles("#import", { name: "town-blocks.geojson", mimeType: "application/geo+json",
+  buffer: Buffer.from(footprints({ building: "house", "building:levels": "5" })) });
+await page.waitForFunction(() => !document.querySelector("#footprints").hidden, null, { timeout: 10000 });
+await page.fill("#fp-zone", "Europe/London");
+await page.click("#fp-import");
+await page.waitForFunction(() => document.querySelector("#site-name").textContent.startsWith("town-blocks"), null, { timeout: 10000 });
+const said = await page.textContent("#assumptions");
+check(await page.isHidden("#footprints") && await page.isHidden("#error") && said.includes("2 footprint(s) read as existing buildings")
+  && said.includes("given by storeys, at 3.2 m a storey"), `the footprints are imported and what was assumed is said: ${said}`);
+check(await page.isHidden("#demo-note"), "an imported site's caution does not call it the invented demo");
+await changed("#plan canvas", plan_demo);
+check(true, "the plan shows the imported buildings");
+await page.click("#reset-demo");
+await page.waitForFunction(n => document.querySelector("#site-name").textContent === n, name_before, { timeout: 10000 });
+check(await page.isHidden("#assumptions") && !(await page.isHidden("#demo-note")), "back on the demo, the notes are the demo's");
 
 // Print: the one-page sheet hides the controls and keeps the figures and the caution.
 await page.emulateMedia({ media: "print" });

@@ -429,7 +429,7 @@ fn window_light_through_the_facade_equals_the_core() {
         assert_eq!(num(&after, "sunH"), sun.sun_hours);
         assert!(num(&get(out, "existing"), "vscPct") > vsc);
     }
-    let summary = sunlot::web::read_site(JsValue::from_str(text)).unwrap();
+    let summary = sunlot::web::read_site(JsValue::from_str(text), JsValue::UNDEFINED).unwrap();
     let windows: js_sys::Array = get(&summary, "windows").into();
     assert_eq!(windows.length(), 4);
     assert_eq!(get(&windows.get(0), "id").as_string().unwrap(), "w-16-rear");

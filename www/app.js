@@ -42,6 +42,12 @@
       : restored ? "Restored your site from this browser's storage (saved there at every change)."
         : "Your site is kept in this browser: every change is saved here and comes back when you reopen the page.";
     let info = module.readSite(site);
+    // The demo's caution ("invented") is shown only while the site is the demo.
+    const demoName = module.readSite(module.demoSiteText()).name;
+    const showSiteName = source => {
+      $("site-name").textContent = `${info.name || "Unnamed site"}${source ? ` (from ${source})` : ""}`;
+      $("demo-note").hidden = info.name !== demoName;
+    };
 
     const moment = () => {
       const minutes = Number($("time").value);
@@ -56,12 +62,15 @@
     };
 
     /** Makes `text` the page's site (throws, naming the feature, before anything changes). */
-    async function useSite(text, source) {
-      const next = module.readSite(text);
+    async function useSite(text, source, footprints) {
+      const next = module.readSite(text, footprints);
       site = next.siteJson;
       info = next;
       keep(site);
-      $("site-name").textContent = `${info.name}${source ? ` (from ${source})` : ""}`;
+      showSiteName(source);
+      const said = $("assumptions");
+      said.replaceChildren(...next.assumptions.map(a => Object.assign(document.createElement("li"), { textContent: a })));
+      said.hidden = next.assumptions.length === 0;
       await Promise.all([plan.setSite(site), sky.setSite(site), mapEl.setSite(site)]);
       refreshMap();
     }
@@ -168,19 +177,46 @@
       try { await el.save(kind, name); } catch (e) { showError(`export: ${e.message}`); }
     }));
 
+    // Plain building footprints say no time zone: the page asks for it, offering the longitude's
+    // fixed offset, and for a storey height, before anything changes.
+    let pending = null;
+    const openSite = async (text, source, footprints) => {
+      try {
+        await useSite(text, source, footprints);
+        plan.history = []; plan.future = [];
+        hideError();
+        redraw();
+        return true;
+      } catch (e) {
+        showError(`${source}: ${e.message} — the current site is unchanged.`);
+        return false;
+      } finally { updateEditButtons(); }
+    };
     $("import").addEventListener("change", async () => {
       const file = $("import").files[0];
-      if (!file) return;
-      try {
-        await useSite(await file.text(), file.name);
-        plan.history = []; plan.future = [];
-        redraw();
-      } catch (e) {
-        showError(`${file.name}: ${e.message} — the current site is unchanged.`);
-      }
       $("import").value = "";
-      updateEditButtons();
+      if (!file) return;
+      const text = await file.text();
+      let kind = { kind: "unknown" };
+      try { kind = module.siteTextKind(text); } catch (e) { /* the reader names the problem below */ }
+      if (kind.kind !== "footprints") { await openSite(text, file.name); return; }
+      pending = { text, source: file.name };
+      $("fp-what").textContent = `${file.name} holds building footprints with no sunlot members. Give the ` +
+        "site's time zone: the one offered is a fixed offset from the longitude with no daylight saving; " +
+        "replace it with the local zone (such as Europe/London) where there is one.";
+      $("fp-zone").value = kind.suggestedZone || "";
+      $("footprints").hidden = false;
+      $("fp-zone").focus();
     });
+    $("footprints").addEventListener("submit", async e => {
+      e.preventDefault();
+      if (!pending) return;
+      const fp = { zone: $("fp-zone").value.trim(), storeyHeightM: Number($("fp-storey").value),
+        name: pending.source.replace(/\.(geo)?json$/i, "") };
+      if ($("fp-default").value !== "") fp.defaultHeightM = Number($("fp-default").value);
+      if (await openSite(pending.text, pending.source, fp)) { pending = null; $("footprints").hidden = true; }
+    });
+    $("fp-cancel").addEventListener("click", () => { pending = null; $("footprints").hidden = true; });
     $("reset-demo").addEventListener("click", async () => { await useSite(module.demoSiteText(), ""); redraw(); });
     $("export-site").addEventListener("click", () =>
       window.sunlotDownload("site.sunlot.json", new Blob([site], { type: "application/json" })));
@@ -306,7 +342,7 @@
       if (playing) requestAnimationFrame(frame); else redraw();
     });
 
-    $("site-name").textContent = info.name;
+    showSiteName("");
     const t0 = performance.now();
     await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false)]);
     redraw();

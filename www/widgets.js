@@ -674,6 +674,9 @@
           if (p.drag && p.drag.vertex !== undefined) { this.vertex = p.drag.vertex; this.drawOverlay(); return; }
           const h = this.hit(pt);
           this.select(h && h.kind, h && h.id);
+          // A click that picks a volume to edit leaves the sky point where it was: a point inside a
+          // building has no sky, and the planner asked to edit, not to look.
+          if (h && h.kind === "volumes") return;
         }
         this.dispatchEvent(new CustomEvent("sunlot-point", { bubbles: true, detail: { xM: pt[0], yM: pt[1] } }));
       });

@@ -74,6 +74,15 @@ fn advance_em(c: char) -> f64 {
     }
 }
 
+/// A figure title naming its site: "`title` — `site_name`", or `title` alone when the site has no name
+/// (an imported file may have none).
+pub fn titled(title: &str, site_name: &str) -> String {
+    match site_name.trim() {
+        "" => title.to_string(),
+        name => format!("{title} — {name}"),
+    }
+}
+
 /// `text` broken into lines no wider than `width_px` at `size_px`: whole phrases (the parts between
 /// " — ") where they fit, words within a phrase that does not; a word wider than the line stands alone.
 pub fn wrap(text: &str, size_px: f64, width_px: f64) -> Vec<String> {

@@ -69,7 +69,7 @@ impl<'a> Elevation<'a> {
     ) -> Self {
         let top = values.iter().flatten().copied().fold(0.0_f64, f64::max);
         Elevation {
-            title: format!("{} on the faces of {volume} — {site_name}", layer.label()),
+            title: super::titled(&format!("{} on the faces of {volume}", layer.label()), site_name),
             subtitle,
             unit: layer.unit().into(),
             faces,

@@ -44,7 +44,7 @@ impl<'a> HeatMap<'a> {
         range: (f64, f64),
     ) -> Self {
         HeatMap {
-            title: format!("{title} — {}", model.name),
+            title: super::titled(title, &model.name),
             subtitle: subtitle.into(),
             unit: unit.into(),
             grid,

@@ -23,8 +23,8 @@ mod sky_chart;
 mod svg;
 
 pub use draw::{
-    footnote, footnote_px, heading, text_width_px, wrap, Anchor, Colour, Draw, Image, FONT_FAMILY, INK, LABEL_PX,
-    MUTED, PAPER, TEXT_PX, TITLE_PX,
+    footnote, footnote_px, heading, text_width_px, titled, wrap, Anchor, Colour, Draw, Image, FONT_FAMILY, INK,
+    LABEL_PX, MUTED, PAPER, TEXT_PX, TITLE_PX,
 };
 pub use elevation::{draw_elevation, elevation_size, Elevation, ELEVATION_PX};
 pub use hatch::hatch_segments;

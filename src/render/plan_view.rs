@@ -78,7 +78,7 @@ impl ShadowPlan {
             }
         };
         ShadowPlan {
-            title: format!("Shadows at {when} — {}", model.name),
+            title: super::titled(&format!("Shadows at {when}"), &model.name),
             subtitle,
             outlines: site_outlines(model),
             existing,
@@ -199,6 +199,20 @@ mod tests {
         }
         assert_eq!(at(10.0, by + bh / 2.0), [255, 255, 255]);
         assert_eq!(at(bx + bw / 2.0, by + bh + 3.0), [255, 255, 255]);
+    }
+
+    /// An imported site may have no name: its titles then end with the title, not a bare dash.
+    #[test]
+    fn a_site_without_a_name_has_titles_without_a_dangling_dash() {
+        let mut model = crate::demo::demo();
+        model.name = String::new();
+        let t = chrono::DateTime::parse_from_rfc3339("2026-03-21T15:00:00Z").unwrap().to_utc();
+        let study = shadow_study(&model, t, DeltaT::EspenakMeeus).unwrap();
+        let plan = ShadowPlan::of_study(&model, &study, "2026-03-21T15:00Z");
+        assert_eq!(plan.title, "Shadows at 2026-03-21T15:00Z");
+        let projection = crate::render::Projection::Stereographic;
+        let chart = crate::render::SkyChart::for_site(&model, 2026, None, None, None, projection, DeltaT::EspenakMeeus);
+        assert!(chart.is_ok_and(|c| c.title == "Sun path"));
     }
 
     #[test]

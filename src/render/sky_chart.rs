@@ -92,14 +92,15 @@ impl SkyChart {
             crate::limits::within("dates", d.len() as f64, crate::limits::MAX_SKY_DATES as f64, "day paths")
                 .map_err(|e| e.to_string())?;
         }
-        let mut title = format!("Sun path — {}", model.name);
+        let mut title = super::titled("Sun path", &model.name);
         let mut sky = Vec::new();
         if let Some((p, massing)) = from {
             let volumes: Vec<_> = model.volumes.iter().filter(|v| massing.includes(v.status)).cloned().collect();
             let walls: Vec<_> = model.walls.iter().filter(|w| massing.includes(w.status)).cloned().collect();
             let reach = analysis_extent(model).map_or(1_000.0, |r| r.width().hypot(r.height()));
             let ground = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
-            title = format!("Sun path and skyline from ({}, {}, {} m) — {}", p.x_m, p.y_m, p.z_m, model.name);
+            title =
+                super::titled(&format!("Sun path and skyline from ({}, {}, {} m)", p.x_m, p.y_m, p.z_m), &model.name);
             sky = skyline(p, &volumes, &walls, &ground, 1.0, reach)
                 .map_err(|e| e.to_string())?
                 .into_iter()

@@ -19,9 +19,9 @@ pub struct ShadowRow {
     /// Sun azimuth, clockwise from true north, degrees.
     pub azimuth_deg: f64,
     /// Shadow length on flat ground per metre of height, metres (1 / tan altitude; common practice).
-    pub length_per_m: f64,
+    pub shadow_length_m_per_m: f64,
     /// Direction the shadow points, clockwise from true north, degrees (azimuth + 180°).
-    pub direction_deg: f64,
+    pub shadow_azimuth_deg: f64,
     /// For each volume (by id), the distance from its foot to the tip of its top's shadow on flat
     /// ground, metres (top height × length per metre).
     pub tips_m: Vec<(String, f64)>,
@@ -63,8 +63,8 @@ pub fn shadow_table(
             time: t,
             altitude_deg: p.altitude_deg,
             azimuth_deg: p.azimuth_deg,
-            length_per_m: len,
-            direction_deg: (p.azimuth_deg + 180.0) % 360.0,
+            shadow_length_m_per_m: len,
+            shadow_azimuth_deg: (p.azimuth_deg + 180.0) % 360.0,
             tips_m: model.volumes.iter().map(|v| (v.id.clone(), v.top_m * len)).collect(),
         });
     }
@@ -82,12 +82,12 @@ mod tests {
         let rows = shadow_table(&m, NaiveDate::from_ymd_opt(2026, 3, 20).unwrap(), 60, DeltaT::EspenakMeeus).unwrap();
         assert_eq!(rows.len(), 12, "07:00 to 18:00 at 52.6° N on the equinox");
         for r in &rows {
-            assert_abs_diff_eq!(r.length_per_m, 1.0 / r.altitude_deg.to_radians().tan(), epsilon = 1e-12);
+            assert_abs_diff_eq!(r.shadow_length_m_per_m, 1.0 / r.altitude_deg.to_radians().tan(), epsilon = 1e-12);
             let upper = r.tips_m.iter().find(|(id, _)| id == "proposal-upper").unwrap().1;
-            assert_abs_diff_eq!(upper, 15.0 * r.length_per_m, epsilon = 1e-9);
+            assert_abs_diff_eq!(upper, 15.0 * r.shadow_length_m_per_m, epsilon = 1e-9);
         }
         // Shortest shadow near solar noon (about 12:15 local; REFERENCES: noon altitude ≈ 90° − φ).
-        let noon = rows.iter().min_by(|a, b| a.length_per_m.total_cmp(&b.length_per_m)).unwrap();
+        let noon = rows.iter().min_by(|a, b| a.shadow_length_m_per_m.total_cmp(&b.shadow_length_m_per_m)).unwrap();
         assert!((noon.altitude_deg - (90.0 - 52.62)).abs() < 1.0);
         assert!(shadow_table(&m, NaiveDate::from_ymd_opt(2026, 3, 20).unwrap(), 0, DeltaT::EspenakMeeus).is_err());
     }

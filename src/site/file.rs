@@ -18,6 +18,7 @@
 use geo::{Coord, LineString, Polygon};
 use serde::{Deserialize, Serialize};
 
+use super::footprints::{is_plain, FootprintOptions};
 use super::massing::{check_ring, SiteError, Status, Volume, Wall};
 use super::terrain::Ground;
 use super::windows::WindowPoint;
@@ -569,6 +570,8 @@ pub struct ReadSite {
     pub model: SiteModel,
     /// Whether it came from GeoJSON (results then go out in WGS84 too).
     pub from_geojson: bool,
+    /// What was assumed in reading it, a sentence each (plain building footprints only; else empty).
+    pub assumptions: Vec<String>,
 }
 
 impl SiteModel {
@@ -577,6 +580,15 @@ impl SiteModel {
     /// # Errors
     /// The reader's error as text, naming the feature or field.
     pub fn read(text: &str) -> Result<ReadSite, String> {
+        SiteModel::read_with(text, &FootprintOptions::default())
+    }
+
+    /// As [`SiteModel::read`], and plain GeoJSON building footprints (no `sunlot` members) with
+    /// `footprints` saying what to assume (see [`SiteModel::from_footprints`]).
+    ///
+    /// # Errors
+    /// The reader's error as text, naming the feature or field.
+    pub fn read_with(text: &str, footprints: &FootprintOptions) -> Result<ReadSite, String> {
         within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")
             .map_err(|e| e.hint("split the site or simplify its outlines").to_string())?;
         // Only the top-level "type": the rest is skipped, not built as a tree.
@@ -588,11 +600,17 @@ impl SiteModel {
         let is_geojson = serde_json::from_str::<Probe>(text)
             .ok()
             .is_some_and(|p| p.kind.as_ref().and_then(|t| t.as_str()) == Some("FeatureCollection"));
-        let model = if is_geojson {
-            SiteModel::from_geojson(text).map_err(|e| e.to_string())?
-        } else {
-            SiteModel::from_json(text).map_err(|e| e.to_string())?
-        };
-        Ok(ReadSite { model, from_geojson: is_geojson })
+        if !is_geojson {
+            let model = SiteModel::from_json(text).map_err(|e| e.to_string())?;
+            return Ok(ReadSite { model, from_geojson: false, assumptions: vec![] });
+        }
+        let plain =
+            matches!(text.parse::<geojson::GeoJson>(), Ok(geojson::GeoJson::FeatureCollection(fc)) if is_plain(&fc));
+        if plain {
+            let got = SiteModel::from_footprints(text, footprints).map_err(|e| e.to_string())?;
+            return Ok(ReadSite { model: got.model, from_geojson: true, assumptions: got.assumptions });
+        }
+        let model = SiteModel::from_geojson(text).map_err(|e| e.to_string())?;
+        Ok(ReadSite { model, from_geojson: true, assumptions: vec![] })
     }
 }

@@ -61,6 +61,16 @@ pub enum GeoJsonError {
     /// A feature that fails the site model's checks.
     #[error("GeoJSON: {0}")]
     Feature(#[from] SiteError),
+    /// Plain building footprints, which never say the site's time zone: the caller must give one.
+    #[error(
+        "GeoJSON: these building footprints do not say the site's time zone: give it (an IANA name such as \
+         Europe/London); from their longitude {longitude_deg:.2}° a fixed offset with no daylight saving \
+         would be {suggestion}"
+    )]
+    ZoneNeeded { longitude_deg: f64, suggestion: String },
+    /// A plain footprint whose height cannot be read.
+    #[error("GeoJSON feature {feature}: {problem}")]
+    Footprint { feature: String, problem: String },
 }
 
 fn geometry_name(g: &GeometryValue) -> String {

@@ -2,6 +2,7 @@
 //! above local ground), the lots and areas, sunlot's site file, and the placing of a scanned plan under it.
 
 mod file;
+mod footprints;
 mod frame;
 mod geojson_io;
 mod massing;
@@ -12,6 +13,10 @@ mod underlay;
 mod windows;
 
 pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SITE_FILE_VERSION};
+pub use footprints::{
+    is_plain, zone_from_longitude, FootprintOptions, Imported, BASE_KEYS, DEFAULT_STOREY_HEIGHT_M, HEIGHT_KEYS,
+    LEVEL_KEYS,
+};
 pub use frame::LocalFrame;
 pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};
 pub use massing::{SiteError, Status, Volume, Wall};

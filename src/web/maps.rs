@@ -7,7 +7,7 @@ use js_sys::Float64Array;
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
-use super::{err, read, read_site_text, read_split, site, write};
+use super::{err, read, read_split, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
 use crate::shadow::ViewPoint;
@@ -441,15 +441,69 @@ pub fn draw_map_figure(
     write(&serde_json::json!({"grid": grid_out(&grid), "openHours": open}))
 }
 
-/// Reads a site (site file or GeoJSON text) and describes it: `{name, fromGeojson, zone, latitudeDeg,
-/// longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}], windows: [{id,
-/// name, status, xM, yM, zM, facingDeg}], siteJson}`,
-/// where `siteJson` is the site in the site-file format. Throws an `Error` naming the bad feature.
+/// What to assume for plain GeoJSON building footprints (no `sunlot` members); see
+/// [`crate::site::FootprintOptions`].
+#[derive(Deserialize, Default)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct FootprintsIn {
+    zone: Option<String>,
+    storey_height_m: Option<f64>,
+    default_height_m: Option<f64>,
+    name: Option<String>,
+}
+
+/// What a site text is, before reading it: `{kind: "site" | "geojson" | "footprints" | "unknown",
+/// suggestedZone?, longitudeDeg?}`; for plain footprints the fixed-offset zone their longitude suggests
+/// (to offer the user, who must confirm or correct it: it knows no daylight saving).
+#[wasm_bindgen(js_name = siteTextKind, unchecked_return_type = "SiteTextKind")]
+pub fn site_text_kind(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue) -> Result<JsValue, JsError> {
+    let text = super::text_arg(&text, "site")?;
+    let parsed = text.parse::<geojson::GeoJson>();
+    let out = match parsed {
+        Ok(geojson::GeoJson::FeatureCollection(fc)) if crate::site::is_plain(&fc) => {
+            match crate::site::SiteModel::from_footprints(&text, &crate::site::FootprintOptions::default()) {
+                Err(crate::site::GeoJsonError::ZoneNeeded { longitude_deg, suggestion }) => serde_json::json!({
+                    "kind": "footprints", "suggestedZone": suggestion, "longitudeDeg": longitude_deg}),
+                _ => serde_json::json!({"kind": "footprints"}),
+            }
+        }
+        Ok(geojson::GeoJson::FeatureCollection(_)) => serde_json::json!({"kind": "geojson"}),
+        _ if serde_json::from_str::<serde_json::Value>(&text).is_ok_and(|v| v.is_object()) => {
+            serde_json::json!({"kind": "site"})
+        }
+        _ => serde_json::json!({"kind": "unknown"}),
+    };
+    write(&out)
+}
+
+/// Reads a site (site file, GeoJSON site, or plain GeoJSON building footprints with `footprints`:
+/// `{zone, storeyHeightM?, defaultHeightM?, name?}`) and describes it: `{name, fromGeojson, zone,
+/// latitudeDeg, longitudeDeg, areas: [{id, name, kind, status}], volumes: [{id, status, baseM, topM}],
+/// windows: [{id, name, status, xM, yM, zM, facingDeg}], assumptions: [text], siteJson}`,
+/// where `siteJson` is the site in the site-file format and `assumptions` says what was assumed in
+/// reading plain footprints. Throws an `Error` naming the bad feature.
 #[wasm_bindgen(js_name = readSite, unchecked_return_type = "SiteSummary")]
-pub fn read_site(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue) -> Result<JsValue, JsError> {
+pub fn read_site(
+    #[wasm_bindgen(unchecked_param_type = "string")] text: JsValue,
+    #[wasm_bindgen(unchecked_param_type = "FootprintOptions | undefined")] footprints: JsValue,
+) -> Result<JsValue, JsError> {
     // Taken as any value and checked: a `&str` parameter given a number traps in the glue code.
     let text = super::text_arg(&text, "site")?;
-    let r = read_site_text(&text)?;
+    let given: FootprintsIn = if footprints.is_undefined() || footprints.is_null() {
+        FootprintsIn::default()
+    } else {
+        read(footprints, "footprints")?
+    };
+    let options = crate::site::FootprintOptions {
+        zone: match given.zone {
+            Some(z) => Some(z.parse().map_err(|e| JsError::new(&format!("footprints: zone: {e}")))?),
+            None => None,
+        },
+        storey_height_m: given.storey_height_m.unwrap_or(crate::site::DEFAULT_STOREY_HEIGHT_M),
+        default_height_m: given.default_height_m,
+        name: given.name.unwrap_or_default(),
+    };
+    let r = crate::site::SiteModel::read_with(&text, &options).map_err(|e| JsError::new(&format!("site: {e}")))?;
     let m = &r.model;
     let status = |s: crate::site::Status| if s == crate::site::Status::Proposed { "proposed" } else { "existing" };
     let areas: Vec<_> = m
@@ -473,6 +527,6 @@ pub fn read_site(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue)
     write(&serde_json::json!({
         "name": m.name, "fromGeojson": r.from_geojson, "zone": m.zone.to_string(),
         "latitudeDeg": m.location.latitude_deg, "longitudeDeg": m.location.longitude_deg,
-        "areas": areas, "volumes": volumes, "windows": windows, "siteJson": m.to_json(),
+        "areas": areas, "volumes": volumes, "windows": windows, "assumptions": r.assumptions, "siteJson": m.to_json(),
     }))
 }

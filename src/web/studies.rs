@@ -22,7 +22,7 @@ fn sixty() -> u32 {
     60
 }
 
-/// The shadow-length table of a day: `[{time, altitudeDeg, azimuthDeg, lengthPerM, directionDeg,
+/// The shadow-length table of a day: `[{time, altitudeDeg, azimuthDeg, shadowLengthMPerM, shadowAzimuthDeg,
 /// tipsM: {volumeId: metres}}]` from sunrise to sunset every `stepMin` minutes (default 60) from local
 /// midnight; times local RFC 3339. Shadow length per metre of height is 1 / tan(altitude) on flat ground.
 #[wasm_bindgen(js_name = shadowTable, unchecked_return_type = "ShadowTableRow[]")]
@@ -39,7 +39,7 @@ pub fn shadow_table_js(
             let tips: serde_json::Map<String, serde_json::Value> =
                 r.tips_m.iter().map(|(id, m)| (id.clone(), serde_json::json!(m))).collect();
             serde_json::json!({"time": super::stamp(r.time, &model.zone), "altitudeDeg": r.altitude_deg,
-                "azimuthDeg": r.azimuth_deg, "lengthPerM": r.length_per_m, "directionDeg": r.direction_deg,
+                "azimuthDeg": r.azimuth_deg, "shadowLengthMPerM": r.shadow_length_m_per_m, "shadowAzimuthDeg": r.shadow_azimuth_deg,
                 "tipsM": tips})
         })
         .collect();

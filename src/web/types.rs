@@ -27,7 +27,9 @@ export interface SiteSummary { name: string; fromGeojson: boolean; zone: string;
   areas: { id: string; name: string; kind: string; status: "existing" | "proposed" }[];
   volumes: { id: string; status: "existing" | "proposed"; baseM: number; topM: number }[];
   windows: { id: string; name: string; status: "existing" | "proposed"; xM: number; yM: number; zM: number; facingDeg: number }[];
-  siteJson: string; }
+  assumptions: string[]; siteJson: string; }
+export interface FootprintOptions { zone: string; storeyHeightM?: number; defaultHeightM?: number; name?: string; }
+export interface SiteTextKind { kind: "site" | "geojson" | "footprints" | "unknown"; suggestedZone?: string; longitudeDeg?: number; }
 export interface WindowLightInput { site: SiteText; id?: string; xM?: number; yM?: number; zM?: number; facingDeg?: number;
   date: string; to?: string; stepMin?: number; azimuthStepDeg?: number; }
 export interface WindowLightFigures { vscPct: number; sunH: number; openSunH: number; dayH: number; }
@@ -73,8 +75,8 @@ export interface YearProfile { year: number; skyView: number;
   months: { month: number; sunHours: number; openHours: number; kwhM2: number; openKwhM2: number }[]; }
 export interface SkyViewInput extends PointInput { skyStepDeg?: number; }
 export interface ShadowTableInput { site: SiteText; date: string; stepMin?: number; }
-export interface ShadowTableRow { time: string; altitudeDeg: number; azimuthDeg: number; lengthPerM: number;
-  directionDeg: number; tipsM: Record<string, number>; }
+export interface ShadowTableRow { time: string; altitudeDeg: number; azimuthDeg: number; shadowLengthMPerM: number;
+  shadowAzimuthDeg: number; tipsM: Record<string, number>; }
 /** CSS hex colours #rrggbb. */
 export interface Palette { ink?: string; paper?: string; proposed?: string; }
 export interface PlanInput { site: SiteText; localTime: string; view?: { xM: number; yM: number; widthM: number }; palette?: Palette; }

@@ -78,16 +78,16 @@ pub fn report_table(r: &CheckReport) -> Table {
             pct(a.before_share),
             pct(a.after_share),
             a.ratio.map_or(Cell::Empty, |x| Cell::num(x, 2)),
-            Cell::text(if a.share_test { "pass" } else { "fail" }),
+            Cell::text(if a.share_test { "passes" } else { "fails" }),
             pct(a.share_margin),
             pct(a.share_error),
-            a.ratio_test.map_or(Cell::Empty, |p| Cell::text(if p { "pass" } else { "fail" })),
+            a.ratio_test.map_or(Cell::Empty, |p| Cell::text(if p { "passes" } else { "fails" })),
             a.ratio_margin.map_or(Cell::Empty, |x| Cell::num(x, 2)),
             Cell::text(match (a.passes, a.near_threshold) {
-                (true, false) => "PASS",
-                (false, false) => "FAIL",
-                (true, true) => "PASS (near threshold)",
-                (false, true) => "FAIL (near threshold)",
+                (true, false) => "passes",
+                (false, false) => "fails",
+                (true, true) => "passes (near threshold)",
+                (false, true) => "fails (near threshold)",
             }),
         ]);
     }
@@ -161,8 +161,8 @@ pub fn window_table(r: &WindowReport) -> Table {
             row.push(f.map_or(Cell::Empty, |f| Cell::num(scale * f.after, digits)));
         }
         row.push(Cell::text(match w.passes {
-            Some(true) => "PASS",
-            Some(false) => "FAIL",
+            Some(true) => "passes",
+            Some(false) => "fails",
             None => "not tested",
         }));
         row.push(Cell::text(&w.reason));

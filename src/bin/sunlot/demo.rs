@@ -56,7 +56,7 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         let date = zone.local_date(t);
         let mut table = Table::new(
             format!("Sun every hour on {date} ({name}), local time {zone}"),
-            vec!["local_time", "altitude_deg", "azimuth_deg", "shadow_per_m_height_m", "direction_of_shadow_deg"],
+            vec!["local_time", "altitude_deg", "azimuth_deg", "shadow_length_m_per_m", "shadow_azimuth_deg"],
         );
         let (start, end) = crate::args::day_bounds(&zone, date);
         let mut at = start;

@@ -53,7 +53,7 @@ pub struct EnvelopeArgs {
     pub band_m: f64,
     #[command(flatten)]
     pub delta_t: DeltaTArgs,
-    /// --csv writes cells (x_m, y_m, height_m); --geojson writes height bands; --png / --svg a map.
+    /// --cells-csv writes cells (x_m, y_m, height_m); --geojson writes height bands; --png / --svg a map.
     #[command(flatten)]
     pub files: MapFiles,
     /// Output on standard output: the summary as a table, JSON or CSV.
@@ -134,7 +134,7 @@ pub fn run(a: &EnvelopeArgs) -> Result<String, String> {
         layer: 0,
         unit: "height, m",
         range: (0.0, maps::top_of(&env.height_m, a.height_step_m)),
-        title: format!("Solar envelope — {}", model.name),
+        title: sunlot::render::titled("Solar envelope", &model.name),
         subtitle: period.clone(),
     };
     let cells_only = MapFiles { geojson: None, ..a.files.clone() };

@@ -63,7 +63,7 @@ pub struct FacadeArgs {
     #[arg(long, value_enum, default_value_t = Show::Hours)]
     pub show: Show,
     /// Write every cell as CSV (face, column, row, plan x, y, height and the values) to this file.
-    #[arg(long, value_name = "FILE")]
+    #[arg(long = "cells-csv", alias = "csv", value_name = "FILE")]
     pub csv: Option<PathBuf>,
     /// Write the elevations as a PNG figure to this file.
     #[arg(long, value_name = "FILE")]

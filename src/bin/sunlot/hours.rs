@@ -130,7 +130,7 @@ pub fn run(a: &HoursArgs) -> Result<String, String> {
         layer: 0,
         unit: "hours of direct sun",
         range: (0.0, map.open_hours.max(0.1)),
-        title: format!("Hours of direct sun — {}", model.name),
+        title: sunlot::render::titled("Hours of direct sun", &model.name),
         subtitle: format!("{} · {which}", a.period.describe()),
     };
     t.notes.extend(maps::write_files(

@@ -110,7 +110,7 @@ pub fn run(a: &InsolationArgs) -> Result<String, String> {
         layer: 0,
         unit: "kWh/m²",
         range: (0.0, map.open.total_kwh_m2.max(1e-3)),
-        title: format!("Clear-sky insolation — {}", model.name),
+        title: sunlot::render::titled("Clear-sky insolation", &model.name),
         subtitle: a.period.describe(),
     };
     t.notes.extend(maps::write_files(&a.files, &loaded, &grid, &layers, &picture)?);

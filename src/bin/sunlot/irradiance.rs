@@ -27,8 +27,8 @@ pub struct IrradianceArgs {
     #[command(flatten)]
     pub delta_t: DeltaTArgs,
     /// Slope of a receiving surface from horizontal, degrees (0 flat, 90 a wall).
-    #[arg(long)]
-    pub tilt_deg: Option<f64>,
+    #[arg(long, alias = "tilt-deg")]
+    pub surface_tilt_deg: Option<f64>,
     /// Direction the receiving surface faces, degrees clockwise from true north (180 = south).
     #[arg(long, default_value_t = 180.0)]
     pub surface_azimuth_deg: f64,
@@ -51,11 +51,13 @@ pub fn run(a: &IrradianceArgs) -> Result<String, String> {
     let site = a.site.site()?;
     let air = a.air.atmosphere()?;
     let bird = a.sky.bird(a.air.pressure_hpa)?;
-    let surface = match a.tilt_deg {
+    let surface = match a.surface_tilt_deg {
         Some(t) if (0.0..=180.0).contains(&t) && a.surface_azimuth_deg.is_finite() => {
             Some(Surface { tilt_deg: t, azimuth_deg: a.surface_azimuth_deg, albedo: a.sky.albedo })
         }
-        Some(t) => return Err(format!("--tilt-deg must be 0 to 180 with a finite --surface-azimuth-deg, got {t}")),
+        Some(t) => {
+            return Err(format!("--surface-tilt-deg must be 0 to 180 with a finite --surface-azimuth-deg, got {t}"))
+        }
         None => None,
     };
     let s = Setup { site, air, bird, delta_t: a.delta_t.delta_t()?, surface };

@@ -108,7 +108,7 @@ impl GridArgs {
 #[derive(Debug, Clone, Args)]
 pub struct MapFiles {
     /// Write every cell as CSV (x_m, y_m and the map's values) to this file.
-    #[arg(long, value_name = "FILE")]
+    #[arg(long = "cells-csv", alias = "csv", value_name = "FILE")]
     pub csv: Option<PathBuf>,
     /// Write the cells as GeoJSON polygons with their values to this file (WGS84 when the site came
     /// from GeoJSON, else plan metres).

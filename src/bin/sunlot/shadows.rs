@@ -5,7 +5,7 @@ use std::path::PathBuf;
 
 use clap::{Args, ValueEnum};
 use sunlot::shadow::{shadow_study, shadow_table, Study};
-use sunlot::site::SiteModel;
+use sunlot::site::{FootprintOptions, SiteModel};
 
 use crate::args::{self, input_message, DeltaTArgs, Fold};
 use crate::output::{Cell, Format, Table};
@@ -20,6 +20,17 @@ pub struct SiteFileArgs {
     /// Use the built-in, invented demo site (demo-site/hollin-vale.site.json).
     #[arg(long, conflicts_with = "path")]
     pub demo: bool,
+    /// Plain GeoJSON building footprints (no sunlot members): the site's time zone, an IANA name such as
+    /// Europe/London. Without it such a file is refused with a zone suggested from its longitude.
+    #[arg(long, value_name = "ZONE")]
+    pub zone: Option<String>,
+    /// Plain GeoJSON footprints: metres a storey for buildings given by a levels count.
+    #[arg(long, value_name = "M", default_value_t = sunlot::site::DEFAULT_STOREY_HEIGHT_M)]
+    pub storey_height_m: f64,
+    /// Plain GeoJSON footprints: the height of buildings with neither height nor levels (else such a
+    /// building is refused by name).
+    #[arg(long, value_name = "M")]
+    pub default_height_m: Option<f64>,
 }
 
 /// A loaded site, and whether it came from GeoJSON (results then go out in WGS84 too).
@@ -35,8 +46,36 @@ impl SiteFileArgs {
         }
         let path = self.path.as_ref().ok_or("give a site file, or --demo")?;
         let text = std::fs::read_to_string(path).map_err(|e| format!("{}: {e}", path.display()))?;
-        let read = SiteModel::read(&text).map_err(|e| format!("{}: {e}", path.display()))?;
-        Ok(Loaded { model: read.model, from_geojson: read.from_geojson })
+        let zone = match &self.zone {
+            Some(z) => Some(z.parse().map_err(|e| format!("--zone: {e}"))?),
+            None => None,
+        };
+        let name = path.file_stem().map(|s| s.to_string_lossy().to_string()).unwrap_or_default();
+        let footprints = FootprintOptions {
+            zone,
+            storey_height_m: self.storey_height_m,
+            default_height_m: self.default_height_m,
+            name: name.clone(),
+        };
+        let read = SiteModel::read_with(&text, &footprints).map_err(|e| {
+            let hint = if e.contains("do not say the site's time zone") {
+                " (give --zone)"
+            } else if e.contains("default_height_m for buildings") {
+                " (--default-height-m)"
+            } else {
+                ""
+            };
+            format!("{}: {e}{hint}", path.display())
+        })?;
+        for said in &read.assumptions {
+            eprintln!("sunlot: note: {said}");
+        }
+        let mut model = read.model;
+        if model.name.trim().is_empty() {
+            eprintln!("sunlot: note: the site has no name: it is called {name:?} after its file");
+            model.name = name;
+        }
+        Ok(Loaded { model, from_geojson: read.from_geojson })
     }
 }
 
@@ -183,8 +222,8 @@ pub fn run_shadow_table(a: &ShadowTableArgs) -> Result<String, String> {
         "time".to_string(),
         "altitude_deg".into(),
         "azimuth_deg".into(),
-        "shadow_per_m_height_m".into(),
-        "shadow_direction_deg".into(),
+        "shadow_length_m_per_m".into(),
+        "shadow_azimuth_deg".into(),
     ];
     cols.extend(model.volumes.iter().map(|v| format!("tip_{}_m", v.id)));
     let mut t =
@@ -199,14 +238,14 @@ pub fn run_shadow_table(a: &ShadowTableArgs) -> Result<String, String> {
             }),
             Cell::num(r.altitude_deg, 2),
             Cell::num(r.azimuth_deg, 2),
-            Cell::num(r.length_per_m, 3),
-            Cell::num(r.direction_deg, 1),
+            Cell::num(r.shadow_length_m_per_m, 3),
+            Cell::num(r.shadow_azimuth_deg, 1),
         ];
         row.extend(r.tips_m.iter().map(|(_, m)| Cell::num(*m, 1)));
         t.rows.push(row);
     }
     t.notes.push(
-        "Flat ground; length per metre of height = 1 / tan(altitude); direction clockwise from true north.".into(),
+        "Flat ground; shadow length per metre of height = 1 / tan(altitude); shadow azimuth = sun azimuth + 180°, clockwise from true north.".into(),
     );
     t.notes.push("tip_<volume>_m: distance from the volume's face to the tip of the shadow of its top.".into());
     if rows.is_empty() {
@@ -230,12 +269,12 @@ pub struct ConvertArgs {
     pub site: SiteFileArgs,
     /// Format to write on standard output.
     #[arg(long, value_enum)]
-    pub to: SiteFormat,
+    pub format: SiteFormat,
 }
 
 pub fn run_convert(a: &ConvertArgs) -> Result<String, String> {
     let model = a.site.load()?.model;
-    Ok(match a.to {
+    Ok(match a.format {
         SiteFormat::Site => model.to_json(),
         SiteFormat::Geojson => model.to_geojson(),
     } + "\n")
