@@ -156,3 +156,47 @@ fn the_two_shades_differ_by_25_lstar_for_every_vision_and_the_added_shade_is_hat
     // is flat (but for the few outlines and labels crossing it).
     assert!(a_dark > 0.08 && e_dark < 0.04, "share of hatch-dark pixels: added {a_dark:.3}, existing {e_dark:.3}");
 }
+
+/// The rule check's plan: "passes" and "fails" fills at least 25 L* apart for every vision (sampled on
+/// the rendered figure without its labels), and "fails" hatched.
+#[test]
+fn pass_and_fail_differ_by_25_lstar_for_every_vision_and_fail_is_hatched() {
+    use sunlot::render::{draw_verdict_plan, VerdictPlan};
+    use sunlot::rules::{check_rule, AnyRule, CheckRequest};
+    let model = sunlot::demo::demo();
+    // Stricter than any preset, so the demo has areas both ways (an invented test rule).
+    let text = r#"{"id": "strict", "title": "Half of each garden 5 h on 21 March", "month": 3, "day": 21,
+                   "min_hours": 5, "min_share": 0.5, "area_kinds": ["garden"]}"#;
+    let AnyRule::Area(rule) = AnyRule::from_json(text).unwrap() else { panic!("an area rule") };
+    let req = CheckRequest {
+        model: &model,
+        rule: &rule,
+        year: 2026,
+        cell_m: 1.0,
+        step_min: 30,
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    let report = check_rule(&req, |_| true).unwrap();
+    let mut plan = VerdictPlan::of_report(&model, &report).unwrap();
+    // The fills alone: labels fill most of the narrow gardens and are checked elsewhere.
+    for v in &mut plan.verdicts {
+        v.label.clear();
+    }
+    let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
+    let frame = draw_verdict_plan(&mut px, &plan);
+    let raster = px.render().unwrap();
+    let union = |passes: bool| {
+        plan.verdicts
+            .iter()
+            .filter(|v| v.passes == passes)
+            .fold(MultiPolygon::new(vec![]), |acc, v| acc.union(&MultiPolygon::new(vec![v.polygon.clone()])))
+    };
+    let (p, p_dark, pn) = sample(&raster, |c| frame.to_px(c), frame.scale, &union(true));
+    let (f, f_dark, fn_) = sample(&raster, |c| frame.to_px(c), frame.scale, &union(false));
+    assert!(pn > 300 && fn_ > 300, "enough pixels sampled: {pn} passing, {fn_} failing");
+    for v in visions() {
+        let (lp, lf) = (lstar(simulate(&v.matrix, p)), lstar(simulate(&v.matrix, f)));
+        assert!(lp - lf >= 25.0, "{}: passes L* {lp:.1}, fails L* {lf:.1}", v.name);
+    }
+    assert!(f_dark > 0.08 && p_dark < 0.06, "share of hatch-dark pixels: fails {f_dark:.3}, passes {p_dark:.3}");
+}

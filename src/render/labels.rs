@@ -58,7 +58,7 @@ impl LabelPlacer {
             && self.placed.iter().all(|p| b.2 < p.0 || b.0 > p.2 || b.3 < p.1 || b.1 > p.3)
     }
 
-    /// Labels the shape `rings` (pixels) with `text`: inside it, level or upright, at the free spot
+    /// Labels the shape `rings` (pixels) with `text` (lines split at `\n`): inside it, level or upright, at the free spot
     /// nearest its middle; else beside it with a leader line; returns `false` if no free spot was found.
     pub fn label(
         &mut self,
@@ -69,7 +69,12 @@ impl LabelPlacer {
         colour: Colour,
     ) -> bool {
         let Some((x0, y0, x1, y1)) = bounds_of(rings) else { return false };
-        let (tw, th) = (text_width_px(size_px, text) + 4.0, size_px * 1.1);
+        let lines: Vec<&str> = text.lines().collect();
+        let line_px = size_px * 1.15;
+        let widest = lines.iter().map(|l| text_width_px(size_px, l)).fold(0.0, f64::max);
+        let (tw, th) = (widest + 4.0, line_px * lines.len() as f64 - 0.05 * size_px);
+        // Line k's offset across the label from its middle (down the figure, or right when upright).
+        let across = |k: usize| -th / 2.0 + line_px * (k as f64 + 0.5) + size_px * 0.35 - 0.025 * size_px;
         let (cx, cy) = ((x0 + x1) / 2.0, (y0 + y1) / 2.0);
         // Candidate middles on a 17 × 17 lattice over the shape's bounds, nearest its middle first.
         let mut spots: Vec<(f64, f64)> = (0..289)
@@ -82,10 +87,15 @@ impl LabelPlacer {
             for &(x, y) in &spots {
                 let b = (x - hw, y - hh, x + hw, y + hh);
                 if box_inside(rings, b) && self.free(b) {
-                    if upright {
-                        d.text_vertical(x + size_px * 0.35, y, size_px, text, colour, Anchor::Middle);
-                    } else {
-                        d.text(x, y + size_px * 0.35, size_px, text, colour, Anchor::Middle);
+                    // A paper-coloured backing keeps the label readable over shade, hatching and map
+                    // cells (a cartographer's halo); on plain paper it does not show.
+                    d.fill_rect(b.0 + 1.0, b.1 + 1.0, b.2 - b.0 - 2.0, b.3 - b.1 - 2.0, Colour { a: 200, ..PAPER });
+                    for (k, line) in lines.iter().enumerate() {
+                        if upright {
+                            d.text_vertical(x + across(k), y, size_px, line, colour, Anchor::Middle);
+                        } else {
+                            d.text(x, y + across(k), size_px, line, colour, Anchor::Middle);
+                        }
                     }
                     self.placed.push(b);
                     return true;
@@ -117,7 +127,9 @@ impl LabelPlacer {
                 );
                 d.stroke(&[at, end], 1.0, colour, false);
                 d.fill_rect(b.0, b.1, b.2 - b.0, b.3 - b.1, Colour { a: 220, ..PAPER });
-                d.text(x, y + size_px * 0.35, size_px, text, colour, Anchor::Middle);
+                for (k, line) in lines.iter().enumerate() {
+                    d.text(x, y + across(k), size_px, line, colour, Anchor::Middle);
+                }
                 self.placed.push(b);
                 return true;
             }

@@ -21,6 +21,7 @@ mod ramp_table;
 mod restyle;
 mod sky_chart;
 mod svg;
+mod verdict_plan;
 
 pub use draw::{
     footnote, footnote_px, heading, text_width_px, titled, wrap, Anchor, Colour, Draw, Image, FONT_FAMILY, INK,
@@ -40,3 +41,4 @@ pub use ramp::{ramp, ramp_colour};
 pub use restyle::{Palette, Restyle};
 pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart};
 pub use svg::Svg;
+pub use verdict_plan::{draw_verdict_plan, AreaVerdict, VerdictPlan, FAILS, PASSES};

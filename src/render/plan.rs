@@ -125,6 +125,12 @@ impl PlanFrame {
 /// label: inside its outline where it fits, else beside it with a leader, never over another label.
 /// Buildings are labelled before areas, the larger first.
 pub fn draw_outlines(d: &mut dyn Draw, frame: &PlanFrame, outlines: &[Outline]) {
+    draw_outline_shapes(d, frame, outlines);
+    draw_outline_labels(d, frame, outlines, &mut LabelPlacer::new(frame.bounds_px()));
+}
+
+/// The fills and strokes of [`draw_outlines`], no labels.
+pub fn draw_outline_shapes(d: &mut dyn Draw, frame: &PlanFrame, outlines: &[Outline]) {
     for o in outlines {
         match o.kind {
             OutlineKind::Existing => d.fill_polygon(&frame.rings(&o.polygon), BUILDING),
@@ -138,13 +144,16 @@ pub fn draw_outlines(d: &mut dyn Draw, frame: &PlanFrame, outlines: &[Outline]) 
             d.stroke(&ring, width, colour, true);
         }
     }
+}
+
+/// The labels of [`draw_outlines`], placed among those `placer` already holds.
+pub fn draw_outline_labels(d: &mut dyn Draw, frame: &PlanFrame, outlines: &[Outline], placer: &mut LabelPlacer) {
     let mut order: Vec<&Outline> = outlines.iter().filter(|o| !o.label.is_empty()).collect();
     order.sort_by(|a, b| {
         (a.kind == OutlineKind::Area)
             .cmp(&(b.kind == OutlineKind::Area))
             .then(b.polygon.unsigned_area().total_cmp(&a.polygon.unsigned_area()))
     });
-    let mut placer = LabelPlacer::new(frame.bounds_px());
     for o in order {
         let colour = if o.kind == OutlineKind::Area { INK } else { o.kind.style().0 };
         let rings: Vec<Vec<(f64, f64)>> = match &o.label_region {

@@ -74,6 +74,12 @@ pub fn zone_from_longitude(longitude_deg: f64) -> String {
     }
 }
 
+/// The middle longitude of a collection's footprints and the fixed-offset zone it suggests
+/// ([`zone_from_longitude`]); `None` without a position in range.
+pub fn suggested_zone(fc: &FeatureCollection) -> Option<(f64, String)> {
+    longitude_centre(fc).map(|lon| (lon, zone_from_longitude(lon)))
+}
+
 impl SiteModel {
     /// Reads plain building footprints as a site of existing volumes (see the module docs).
     ///
@@ -131,8 +137,8 @@ impl SiteModel {
         }
         fc.features = kept;
         let Some(zone) = &options.zone else {
-            let lon = longitude_centre(&fc).unwrap_or(0.0);
-            return Err(GeoJsonError::ZoneNeeded { longitude_deg: lon, suggestion: zone_from_longitude(lon) });
+            let (longitude_deg, suggestion) = suggested_zone(&fc).unwrap_or((0.0, zone_from_longitude(0.0)));
+            return Err(GeoJsonError::ZoneNeeded { longitude_deg, suggestion });
         };
         let mut members = JsonObject::new();
         members.insert("sunlot".into(), json!({"zone": zone.to_string(), "name": options.name}));
@@ -324,6 +330,11 @@ mod tests {
         let e = SiteModel::from_footprints(PLAIN, &FootprintOptions::default()).unwrap_err();
         assert!(matches!(&e, GeoJsonError::ZoneNeeded { suggestion, .. } if suggestion == "Etc/GMT"), "{e}");
         assert!(e.to_string().contains("Etc/GMT"), "{e}");
+        // The suggestion does not wait for every building to have a height (the page offers it first).
+        let no_height: GeoJson = PLAIN.replace(r#""height": "12 m""#, "\"roof\": 1").parse().unwrap();
+        let GeoJson::FeatureCollection(fc) = no_height else { panic!() };
+        let (lon, zone) = suggested_zone(&fc).unwrap();
+        assert!((lon - -0.0999).abs() < 1e-9 && zone == "Etc/GMT", "{lon} {zone}");
         // 15° an hour, POSIX sign: east of Greenwich is Etc/GMT-N.
         assert_eq!(zone_from_longitude(151.2), "Etc/GMT-10");
         assert_eq!(zone_from_longitude(-74.0), "Etc/GMT+5");

@@ -14,8 +14,8 @@ mod windows;
 
 pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SITE_FILE_VERSION};
 pub use footprints::{
-    is_plain, zone_from_longitude, FootprintOptions, Imported, BASE_KEYS, DEFAULT_STOREY_HEIGHT_M, HEIGHT_KEYS,
-    LEVEL_KEYS,
+    is_plain, suggested_zone, zone_from_longitude, FootprintOptions, Imported, BASE_KEYS, DEFAULT_STOREY_HEIGHT_M,
+    HEIGHT_KEYS, LEVEL_KEYS,
 };
 pub use frame::LocalFrame;
 pub use geojson_io::{GeoJsonError, PROPERTY_NAMES};

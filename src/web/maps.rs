@@ -461,10 +461,10 @@ pub fn site_text_kind(#[wasm_bindgen(unchecked_param_type = "string")] text: JsV
     let parsed = text.parse::<geojson::GeoJson>();
     let out = match parsed {
         Ok(geojson::GeoJson::FeatureCollection(fc)) if crate::site::is_plain(&fc) => {
-            match crate::site::SiteModel::from_footprints(&text, &crate::site::FootprintOptions::default()) {
-                Err(crate::site::GeoJsonError::ZoneNeeded { longitude_deg, suggestion }) => serde_json::json!({
+            match crate::site::suggested_zone(&fc) {
+                Some((longitude_deg, suggestion)) => serde_json::json!({
                     "kind": "footprints", "suggestedZone": suggestion, "longitudeDeg": longitude_deg}),
-                _ => serde_json::json!({"kind": "footprints"}),
+                None => serde_json::json!({"kind": "footprints"}),
             }
         }
         Ok(geojson::GeoJson::FeatureCollection(_)) => serde_json::json!({"kind": "geojson"}),

@@ -8,9 +8,11 @@ use sunlot::rules::{
 };
 
 use crate::args::DeltaTArgs;
+use crate::figure::write_figure;
 use crate::output::{Cell, Format, Table};
 use crate::progress::Bar;
 use crate::shadows::SiteFileArgs;
+use sunlot::render::FIGURE_PX;
 
 #[derive(Debug, Args)]
 #[command(after_help = sunlot::rules::presets_help())]
@@ -46,6 +48,24 @@ pub struct CheckArgs {
     /// Output: a readable report (table), the full report as JSON, or the area rows as CSV.
     #[arg(long, value_enum, default_value_t = Format::Table)]
     pub format: Format,
+    /// Also draw the plan with each tested area filled by its verdict and labelled with its margin, as
+    /// PNG here (with several area rules, one file each, the rule's id added to the name).
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
+    /// The same plan as SVG here.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
+}
+
+/// `path` with `-rule` added before its extension when several area rules share one file name.
+fn per_rule(path: Option<&PathBuf>, rule: &str, several: bool) -> Option<PathBuf> {
+    let path = path?;
+    if !several {
+        return Some(path.clone());
+    }
+    let stem = path.file_stem().map(|s| s.to_string_lossy().to_string()).unwrap_or_default();
+    let ext = path.extension().map(|e| format!(".{}", e.to_string_lossy())).unwrap_or_default();
+    Some(path.with_file_name(format!("{stem}-{rule}{ext}")))
 }
 
 fn pct(x: f64) -> Cell {
@@ -232,13 +252,29 @@ pub fn run(a: &CheckArgs) -> Result<String, String> {
     let year = a.year.unwrap_or_else(|| chrono::Datelike::year(&chrono::Utc::now()));
     let delta_t = a.delta_t.delta_t()?;
     let (mut text, mut json) = (Vec::new(), Vec::new());
+    let several = rules.iter().filter(|r| matches!(r, AnyRule::Area(_))).count() > 1;
     for rule in &rules {
         let mut bar = Bar::new(&format!("rule {}", rule.id()), a.quiet);
         let (value, table) = match rule {
             AnyRule::Area(rule) => {
                 let req = CheckRequest { model: &model, rule, year, cell_m: a.cell_m, step_min: a.step_min, delta_t };
                 let report = check_rule(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
-                (serde_json::to_value(&report), report_table(&report))
+                let (png, svg) =
+                    (per_rule(a.png.as_ref(), &rule.id, several), per_rule(a.svg.as_ref(), &rule.id, several));
+                let mut table = report_table(&report);
+                if let Some(plan) = sunlot::render::VerdictPlan::of_report(&model, &report) {
+                    table.notes.extend(write_figure(
+                        FIGURE_PX,
+                        png.as_deref(),
+                        svg.as_deref(),
+                        "The plan of verdicts",
+                        |d| {
+                            sunlot::render::draw_verdict_plan(d, &plan);
+                            Ok(())
+                        },
+                    )?);
+                }
+                (serde_json::to_value(&report), table)
             }
             AnyRule::Window(rule) => {
                 let req = WindowCheckRequest {

@@ -140,13 +140,8 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
         Show::Before => (0, "hours of direct sun", (0.0, open), "Hours of direct sun before the proposal"),
         Show::After => (1, "hours of direct sun", (0.0, open), "Hours of direct sun with the proposal"),
     };
-    let picture = Picture {
-        layer,
-        unit,
-        range,
-        title: sunlot::render::titled(what, &model.name),
-        subtitle: a.period.describe(),
-    };
+    let picture =
+        Picture { layer, unit, range, title: sunlot::render::titled(what, &model.name), subtitle: a.period.describe() };
     t.notes.extend(maps::write_files(&a.files, &loaded, &grid, &layers, &picture)?);
     t.notes.push(CAUTION.into());
     Ok(t.render(a.format))

@@ -22,14 +22,14 @@ pub struct SiteFileArgs {
     pub demo: bool,
     /// Plain GeoJSON building footprints (no sunlot members): the site's time zone, an IANA name such as
     /// Europe/London. Without it such a file is refused with a zone suggested from its longitude.
-    #[arg(long, value_name = "ZONE")]
+    #[arg(long, value_name = "ZONE", help_heading = "Plain GeoJSON footprints")]
     pub zone: Option<String>,
     /// Plain GeoJSON footprints: metres a storey for buildings given by a levels count.
-    #[arg(long, value_name = "M", default_value_t = sunlot::site::DEFAULT_STOREY_HEIGHT_M)]
+    #[arg(long, value_name = "M", default_value_t = sunlot::site::DEFAULT_STOREY_HEIGHT_M, help_heading = "Plain GeoJSON footprints")]
     pub storey_height_m: f64,
     /// Plain GeoJSON footprints: the height of buildings with neither height nor levels (else such a
     /// building is refused by name).
-    #[arg(long, value_name = "M")]
+    #[arg(long, value_name = "M", help_heading = "Plain GeoJSON footprints")]
     pub default_height_m: Option<f64>,
 }
 
