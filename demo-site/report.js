@@ -155,7 +155,7 @@
         figure(figs, "sunlot-map", { id: "gardens-lost", date, layer: "lost" },
           `Difference: hours of direct sun lost on ${date}`, ["png", "svg", "csv", "geojson"], site).drawn,
       ];
-      ruleTable(m, site, $("rule"));
+      ruleTable(m, site, $("rule"), true);
       await Promise.all(drawn);
     },
 
@@ -206,8 +206,24 @@
   };
 
   /** The rule check against the BRE BR 209 amenity preset, with its citation and the caution. */
-  function ruleTable(m, site, parent) {
-    const r = m.checkRule({ site, preset: "bre-br209-amenity", year: 2026 });
+  function ruleTable(m, site, parent, withPlan = false) {
+    const input = { site, preset: "bre-br209-amenity", year: 2026 };
+    let r;
+    if (withPlan) {
+      // One computation draws the plan of verdicts and gives the table's figures.
+      const canvas = el("canvas", { id: "rule-plan", class: "rule-plan" });
+      r = m.drawRuleCheck(canvas, input);
+      const target = {
+        save: async (kind, name) => {
+          if (kind === "png") window.sunlotDownload(name, await new Promise(res => canvas.toBlob(res, "image/png")));
+          else window.sunlotDownload(name, new Blob([m.ruleCheckSvg(input)], { type: "image/svg+xml" }));
+        },
+      };
+      const caption = `The gardens by their verdict (${r.areas.filter(a => a.passes).length} of ${r.areas.length} pass), each labelled with its margin in share points`;
+      parent.append(el("figure", {}, canvas, el("figcaption", {}, caption, exports(target, "rule-plan", ["png", "svg"]))));
+    } else {
+      r = m.checkRule(input);
+    }
     const signed = (v, d) => (Number.isFinite(v) ? `${v >= 0 ? "+" : ""}${v.toFixed(d)}` : "—");
     const rows = r.areas.map(a => [a.id, a.name, fixed(100 * a.beforeShare, 1), fixed(100 * a.afterShare, 1),
       fixed(a.ratio, 3), signed(100 * a.shareMargin, 1), signed(a.ratioMargin, 2), `±${fixed(100 * a.shareError, 1)}`,

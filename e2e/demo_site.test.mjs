@@ -56,7 +56,7 @@ for (const name of pages) {
   await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 120000 });
   check(await page.evaluate(() => document.body.dataset.ready) === "yes" && await page.isHidden("#error"),
     `${name}: loads from file:// and starts`);
-  const inks = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map, canvas.facade")).map(w => {
+  const inks = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map, canvas.facade, canvas.rule-plan")).map(w => {
     const c = w.canvas || w, d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
     let ink = 0;
     for (let i = 0; i < d.length; i += 4) if (d[i] < 200 || d[i + 1] < 200 || d[i + 2] < 200) ink++;
@@ -80,6 +80,10 @@ for (const name of pages) {
   if (name === "index") {
     check((await page.textContent(".caution")).includes("licensed professional"), "index: the caution is shown beside the pass/fail table");
     ruleRows = await page.$$eval("#table-rule-check tbody tr", rows => rows.map(r => Array.from(r.cells).map(c => c.textContent)));
+  }
+  if (name === "gardens") {
+    check(await page.isVisible("canvas.rule-plan") && (await page.textContent("#rule figcaption")).includes("pass)"),
+      "gardens: the plan of verdicts is drawn beside the rule table");
   }
   if (name === "index" || name === "windows") {
     for (const preset of ["bre-br209-window-sky", "bre-br209-window-sun"]) {

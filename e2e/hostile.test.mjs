@@ -64,6 +64,8 @@ const report = await page.evaluate(async HANG_MS => {
     insolationMap: [{ site, areas: ["garden-16"], cellM: 2, date: "2026-03-20", stepMin: 30, aod500: 0.1, skyStepDeg: 10 },
                     (m, i) => m.insolationMap(i)],
     checkRule: [{ site, preset: "bre-br209-amenity", year: 2026, cellM: 2, stepMin: 30 }, (m, i) => m.checkRule(i)],
+    drawRuleCheck: [{ site, preset: "bre-br209-amenity", year: 2026, cellM: 2, stepMin: 60 }, (m, i) => m.drawRuleCheck(normal(), i)],
+    ruleCheckSvg: [{ site, preset: "bre-br209-amenity", year: 2026, cellM: 2, stepMin: 60 }, (m, i) => m.ruleCheckSvg(i)],
     facadeMap: [{ site, volume: "terrace-east", date: "2026-03-21", stepMin: 30, cellM: 2, massing: "existing", show: "lost" },
                 (m, i) => m.facadeMap(i)],
     facadeSvg: [{ site, volume: "house-9", date: "2026-03-21", to: "2026-03-22", window: "09:00-15:00", stepMin: 60, cellM: 3 },

@@ -7,9 +7,10 @@ use wasm_bindgen::prelude::*;
 use super::maps::camel_keys;
 use super::{err, read, site, write};
 use crate::daylight::DEFAULT_AZIMUTH_STEP_DEG;
+use crate::render::{draw_verdict_plan, VerdictPlan, FIGURE_PX};
 use crate::rules::{
-    check_rule, check_windows, preset, AnyRule, CheckRequest, RuleError, WindowCheckRequest, DEFAULT_AREA_PRESET,
-    PRESETS,
+    check_rule, check_windows, preset, AnyRule, CheckReport, CheckRequest, RuleError, WindowCheckRequest,
+    DEFAULT_AREA_PRESET, PRESETS,
 };
 use crate::time::DeltaT;
 
@@ -57,10 +58,9 @@ fn rule_of(i: &CheckIn, default: Option<&str>) -> Result<AnyRule, JsError> {
     }
 }
 
-/// A rule check on areas: the report (rule, date, each area's figures, pass/fail, margins, caution).
-#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "CheckReport")]
-pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
-    let i: CheckIn = read(input, "checkRule")?;
+/// The area check a request asks for, with its site.
+fn area_check(input: JsValue, call: &str) -> Result<(crate::site::SiteModel, CheckReport), JsError> {
+    let i: CheckIn = read(input, call)?;
     let AnyRule::Area(rule) = rule_of(&i, Some(DEFAULT_AREA_PRESET))? else {
         return Err(JsError::new("preset, rule: a window rule; check it with checkWindows"));
     };
@@ -73,8 +73,48 @@ pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input:
         step_min: i.step_min,
         delta_t: DeltaT::EspenakMeeus,
     };
-    let report = serde_json::to_value(check_rule(&req, |_| true).map_err(err)?).map_err(err)?;
-    write(&camel_keys(report))
+    let report = check_rule(&req, |_| true).map_err(err)?;
+    Ok((model, report))
+}
+
+fn report_js(report: &CheckReport) -> Result<JsValue, JsError> {
+    write(&camel_keys(serde_json::to_value(report).map_err(err)?))
+}
+
+fn verdict_plan(model: &crate::site::SiteModel, report: &CheckReport) -> Result<VerdictPlan, JsError> {
+    VerdictPlan::of_report(model, report).ok_or_else(|| JsError::new("site: has no areas or volumes to draw"))
+}
+
+/// A rule check on areas: the report (rule, date, each area's figures, pass/fail, margins, caution).
+#[wasm_bindgen(js_name = checkRule, unchecked_return_type = "CheckReport")]
+pub fn check_rule_js(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<JsValue, JsError> {
+    report_js(&area_check(input, "checkRule")?.1)
+}
+
+/// A rule check on areas drawn onto `canvas` (sized [`FIGURE_PX`] first): each tested area filled by
+/// its verdict and labelled with its margin; returns the report, as `checkRule` does.
+#[wasm_bindgen(js_name = drawRuleCheck, unchecked_return_type = "CheckReport")]
+pub fn draw_rule_check(
+    canvas: &web_sys::HtmlCanvasElement,
+    #[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue,
+) -> Result<JsValue, JsError> {
+    let (model, report) = area_check(input, "drawRuleCheck")?;
+    let plan = verdict_plan(&model, &report)?;
+    canvas.set_width(FIGURE_PX.0);
+    canvas.set_height(FIGURE_PX.1);
+    let mut surface = super::Canvas::new(canvas)?;
+    draw_verdict_plan(&mut surface, &plan);
+    report_js(&report)
+}
+
+/// The same figure as SVG text.
+#[wasm_bindgen(js_name = ruleCheckSvg)]
+pub fn rule_check_svg(#[wasm_bindgen(unchecked_param_type = "CheckInput")] input: JsValue) -> Result<String, JsError> {
+    let (model, report) = area_check(input, "ruleCheckSvg")?;
+    let plan = verdict_plan(&model, &report)?;
+    let mut svg = super::canvas::svg_surface(FIGURE_PX.0, FIGURE_PX.1)?;
+    draw_verdict_plan(&mut svg, &plan);
+    Ok(svg.finish())
 }
 
 /// A rule check on the site's windows: the report (rule, each window's figures before and with the
