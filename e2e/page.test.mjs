@@ -364,7 +364,8 @@ await page.setInputFiles("#import", { name: "town-blocks.geojson", mimeType: "ap
 await page.waitForFunction(() => !document.querySelector("#footprints").hidden, null, { timeout: 10000 });
 await page.fill("#fp-zone", "Europe/London");
 await page.click("#fp-import");
-await page.waitForFunction(() => document.querySelector("#site-name").textContent.startsWith("town-blocks"), null, { timeout: 10000 });
+await page.waitForFunction(() => document.querySelector("#site-name").textContent.startsWith("town-blocks")
+  && document.querySelector("#footprints").hidden, null, { timeout: 10000 });
 const said = await page.textContent("#assumptions");
 check(await page.isHidden("#footprints") && await page.isHidden("#error") && said.includes("2 footprint(s) read as existing buildings")
   && said.includes("given by storeys, at 3.2 m a storey"), `the footprints are imported and what was assumed is said: ${said}`);

@@ -24,6 +24,8 @@ const MAX_DIFFERING_SHARE: f64 = 0.002;
 /// Each figure: its name and the command that writes it (the PNG path is appended after `--png`).
 const FIGURES: &[(&str, &[&str])] = &[
     ("shadow-plan", &["shadows", "--demo", "--local", "2026-03-21T15:00", "--format", "table"]),
+    // A low winter sun: the frame grown toward the shadows, and a break line where they still run on.
+    ("shadow-plan-cut", &["shadows", "--demo", "--local", "2026-12-21T09:00", "--format", "table"]),
     ("sun-path", &["sky", "--demo", "--year", "2026", "--at", "14,41,1.5", "--local", "2026-06-21T15:00"]),
     (
         "hours-lost",

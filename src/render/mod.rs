@@ -4,6 +4,7 @@
 //! trait). Figures: the heat map of any
 //! exposure map and the sun-path diagram. They are composed in pixel coordinates, y down.
 
+mod cut;
 mod draw;
 mod elevation;
 mod font_widths;

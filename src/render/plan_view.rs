@@ -45,8 +45,12 @@ pub struct ShadowPlan {
     pub existing: MultiPolygon<f64>,
     /// Shade the proposal adds (with-proposal shade minus existing shade).
     pub added: MultiPolygon<f64>,
-    /// The plan area to show (the shadows are drawn within it).
+    /// The plan area to show (the shadows are drawn within it): the site's frame grown toward long
+    /// shadows within [`super::cut::MAX_GROWTH`].
     pub extent: Rect<f64>,
+    /// Stretches of the extent's edges where a shadow runs on past it (plan metres), marked with a
+    /// break line.
+    pub cut: Vec<[Coord<f64>; 2]>,
     /// Rotation of the plan's north from true north, degrees clockwise.
     pub plan_rotation_deg: f64,
     /// Footnote (the caution).
@@ -57,25 +61,30 @@ impl ShadowPlan {
     /// The plan of `study` (of `model` at the moment labelled `when`): the site's areas and volumes
     /// with a margin, the shadows cut to it.
     pub fn of_study(model: &SiteModel, study: &Study, when: &str) -> ShadowPlan {
-        let shown =
+        let site =
             site_bounds(model).unwrap_or_else(|| Rect::new(Coord { x: -50.0, y: -50.0 }, Coord { x: 50.0, y: 50.0 }));
-        let frame = MultiPolygon::new(vec![shown.to_polygon()]);
         let none = || MultiPolygon::new(vec![]);
-        let (subtitle, existing, added) = match study {
-            Study::Sun { sun, existing, combined, clipped, .. } => (
-                format!(
-                    "sun at azimuth {:.1}°, altitude {:.1}°{}",
-                    sun.azimuth_deg,
-                    sun.altitude_deg,
-                    if *clipped { "; long shadows cut at the analysis extent" } else { "" }
-                ),
-                existing.intersection(&frame),
-                combined.difference(existing).intersection(&frame),
-            ),
-            Study::NoSun { .. } => ("the sun is below the horizon: no direct sun".into(), none(), none()),
-            Study::SunBehindGround { .. } => {
-                ("the sun is behind the sloping ground: all of it in the slope's shade".into(), frame.clone(), none())
+        let (subtitle, existing, added, shown, cut) = match study {
+            Study::Sun { sun, existing, combined, .. } => {
+                let shown = super::cut::grown_extent(site, combined, crate::shadow::analysis_extent(model));
+                let frame = MultiPolygon::new(vec![shown.to_polygon()]);
+                let cut = super::cut::cut_edges(combined, shown);
+                let sides = super::cut::cut_sides(&cut, shown);
+                let mut subtitle = format!("sun at azimuth {:.1}°, altitude {:.1}°", sun.azimuth_deg, sun.altitude_deg);
+                if !sides.is_empty() {
+                    subtitle.push_str(&format!(" — shadows run on past the {sides} edge of the plan (marked)"));
+                }
+                let added = combined.difference(existing).intersection(&frame);
+                (subtitle, existing.intersection(&frame), added, shown, cut)
             }
+            Study::NoSun { .. } => ("the sun is below the horizon: no direct sun".into(), none(), none(), site, vec![]),
+            Study::SunBehindGround { .. } => (
+                "the sun is behind the sloping ground: all of it in the slope's shade".into(),
+                MultiPolygon::new(vec![site.to_polygon()]),
+                none(),
+                site,
+                vec![],
+            ),
         };
         ShadowPlan {
             title: super::titled(&format!("Shadows at {when}"), &model.name),
@@ -84,6 +93,7 @@ impl ShadowPlan {
             existing,
             added,
             extent: shown,
+            cut,
             plan_rotation_deg: model.plan_rotation_deg,
             caution: crate::rules::CAUTION.into(),
         }
@@ -141,11 +151,25 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     if extras.view.is_some() {
         let (bx, by, bw, bh) = plan_box;
         d.stroke(&[(bx, by), (bx + bw, by), (bx + bw, by + bh), (bx, by + bh)], 1.0, Colour::rgb(200, 200, 200), true);
+    } else if !plan.cut.is_empty() {
+        // The frame the shadows are cut to, and a break line where they run on past it.
+        let (lo, hi) = (plan.extent.min(), plan.extent.max());
+        let corners = [lo, Coord { x: hi.x, y: lo.y }, hi, Coord { x: lo.x, y: hi.y }].map(|c| frame.to_px(c));
+        d.stroke(&corners, 1.0, Colour::rgb(200, 200, 200), true);
+        for [a, b] in &plan.cut {
+            super::cut::draw_break_line(d, frame.to_px(*a), frame.to_px(*b), INK);
+        }
     }
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, plan.plan_rotation_deg);
     let (lx, ly) = (w - KEY_PX + 16.0, frame.by + 20.0);
-    let mut y = shade_key(d, lx, ly) + 14.0;
+    let mut y = shade_key(d, lx, ly);
+    if extras.view.is_none() && !plan.cut.is_empty() {
+        super::cut::draw_break_line(d, (lx, y - 3.0), (lx + 28.0, y - 3.0), INK);
+        d.text(lx + 38.0, y + 3.0, TEXT_PX, "shadow cut by the frame", INK, Anchor::Start);
+        y += 26.0;
+    }
+    y += 14.0;
     if let Some((layer, _)) = extras.layer {
         y = draw_legend(d, lx, y + 14.0, &layer.label, &layer.unit, layer.range) + 30.0;
     }
@@ -199,6 +223,31 @@ mod tests {
         }
         assert_eq!(at(10.0, by + bh / 2.0), [255, 255, 255]);
         assert_eq!(at(bx + bw / 2.0, by + bh + 3.0), [255, 255, 255]);
+    }
+
+    /// A low winter sun (4° up, from the south-east): the frame grows toward the shadows up to its cap
+    /// and marks where they run on past its west edge, in the subtitle and with a break line.
+    #[test]
+    fn long_shadows_grow_the_frame_and_are_marked_where_cut() {
+        let model = crate::demo::demo();
+        let t = chrono::DateTime::parse_from_rfc3339("2026-12-21T09:00:00Z").unwrap().to_utc();
+        let study = shadow_study(&model, t, DeltaT::EspenakMeeus).unwrap();
+        let plan = ShadowPlan::of_study(&model, &study, "2026-12-21 09:00 GMT");
+        let site = crate::render::site_bounds(&model).unwrap();
+        assert!(plan.extent.width() > site.width() * 1.9 && plan.extent.min().x < site.min().x);
+        assert!(!plan.cut.is_empty() && plan.cut.iter().all(|[a, b]| a.x == plan.extent.min().x && b.x == a.x));
+        assert!(plan.subtitle.contains("run on past the west edge"), "{}", plan.subtitle);
+        let mut svg = crate::render::Svg::new(FIGURE_PX.0, FIGURE_PX.1);
+        draw_shadow_plan(&mut svg, &plan, &PlanExtras::default());
+        assert!(svg.finish().contains("shadow cut by the frame"));
+        // At 15:00 in March every shadow fits: no mark.
+        assert!(plan_at("2026-03-21T15:00:00Z").cut.is_empty());
+    }
+
+    fn plan_at(t: &str) -> ShadowPlan {
+        let model = crate::demo::demo();
+        let t = chrono::DateTime::parse_from_rfc3339(t).unwrap().to_utc();
+        ShadowPlan::of_study(&model, &shadow_study(&model, t, DeltaT::EspenakMeeus).unwrap(), "t")
     }
 
     /// An imported site may have no name: its titles then end with the title, not a bare dash.
