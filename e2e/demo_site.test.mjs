@@ -64,6 +64,10 @@ for (const name of pages) {
   }));
   check(inks.length > 0 && inks.every(([, ink]) => ink > 20000),
     `${name}: every widget draws (${inks.map(([id, ink]) => `${id} ${ink}`).join(", ")})`);
+  // Each widget laid out for the width it is shown at: its 13-px labels show at 9.5 CSS px or more.
+  const small = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map"))
+    .map(w => [w.id, 13 * w.canvas.getBoundingClientRect().width / w.size.width]).filter(([, px]) => px < 9.5));
+  check(small.length === 0, `${name}: figure text readable as shown (${small.map(([id, px]) => `${id} ${px.toFixed(1)} px`).join(", ") || "all ≥ 9.5 px"})`);
   const buttons = await page.$$eval("[data-export]", bs => bs.map(b => b.dataset.export));
   let good = 0;
   const bad = [];

@@ -132,18 +132,20 @@ for (const [which, kinds] of [["sky", ["png", "svg"]], ["plan", ["png", "svg", "
 // The SVG is the same drawing as the canvas: rendered back into pixels, it matches the widget.
 const svg_vs_canvas = await page.evaluate(async () => {
   const el = document.querySelector("#plan");
+  // At the size the page shows it (exports are drawn at the design size).
+  const { width: W, height: H } = el.size;
   const img = new Image();
-  img.src = URL.createObjectURL(new Blob([el.svg()], { type: "image/svg+xml" }));
+  img.src = URL.createObjectURL(new Blob([el.svg(el.size)], { type: "image/svg+xml" }));
   await img.decode();
   const c = document.createElement("canvas");
-  c.width = 960; c.height = 760;
+  c.width = W; c.height = H;
   const ctx = c.getContext("2d");
   ctx.drawImage(img, 0, 0);
-  const a = ctx.getImageData(0, 0, 960, 760).data;
+  const a = ctx.getImageData(0, 0, W, H).data;
   const d = document.createElement("canvas");
-  d.width = 960; d.height = 760;
-  d.getContext("2d").drawImage(el.canvas, 0, 0, 960, 760);
-  const b = d.getContext("2d").getImageData(0, 0, 960, 760).data;
+  d.width = W; d.height = H;
+  d.getContext("2d").drawImage(el.canvas, 0, 0, W, H);
+  const b = d.getContext("2d").getImageData(0, 0, W, H).data;
   let diff = 0, far = 0;
   for (let i = 0; i < a.length; i += 4) {
     const e = Math.abs(a[i] - b[i]) + Math.abs(a[i + 1] - b[i + 1]) + Math.abs(a[i + 2] - b[i + 2]);
@@ -197,9 +199,10 @@ await mapDone();
 let box;
 const measure = async () => {
   await page.$eval("#plan canvas", c => c.scrollIntoView({ block: "center" }));
-  box = await page.$eval("#plan canvas", c => { const r = c.getBoundingClientRect(); return { x: r.left, y: r.top, w: r.width, h: r.height }; });
+  box = await page.$eval("#plan", p => { const r = p.canvas.getBoundingClientRect();
+    return { x: r.left, y: r.top, w: r.width, h: r.height, fw: p.size.width, fh: p.size.height }; });
 };
-const fx = x => box.x + x * box.w / 960, fy = y => box.y + y * box.h / 760;
+const fx = x => box.x + x * box.w / box.fw, fy = y => box.y + y * box.h / box.fh;
 await measure();
 const unzoomed = await pixels("#plan canvas");
 const fitted_width = await page.evaluate(() => document.querySelector("#plan").currentView().widthM);
@@ -241,11 +244,23 @@ check(!(await page.isHidden("#feature")) && (await page.inputValue("#f-id")).len
   `clicking a volume selects it (${await page.inputValue("#f-id")})`);
 check(await page.inputValue("#point") === point_before_select,
   `selecting a volume to edit leaves the sky point where it was (${point_before_select} → ${await page.inputValue("#point")})`);
+// The shaded area in plan m² (the plan's frame grows with long shadows, so its ink is no measure).
+const shade_m2 = () => page.evaluate(() => {
+  const fc = JSON.parse(document.querySelector("#plan").shadowsGeojson());
+  const ring = r => r.reduce((a, p, i) => { const q = r[(i + 1) % r.length]; return a + p[0] * q[1] - q[0] * p[1]; }, 0) / 2;
+  const poly = rings => Math.abs(ring(rings[0])) - rings.slice(1).reduce((a, r) => a + Math.abs(ring(r)), 0);
+  return fc.features.filter(f => f.properties.layer === "feature_shadow")
+    .reduce((a, f) => a + (f.geometry.type === "Polygon" ? poly(f.geometry.coordinates)
+      : f.geometry.type === "MultiPolygon" ? f.geometry.coordinates.reduce((b, p) => b + poly(p), 0) : 0), 0);
+});
 const before_raise = await pixels("#plan canvas");
+const shade_before = await shade_m2();
 await page.fill("#f-top", "30");
 await page.click("#feature button[type=submit]");
 const raised = await changed("#plan canvas", before_raise);
-check(raised.ink > before_raise.ink, "raising the selected volume lengthens its shadow");
+const shade_raised = await shade_m2();
+check(shade_raised > shade_before * 1.05,
+  `raising the selected volume lengthens its shadow (${shade_before.toFixed(0)} → ${shade_raised.toFixed(0)} m² of shade features)`);
 check(!(await page.isDisabled("#undo")), "the edit can be undone");
 await page.click("#undo");
 check((await changed("#plan canvas", raised)).hash === before_raise.hash, "undo restores the plan");
@@ -376,12 +391,63 @@ await page.click("#reset-demo");
 await page.waitForFunction(n => document.querySelector("#site-name").textContent === n, name_before, { timeout: 10000 });
 check(await page.isHidden("#assumptions") && !(await page.isHidden("#demo-note")), "back on the demo, the notes are the demo's");
 
-// Print: the one-page sheet hides the controls and keeps the figures and the caution.
+// Readable at 1366×768: each figure is laid out for the width it is shown at, so its smallest text
+// (13 px labels in the figure) shows at 9.5 CSS px or more; exports keep the design size.
+await page.setViewportSize({ width: 1366, height: 768 });
+await page.waitForTimeout(500);
+const text_px = await page.evaluate(() => ["#plan", "#sky", "#map"].map(id => {
+  const el = document.querySelector(id), shown = el.canvas.getBoundingClientRect().width;
+  return [id, 13 * shown / el.size.width, el.size.width, Math.round(shown)];
+}));
+check(text_px.every(([, px]) => px >= 9.5), `at 1366×768 the figures' smallest text shows at ${text_px.map(([id, px, w, shown]) =>
+  `${id} ${px.toFixed(1)} px (drawn ${w} px wide, shown ${shown})`).join(", ")}`);
+await page.screenshot({ path: path.join(shots, "index-1366.png") });
+const [sky_dl] = await Promise.all([page.waitForEvent("download"), page.click('[data-export="sky-png"]')]);
+await sky_dl.saveAs(path.join(shots, "sky-1366.png"));
+const sky_png = readFileSync(path.join(shots, "sky-1366.png"));
+check(sky_png.readUInt32BE(16) === 900 * (await page.evaluate(() => document.querySelector("#sky").ratio)),
+  `a figure shown small still exports at its design size (${sky_png.readUInt32BE(16)} px wide)`);
+await page.setViewportSize({ width: 1400, height: 1000 });
+await page.waitForTimeout(300);
+
+// Print: one landscape sheet on A4 and on US Letter — the title block, the plan and the map, the
+// caution, no controls; every text at 7 pt or more, in the figures too (laid out at the print width
+// of the smaller sheet, 259 × 190 mm inside 10 mm margins = 979 × 718 CSS px).
+await page.setViewportSize({ width: 979, height: 718 });
 await page.emulateMedia({ media: "print" });
-check(await page.isHidden("#controls") && await page.isVisible("#plan canvas") && await page.isVisible(".caution"),
-  "the print sheet shows the figures and the caution without the controls");
+await page.waitForTimeout(500);
+check(await page.isHidden("#controls") && await page.isVisible("#plan canvas") && await page.isVisible("#map canvas")
+  && await page.isVisible(".caution") && await page.isVisible("#title-block"),
+  "the print sheet shows the title block, the figures and the caution without the controls");
+const title_block = await page.textContent("#title-block");
+check(title_block.includes("Hollin Vale") && /Study: \d{4}-\d\d-\d\d at \d\d:\d\d/.test(title_block)
+  && title_block.includes("proposal as drawn") && title_block.includes("true north"),
+  `the title block names the site, the moment, the massing, scale and north: ${title_block.replace(/\s+/g, " ").trim()}`);
+const print_pt = await page.evaluate(() => {
+  const figures = ["#plan", "#map"].map(id => { const el = document.querySelector(id);
+    return [id, 0.75 * 13 * el.canvas.getBoundingClientRect().width / el.size.width]; });
+  let least = Infinity, where = "";
+  for (const el of document.querySelectorAll("body *")) {
+    const own = Array.from(el.childNodes).some(n => n.nodeType === 3 && n.textContent.trim());
+    if (!own || !el.getClientRects().length) continue;
+    const pt = 0.75 * parseFloat(getComputedStyle(el).fontSize);
+    if (pt < least) { least = pt; where = el.tagName.toLowerCase() + (el.id ? `#${el.id}` : el.className ? `.${el.className}` : ""); }
+  }
+  return { figures, least, where };
+});
+check(print_pt.figures.every(([, pt]) => pt >= 7) && print_pt.least >= 7,
+  `printed text is 7 pt or more: figures ${print_pt.figures.map(([id, pt]) => `${id} ${pt.toFixed(1)} pt`).join(", ")}; ` +
+  `page text from ${print_pt.least.toFixed(1)} pt (${print_pt.where})`);
 await page.screenshot({ path: path.join(shots, "index-print.png"), fullPage: true });
+for (const format of ["A4", "Letter"]) {
+  const pdf = await page.pdf({ format, landscape: true, printBackground: true });
+  writeFileSync(path.join(shots, `index-print-${format}.pdf`), pdf);
+  const pages = (pdf.toString("latin1").match(/\/Type\s*\/Page(?![s\w])/g) || []).length;
+  check(pages === 1, `printed on ${format} landscape the sheet is one page (${pages})`);
+}
 await page.emulateMedia({ media: "screen" });
+await page.setViewportSize({ width: 1400, height: 1000 });
+await page.waitForTimeout(300);
 
 // Embedding: a page of its own with one script tag for the module and the widgets, attributes and CSS
 // custom properties; the paper colour reaches the figure.
@@ -417,13 +483,14 @@ const page2 = await hidpi.newPage();
 await page2.goto(page_url);
 await page2.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
 const sky2 = await page2.evaluate(() => {
-  const c = document.querySelector("#sky canvas");
+  const el = document.querySelector("#sky"), c = el.canvas;
   const d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
   let ink = 0;
   for (let i = 0; i < d.length; i += 4) if (d[i] < 200 || d[i + 1] < 200 || d[i + 2] < 200) ink++;
-  return { width: c.width, ink };
+  return { width: c.width, figure: el.size.width, ink };
 });
-check(sky2.width === 1800 && sky2.ink > 3 * sky.ink, `high-DPI canvases are drawn at full resolution (${sky2.width} px wide, ${sky2.ink} inked)`);
+check(sky2.width === 2 * sky2.figure && sky2.ink > 2.5 * sky.ink,
+  `high-DPI canvases are drawn at full resolution (${sky2.width} px wide for a ${sky2.figure}-px figure, ${sky2.ink} inked)`);
 await page2.screenshot({ path: path.join(shots, "index-hidpi.png") });
 await hidpi.close();
 

@@ -93,6 +93,20 @@
         `${line.dayHours.toFixed(2)} h: ${spans.join(", ") || "no sun"}.`;
     }
 
+    /** The print sheet's title block: the site, the moment studied, the massing, the print date. */
+    function titleBlock(date, time) {
+      const deg = (v, pos, neg) => `${Math.abs(v).toFixed(4)}° ${v >= 0 ? pos : neg}`;
+      $("tb-site").textContent = info.name || "Unnamed site";
+      $("tb-where").textContent = `${deg(info.latitudeDeg, "N", "S")}, ${deg(info.longitudeDeg, "E", "W")}; ` +
+        `clock times ${info.zone}`;
+      $("tb-when").textContent = `${date} at ${time} local time; the map as titled on it`;
+      const proposed = info.volumes.filter(v => v.status === "proposed").length;
+      $("tb-massing").textContent = proposed
+        ? `existing buildings and the proposal as drawn (${proposed} proposed volume${proposed > 1 ? "s" : ""})`
+        : "existing buildings only (no proposal drawn)";
+      $("tb-printed").textContent = new Date().toISOString().slice(0, 10);
+    }
+
     function redraw() {
       hideError();
       const { date, time } = moment();
@@ -104,6 +118,7 @@
         plan.setMoment(date, time);
         sky.setMoment(date, time);
         summary();
+        titleBlock(date, time);
       } catch (e) { showError(e); }
     }
 

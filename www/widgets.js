@@ -20,6 +20,10 @@
     && document.querySelector('script[src$="sunlot.bundle.js"], script[src$="sunlot-widgets.bundle.js"]');
   const WORKER_URL = BUNDLE ? new URL("sunlot-worker.js", BUNDLE.src).href : null;
   const SKY = { width: 900, height: 720 };
+  // Shown narrower than its design size, a figure is laid out at most this many times the width it is
+  // shown at (and never under MIN_FIGURE_WIDTH), so its 13-14 px text reads at 10 px or more on the
+  // page; exports keep the design size.
+  const READING_SCALE = 1.3, MIN_FIGURE_WIDTH = 640;
 
   /** The maps a plan or map widget can show: which call makes them and how they read. */
   const MAPS = {
@@ -90,16 +94,15 @@
   class SunlotFigure extends HTMLElement {
     constructor(size) {
       super();
-      this.size = size;
+      this.base = size;          // the design size: exports are drawn at it
+      this.size = { ...size };   // the size drawn on the page, from the width it is shown at
       this.wrap = document.createElement("div");
       this.wrap.className = "sunlot-frame";
       this.canvas = document.createElement("canvas");
       // Crisp on high-DPI screens: as many canvas pixels as device pixels, drawn at the figure's size.
-      const ratio = Math.min(Math.max(window.devicePixelRatio || 1, 1), 4);
-      this.ratio = ratio;
-      this.canvas.width = Math.round(size.width * ratio);
-      this.canvas.height = Math.round(size.height * ratio);
-      this.canvas.dataset.scale = String(ratio);
+      this.ratio = Math.min(Math.max(window.devicePixelRatio || 1, 1), 4);
+      this.canvas.dataset.scale = String(this.ratio);
+      this.sizeCanvases();
       this.canvas.setAttribute("role", "img");
       this.canvas.tabIndex = 0;
       // Sized by its container (set through the CSSOM, which a strict style-src allows).
@@ -109,10 +112,43 @@
       this.state = { site: null, date: "2026-03-21", time: "12:00" };
     }
 
+    /** Sizes the canvas (and any canvas over it) to `this.size` at the device pixel ratio. */
+    sizeCanvases() {
+      this.canvas.width = Math.round(this.size.width * this.ratio);
+      this.canvas.height = Math.round(this.size.height * this.ratio);
+    }
+
+    /** Fits the figure's drawing size to the width it is shown at; true if it changed. */
+    fitSize() {
+      if (this.printing) return false;
+      const shown = this.wrap.getBoundingClientRect().width;
+      if (!(shown > 0)) return false;
+      const width = Math.round(Math.min(this.base.width, Math.max(MIN_FIGURE_WIDTH, shown * READING_SCALE)));
+      if (width === this.size.width) return false;
+      this.size = { width, height: Math.round(width * this.base.height / this.base.width) };
+      this.sizeCanvases();
+      return true;
+    }
+
+    /** For print (`on`), the figure is laid out at its smallest width, so its text prints large
+     * enough wherever the sheet puts it (at least 122 mm wide gives 7 pt); afterwards, as shown. */
+    printSize(on) {
+      this.printing = on;
+      if (on) {
+        this.size = { width: MIN_FIGURE_WIDTH, height: Math.round(MIN_FIGURE_WIDTH * this.base.height / this.base.width) };
+        this.sizeCanvases();
+      } else if (!this.fitSize()) return;
+      this.render();
+    }
+
     connectedCallback() {
       if (!this.wrap.isConnected) this.appendChild(this.wrap);
+      this.fitSize();
       if (this.started) return;
       this.started = true;
+      if (window.ResizeObserver) {
+        new ResizeObserver(() => { if (this.fitSize()) this.render(); }).observe(this.wrap);
+      }
       for (const a of ["date", "time"]) if (this.hasAttribute(a)) this.state[a] = this.getAttribute(a);
       this.ready = window.sunlot.then(m => { this.module = m; return m; });
       const inline = this.querySelector('script[type="application/json"]');
@@ -182,9 +218,19 @@
       try { this.draw(); } catch (e) { this.fail(e.message); }
     }
 
-    /** The figure as a PNG blob. */
+    /** The figure as a PNG blob, drawn at its design size whatever size the page shows it at. */
     png() {
-      return new Promise(resolve => this.canvas.toBlob(resolve, "image/png"));
+      if (this.size.width === this.base.width) return new Promise(resolve => this.canvas.toBlob(resolve, "image/png"));
+      const shown = this.size;
+      this.size = { ...this.base };
+      this.sizeCanvases();
+      this.render();
+      // toBlob copies the bitmap at once: the page's own size is back before anything is painted.
+      const blob = new Promise(resolve => this.canvas.toBlob(resolve, "image/png"));
+      this.size = shown;
+      this.sizeCanvases();
+      this.render();
+      return blob;
     }
 
     /** The figure as a file of `kind`: "png" or "svg"; for maps also "csv" and "geojson" (the
@@ -244,7 +290,7 @@
         `seen from (${this.point.xM}, ${this.point.yM}) at ${this.point.zM} m`);
       this.dispatchEvent(new CustomEvent("sunlot-drawn", { bubbles: true, detail: { figure: "sky" } }));
     }
-    svg() { return this.module.skyChartSvg(this.input(), SKY.width, SKY.height); }
+    svg(size = this.base) { return this.module.skyChartSvg(this.input(), size.width, size.height); }
   }
 
   /**
@@ -336,7 +382,7 @@
       this.canvas.setAttribute("aria-label", `Map of ${this.map.spec.label} (${this.map.spec.unit}), ${describeMap(this.map)}`);
       this.dispatchEvent(new CustomEvent("sunlot-drawn", { bubbles: true, detail: { figure: "map", kind: this.map.kind } }));
     }
-    svg() { return this.map ? this.map.layer.mapSvg(this.input(), FIGURE.width, FIGURE.height) : ""; }
+    svg(size = this.base) { return this.map ? this.map.layer.mapSvg(this.input(), size.width, size.height) : ""; }
   }
 
   /** Even-odd point-in-polygon on [[x, y], …]. */
@@ -367,8 +413,7 @@
       super(FIGURE);
       this.overlay = document.createElement("canvas");
       this.overlay.className = "sunlot-overlay";
-      this.overlay.width = this.canvas.width;
-      this.overlay.height = this.canvas.height;
+      this.sizeCanvases();
       this.overlay.setAttribute("aria-hidden", "true");
       Object.assign(this.overlay.style, { position: "absolute", left: "0", top: "0", width: "100%", height: "100%",
         touchAction: "none", cursor: "crosshair" });
@@ -381,6 +426,13 @@
       this.future = [];          // site texts undone (redo)
       this.underlay = null;      // { image, placement, opacity }
       this.listen();
+    }
+
+    sizeCanvases() {
+      super.sizeCanvases();
+      if (!this.overlay) return;
+      this.overlay.width = this.canvas.width;
+      this.overlay.height = this.canvas.height;
     }
 
     siteChanged() {
@@ -406,9 +458,9 @@
         "[ and ] step the time by 15 minutes.");
       this.dispatchEvent(new CustomEvent("sunlot-drawn", { bubbles: true, detail: { figure: "plan", localTime: input.localTime } }));
     }
-    svg() {
-      return this.map ? this.map.layer.planSvg(this.input(), FIGURE.width, FIGURE.height)
-        : this.module.shadowPlanSvg(this.input(), FIGURE.width, FIGURE.height);
+    svg(size = this.base) {
+      return this.map ? this.map.layer.planSvg(this.input(), size.width, size.height)
+        : this.module.shadowPlanSvg(this.input(), size.width, size.height);
     }
     shadowsGeojson() { return this.module.shadowsGeojson(this.input()); }
     /** The plan's GeoJSON export is its shadows (the map layer's cells export from the map widget). */
@@ -784,6 +836,12 @@
 
   self.sunlotRunInWorker = runInWorker;
   self.sunlotDownload = download;
+  // Printing lays every figure out for the sheet (see printSize); the page's print button, the
+  // browser's print and print emulation all pass through one of these.
+  const forPrint = on => document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map").forEach(el => el.printSize(on));
+  self.addEventListener("beforeprint", () => forPrint(true));
+  self.addEventListener("afterprint", () => forPrint(false));
+  if (self.matchMedia) self.matchMedia("print").addEventListener("change", e => forPrint(e.matches));
   self.sunlotComputeMap = computeMap;
   self.sunlotMaps = MAPS;
   customElements.define("sunlot-sky", SunlotSky);
