@@ -86,6 +86,9 @@
         `Hours of direct sun lost to the proposal on ${date}`, ["png", "svg", "csv", "geojson"], site);
       ruleTable(m, site, $("rule"));
       windowVerdicts(m, site, $("windows"), ["bre-br209-window-sky", "bre-br209-window-sun"]);
+      // The printed sheet's title block line (print only): study date, massing, print date.
+      $("print-meta").textContent = `Study date ${date} · existing buildings and the proposal as drawn · ` +
+        `graphic scale and true north on each plan · printed ${new Date().toISOString().slice(0, 10)}`;
       await Promise.all([plan.drawn, lost.drawn]);
       $("print").addEventListener("click", () => window.print());
     },
@@ -239,6 +242,7 @@
   /** Window rule checks: per rule a table of each window's figures before and with the proposal, the
    *  verdict and why, the source, and the cautions (numbers from memory are said so). */
   function windowVerdicts(m, site, parent, presets) {
+    const said = new Set(); // each caution once, however many rules carry it
     for (const preset of presets) {
       const r = m.checkWindows({ site, preset, year: 2026, stepMin: 10 });
       const names = [...new Set(r.windows.flatMap(w => w.figures.map(f => f.name)))];
@@ -261,10 +265,14 @@
       const passing = tested.filter(w => w.passes).length;
       parent.append(table(`windows-${preset}`, `${r.rule.title} — ${passing} of ${tested.length} windows pass; the rule ${r.passes ? "passes" : "fails"}`, head, rows));
       if (names.some(n => n.endsWith("_share"))) {
-        parent.append(el("p", { class: "citation", text: "Year's and winter's sun: hours of direct sun on the window, as a percent of the year's sun-up hours at the site." }));
+        parent.append(el("p", { class: "citation definition", text: "Year's and winter's sun: hours of direct sun on the window, as a percent of the year's sun-up hours at the site." }));
       }
-      parent.append(el("p", { class: "citation", text: `Rule: ${r.rule.source}.` }));
-      for (const c of r.cautions) parent.append(el("p", { class: "caution", text: c }));
+      parent.append(el("p", { class: "citation source", text: `Rule: ${r.rule.source}.` }));
+      for (const c of r.cautions.filter(c => !said.has(c))) {
+        said.add(c);
+        // The general caution is also the page's footer; the printed sheet shows it there only.
+        parent.append(el("p", { class: /licensed professional/.test(c) ? "caution general" : "caution", text: c }));
+      }
     }
   }
 

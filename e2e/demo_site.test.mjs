@@ -5,7 +5,7 @@
 // A screenshot of each page goes to target/e2e/ as a test artefact.
 // Run: node e2e/demo_site.test.mjs (after ./dev wasm and a cargo build of the CLI).
 import { chromium } from "playwright-core";
-import { existsSync, mkdirSync, readFileSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { execFileSync, spawn } from "node:child_process";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import path from "node:path";
@@ -82,6 +82,32 @@ for (const name of pages) {
   }
   check(buttons.length > 0 && bad.length === 0, `${name}: ${good} of ${buttons.length} exports parse${bad.length ? ` (not: ${bad.join(", ")})` : ""}`);
   if (name === "index") {
+    // The one-page summary prints as one landscape sheet on A4 and US Letter, every text at 7 pt or
+    // more, figures included (laid out at the smaller sheet's print area, 263 × 196 mm = 994 × 741 px).
+    await page.setViewportSize({ width: 994, height: 741 });
+    await page.emulateMedia({ media: "print" });
+    await page.waitForTimeout(500);
+    const printed = await page.evaluate(() => {
+      const figures = Array.from(document.querySelectorAll("sunlot-plan, sunlot-map"))
+        .map(w => 0.75 * 13 * w.canvas.getBoundingClientRect().width / w.size.width);
+      let least = Infinity;
+      for (const el of document.querySelectorAll("body *")) {
+        const own = Array.from(el.childNodes).some(n => n.nodeType === 3 && n.textContent.trim());
+        if (own && el.getClientRects().length) least = Math.min(least, 0.75 * parseFloat(getComputedStyle(el).fontSize));
+      }
+      return { figures, least };
+    });
+    const sheets = [];
+    for (const format of ["A4", "Letter"]) {
+      const pdf = await page.pdf({ format, landscape: true, printBackground: true });
+      writeFileSync(path.join(shots, `index-print-${format}.pdf`), pdf);
+      sheets.push(`${format} ${(pdf.toString("latin1").match(/\/Type\s*\/Page(?![s\w])/g) || []).length}`);
+    }
+    check(sheets.every(s => s.endsWith(" 1")) && printed.figures.length === 2 && printed.figures.every(pt => pt >= 7)
+      && printed.least >= 7, `index: the summary prints on one sheet (${sheets.join(", ")} page), text from ` +
+      `${printed.least.toFixed(1)} pt, figures' smallest ${printed.figures.map(pt => pt.toFixed(1)).join(" and ")} pt`);
+    await page.emulateMedia({ media: "screen" });
+    await page.setViewportSize({ width: 1400, height: 1000 });
     check((await page.textContent(".caution")).includes("licensed professional"), "index: the caution is shown beside the pass/fail table");
     ruleRows = await page.$$eval("#table-rule-check tbody tr", rows => rows.map(r => Array.from(r.cells).map(c => c.textContent)));
   }

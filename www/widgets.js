@@ -23,7 +23,7 @@
   // Shown narrower than its design size, a figure is laid out at most this many times the width it is
   // shown at (and never under MIN_FIGURE_WIDTH), so its 13-14 px text reads at 10 px or more on the
   // page; exports keep the design size.
-  const READING_SCALE = 1.3, MIN_FIGURE_WIDTH = 640;
+  const READING_SCALE = 1.3, MIN_FIGURE_WIDTH = 640, PRINT_ASPECT = 0.84;
 
   /** The maps a plan or map widget can show: which call makes them and how they read. */
   const MAPS = {
@@ -135,7 +135,8 @@
     printSize(on) {
       this.printing = on;
       if (on) {
-        this.size = { width: MIN_FIGURE_WIDTH, height: Math.round(MIN_FIGURE_WIDTH * this.base.height / this.base.width) };
+        // A little flatter than on screen (the sheet is short); the figures lay out for any size.
+        this.size = { width: MIN_FIGURE_WIDTH, height: Math.round(PRINT_ASPECT * MIN_FIGURE_WIDTH * this.base.height / this.base.width) };
         this.sizeCanvases();
       } else if (!this.fitSize()) return;
       this.render();

@@ -2,10 +2,10 @@
 //! the map's unit, a scale bar, a north arrow and the caution line.
 
 use super::draw::{footnote, footnote_px, heading, Draw, PAPER};
-use super::layer::{draw_cells, draw_legend, MapLayer};
+use super::layer::{draw_cells, draw_legend_len, MapLayer, LEGEND_PX};
 use super::plan::site_outlines;
 use super::plan::{draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, Outline, PlanFrame};
-use super::plan_view::KEY_PX;
+use super::plan_view::key_px;
 use crate::exposure::Grid;
 use crate::site::SiteModel;
 
@@ -68,14 +68,17 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) -> PlanFrame {
     let top = heading(d, &map.title, &map.subtitle);
 
     let layer = MapLayer::on_grid(map.grid, map.values.to_vec(), "", &map.unit, map.range);
-    let plan_box = (24.0, top, w - 24.0 - KEY_PX, h - top - 56.0 - footnote_px(&map.caution, w));
+    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(&map.caution, w));
     let frame = PlanFrame::fit(layer.bounds, &map.outlines, plan_box);
     draw_cells(d, &frame, &layer, &layer.rgba());
     draw_outlines(d, &frame, &map.outlines);
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, map.plan_rotation_deg);
-    let (lx, ly) = (w - KEY_PX + 16.0, frame.by + 20.0);
-    let below = draw_legend(d, lx, ly, "", &map.unit, map.range);
+    let (lx, ly) = (w - key_px(w) + 16.0, frame.by + 20.0);
+    // The ramp as long as the column allows above the outline key (three rows) and the footnote.
+    let room = frame.by + frame.bh - ly - 40.0 - 3.0 * 24.0;
+    let len = LEGEND_PX.min((0.5 * h).round()).min(room);
+    let below = draw_legend_len(d, lx, ly, "", &map.unit, map.range, len);
     outline_key(d, &map.outlines, lx, below + 40.0);
     footnote(d, &map.caution);
     frame

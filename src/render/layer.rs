@@ -71,9 +71,23 @@ pub const LEGEND_PX: f64 = 320.0;
 
 /// The legend: the label and unit above a vertical ramp with five labelled ticks, its top left at
 /// (`x`, `y`). Returns the y below it.
-pub fn draw_legend(d: &mut dyn Draw, x: f64, y: f64, label: &str, unit: &str, (lo, hi): (f64, f64)) -> f64 {
+pub fn draw_legend(d: &mut dyn Draw, x: f64, y: f64, label: &str, unit: &str, range: (f64, f64)) -> f64 {
     // Shorter on a short figure (drawn small for print or a narrow page): at most half its height.
-    let (lw, lh) = (24.0, LEGEND_PX.min((0.5 * f64::from(d.size().1)).round()));
+    let len = LEGEND_PX.min((0.5 * f64::from(d.size().1)).round());
+    draw_legend_len(d, x, y, label, unit, range, len)
+}
+
+/// As [`draw_legend`], the ramp `len_px` long (at least 100 px).
+pub fn draw_legend_len(
+    d: &mut dyn Draw,
+    x: f64,
+    y: f64,
+    label: &str,
+    unit: &str,
+    (lo, hi): (f64, f64),
+    len_px: f64,
+) -> f64 {
+    let (lw, lh) = (24.0, len_px.max(100.0));
     let title = if label.is_empty() { unit.to_string() } else { format!("{label} ({unit})") };
     let lines = super::draw::wrap(&title, TEXT_PX, 210.0);
     let top = y + 19.0 * (lines.len().max(1) - 1) as f64;

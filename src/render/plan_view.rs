@@ -103,6 +103,16 @@ impl ShadowPlan {
 /// Width of the key column at the right of a plan figure, pixels.
 pub const KEY_PX: f64 = 250.0;
 
+/// The key column's width on a figure `width_px` wide: [`KEY_PX`], narrower on a narrow figure (drawn
+/// small for print or a narrow page) so the plan keeps most of the width; its longest entries still fit.
+pub fn key_px(width_px: f64) -> f64 {
+    if width_px < 800.0 {
+        190.0
+    } else {
+        KEY_PX
+    }
+}
+
 /// The key of the two shades, from (`x`, `y`) down; returns the next free y.
 pub fn shade_key(d: &mut dyn Draw, x: f64, y: f64) -> f64 {
     let swatch = |y: f64| vec![(x, y - 11.0), (x + 28.0, y - 11.0), (x + 28.0, y + 5.0), (x, y + 5.0)];
@@ -131,7 +141,7 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, PAPER);
     let top = heading(d, &plan.title, &plan.subtitle);
-    let plan_box = (24.0, top, w - 24.0 - KEY_PX, h - top - 56.0 - footnote_px(&plan.caution, w));
+    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(&plan.caution, w));
     let frame = match extras.view {
         Some((centre, width_m)) => PlanFrame::view(centre, width_m, plan_box),
         None => PlanFrame::fit(plan.extent, &plan.outlines, plan_box),
@@ -162,11 +172,11 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     }
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, plan.plan_rotation_deg);
-    let (lx, ly) = (w - KEY_PX + 16.0, frame.by + 20.0);
+    let (lx, ly) = (w - key_px(w) + 16.0, frame.by + 20.0);
     let mut y = shade_key(d, lx, ly);
     if extras.view.is_none() && !plan.cut.is_empty() {
         super::cut::draw_break_line(d, (lx, y - 3.0), (lx + 28.0, y - 3.0), INK);
-        d.text(lx + 38.0, y + 3.0, TEXT_PX, "shadow cut by the frame", INK, Anchor::Start);
+        d.text(lx + 38.0, y + 3.0, TEXT_PX, "cut at the edge", INK, Anchor::Start);
         y += 26.0;
     }
     y += 14.0;
@@ -239,7 +249,7 @@ mod tests {
         assert!(plan.subtitle.contains("run on past the west edge"), "{}", plan.subtitle);
         let mut svg = crate::render::Svg::new(FIGURE_PX.0, FIGURE_PX.1);
         draw_shadow_plan(&mut svg, &plan, &PlanExtras::default());
-        assert!(svg.finish().contains("shadow cut by the frame"));
+        assert!(svg.finish().contains("cut at the edge"));
         // At 15:00 in March every shadow fits: no mark.
         assert!(plan_at("2026-03-21T15:00:00Z").cut.is_empty());
     }

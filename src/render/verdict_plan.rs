@@ -14,7 +14,7 @@ use super::labels::LabelPlacer;
 use super::plan::{draw_north_arrow, draw_outline_labels, draw_outline_shapes, draw_scale_bar, outline_key};
 use super::plan::{site_bounds, site_outlines};
 use super::plan::{Outline, PlanFrame};
-use super::plan_view::KEY_PX;
+use super::plan_view::key_px;
 use crate::rules::CheckReport;
 use crate::site::SiteModel;
 
@@ -162,7 +162,7 @@ pub fn draw_verdict_plan(d: &mut dyn Draw, plan: &VerdictPlan) -> PlanFrame {
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, PAPER);
     let top = heading(d, &plan.title, &plan.subtitle);
-    let plan_box = (24.0, top, w - 24.0 - KEY_PX, h - top - 56.0 - footnote_px(&plan.caution, w));
+    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(&plan.caution, w));
     let frame = PlanFrame::fit(plan.extent, &plan.outlines, plan_box);
     d.clip(Some(frame.bounds_px()));
     for v in &plan.verdicts {
@@ -186,7 +186,7 @@ pub fn draw_verdict_plan(d: &mut dyn Draw, plan: &VerdictPlan) -> PlanFrame {
     d.clip(None);
     draw_scale_bar(d, &frame);
     draw_north_arrow(d, &frame, plan.plan_rotation_deg);
-    let (lx, mut y) = (w - KEY_PX + 16.0, frame.by + 20.0);
+    let (lx, mut y) = (w - key_px(w) + 16.0, frame.by + 20.0);
     for (passes, text) in [(true, "passes"), (false, "fails")] {
         let swatch = vec![(lx, y - 9.0), (lx + 24.0, y - 9.0), (lx + 24.0, y + 7.0), (lx, y + 7.0)];
         fill_verdict(d, &[swatch], passes);
