@@ -288,6 +288,10 @@ fn insolation_layers_views_palettes_and_underlays_through_the_facade() {
     assert_eq!(&corner[..3], &[0xfd, 0xf6, 0xe3], "the page's paper colour");
     let svg = layer.plan_svg(js(&plan_in), 960, 760).expect("svg");
     assert!(svg.contains("clip-path") && svg.contains("insolation (kWh/m²)") && svg.contains("#fdf6e3"));
+    // The map's cells ride in the SVG as a PNG the browser encoded (the module carries no encoder of
+    // its own): a data URL whose bytes start with the PNG signature.
+    let start = svg.find("href=\"data:image/png;base64,").expect("the cells as a PNG image") + 28;
+    assert!(svg[start..].starts_with("iVBORw0KGgo"), "{}", &svg[start..start + 20]);
     let text = sunlot::web::map_geojson_js(
         js(&format!(
             r#"{{"site": {site}, "grid": {}, "name": "insolation_kwh_m2"}}"#,

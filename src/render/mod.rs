@@ -16,6 +16,7 @@ mod layer;
 mod pixmap;
 mod plan;
 mod plan_view;
+#[cfg(not(target_arch = "wasm32"))]
 mod png;
 mod ramp;
 mod ramp_table;
@@ -37,9 +38,10 @@ pub use layer::{draw_cells, draw_legend, MapLayer, LEGEND_PX};
 pub use pixmap::{rasterise_svg, Pixmap, Raster, RasterError};
 pub use plan::{site_bounds, site_outlines, Outline, OutlineKind, PlanFrame};
 pub use plan_view::{draw_shadow_plan, PlanExtras, ShadowPlan};
+#[cfg(not(target_arch = "wasm32"))]
 pub use png::encode_png;
 pub use ramp::{ramp, ramp_colour};
 pub use restyle::{Palette, Restyle};
 pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart};
-pub use svg::Svg;
+pub use svg::{ImageEncoder, Svg};
 pub use verdict_plan::{draw_verdict_plan, AreaVerdict, VerdictPlan, FAILS, PASSES};

@@ -2,9 +2,10 @@
 
 use std::fmt::Write;
 
-use base64::Engine;
-
 use super::draw::{Anchor, Colour, Draw, Image, FONT_FAMILY};
+
+/// Encodes an image as the URL of an SVG `<image>` (a PNG data URL); `None` leaves the image out.
+pub type ImageEncoder = fn(&Image) -> Option<String>;
 
 /// An SVG document being drawn.
 #[derive(Debug, Clone)]
@@ -15,6 +16,22 @@ pub struct Svg {
     /// Clip paths made so far, and whether a clipped group is open.
     clips: usize,
     clipped: bool,
+    encoder: ImageEncoder,
+}
+
+/// Natively: the `png` crate's PNG, base64 in a data URL.
+#[cfg(not(target_arch = "wasm32"))]
+fn png_data_url(image: &Image) -> Option<String> {
+    let png = super::png::encode_png(image.rgba, image.width, image.height);
+    use base64::Engine;
+    Some(format!("data:image/png;base64,{}", base64::engine::general_purpose::STANDARD.encode(png)))
+}
+
+/// In wasm no PNG encoder is built in (it would weigh ~48 KB gzipped): the facade gives the browser's
+/// (a canvas's `toDataURL`) through [`Svg::with_image_encoder`]; without one images are left out.
+#[cfg(target_arch = "wasm32")]
+fn png_data_url(_image: &Image) -> Option<String> {
+    None
 }
 
 fn esc(s: &str) -> String {
@@ -35,7 +52,13 @@ fn path(points: &[(f64, f64)], closed: bool) -> String {
 impl Svg {
     /// A blank document.
     pub fn new(width: u32, height: u32) -> Self {
-        Svg { width, height, body: String::new(), clips: 0, clipped: false }
+        Svg { width, height, body: String::new(), clips: 0, clipped: false, encoder: png_data_url }
+    }
+
+    /// The same document, its images encoded by `encoder`.
+    pub fn with_image_encoder(mut self, encoder: ImageEncoder) -> Self {
+        self.encoder = encoder;
+        self
     }
 
     /// The document.
@@ -114,12 +137,11 @@ impl Draw for Svg {
     }
 
     fn image(&mut self, x: f64, y: f64, width: f64, height: f64, image: &Image) {
-        let png = super::png::encode_png(image.rgba, image.width, image.height);
-        let data = base64::engine::general_purpose::STANDARD.encode(png);
+        let Some(href) = (self.encoder)(image) else { return };
         let _ = writeln!(
             self.body,
             "<image x=\"{x:.2}\" y=\"{y:.2}\" width=\"{width:.2}\" height=\"{height:.2}\" preserveAspectRatio=\"none\" \
-             image-rendering=\"optimizeSpeed\" style=\"image-rendering:pixelated\" href=\"data:image/png;base64,{data}\"/>"
+             image-rendering=\"optimizeSpeed\" style=\"image-rendering:pixelated\" href=\"{href}\"/>"
         );
     }
 }

@@ -6,8 +6,9 @@
 use geojson::{FeatureCollection, GeoJson, GeometryValue, JsonObject};
 use serde_json::{json, Value};
 
-use super::file::SiteModel;
+use super::file::{Area, AreaKind, SiteModel};
 use super::geojson_io::GeoJsonError;
+use super::massing::Status;
 use crate::limits::{within, MAX_HEIGHT_M, MAX_SITE_TEXT_BYTES};
 use crate::time::Zone;
 
@@ -143,18 +144,59 @@ impl SiteModel {
         let mut members = JsonObject::new();
         members.insert("sunlot".into(), json!({"zone": zone.to_string(), "name": options.name}));
         fc.foreign_members = Some(members);
-        let model = SiteModel::from_geojson(&serde_json::to_string(&fc).unwrap_or_default())?;
+        let mut model = SiteModel::from_geojson(&serde_json::to_string(&fc).unwrap_or_default())?;
+        let ground = surroundings(&model)?;
         let mut assumptions = vec![format!(
             "Plain GeoJSON: {} footprint(s) read as existing buildings (a \"status\": \"proposed\" property \
                  marks a proposal); the time zone is {zone} as given; the ground is flat at 0 m elevation.",
             model.volumes.len()
         )];
+        if let Some((area, margin_m)) = ground {
+            assumptions.push(format!(
+                "An area {SURROUNDINGS_ID:?} (the footprints' bounding box grown by {margin_m:.0} m, the tallest \
+                 building's height and at least {MIN_MARGIN_M:.0} m) was added so that maps have ground to cover; \
+                 draw the lots and gardens to check them against a rule."
+            ));
+            model.areas.push(area);
+        }
         if !options.name.trim().is_empty() {
             assumptions.push(format!("Plain GeoJSON has no site name: the site is called {:?}.", options.name));
         }
         assumptions.extend(notes.sentences(options));
         Ok(Imported { model, assumptions })
     }
+}
+
+/// The id of the area added around imported footprints.
+pub const SURROUNDINGS_ID: &str = "surroundings";
+/// The least margin of that area around the footprints, metres (a choice of ours: room for the
+/// shadows of low buildings; the tallest building's height is used when larger).
+const MIN_MARGIN_M: f64 = 20.0;
+
+/// The ground around the footprints as an area (their bounding box grown by the tallest height, at
+/// least [`MIN_MARGIN_M`]), with the margin used; `None` for a site that has areas.
+fn surroundings(model: &SiteModel) -> Result<Option<(Area, f64)>, GeoJsonError> {
+    if !model.areas.is_empty() {
+        return Ok(None);
+    }
+    let polys: Vec<geo::Polygon<f64>> = model.volumes.iter().map(|v| v.footprint.clone()).collect();
+    let Some(b) = geo::BoundingRect::bounding_rect(&geo::MultiPolygon::new(polys)) else { return Ok(None) };
+    let margin_m = model.volumes.iter().map(|v| v.top_m).fold(MIN_MARGIN_M, f64::max);
+    let (lo, hi) = (b.min(), b.max());
+    let ring = geo::LineString::from(vec![
+        (lo.x - margin_m, lo.y - margin_m),
+        (hi.x + margin_m, lo.y - margin_m),
+        (hi.x + margin_m, hi.y + margin_m),
+        (lo.x - margin_m, hi.y + margin_m),
+    ]);
+    let area = Area::new(
+        SURROUNDINGS_ID,
+        "Ground around the imported buildings",
+        AreaKind::Other,
+        Status::Existing,
+        geo::Polygon::new(ring, vec![]),
+    )?;
+    Ok(Some((area, margin_m)))
 }
 
 /// What the import assumed, gathered feature by feature.
@@ -323,6 +365,13 @@ mod tests {
         assert!(said.contains("1 building(s) given by storeys, at 3 m a storey: #1"), "{said}");
         assert!(said.contains("1 feature(s) that are not footprints (not polygons) were left out: #2"), "{said}");
         assert_eq!(got.model.zone.to_string(), "Europe/London");
+        // Ground to map around them: the bounding box grown by 20 m (the tallest is 15 m).
+        let a = &got.model.areas;
+        assert_eq!((a.len(), a[0].id.as_str()), (1, SURROUNDINGS_ID));
+        let r = geo::BoundingRect::bounding_rect(&a[0].polygon).unwrap();
+        let fp = geo::BoundingRect::bounding_rect(&v[0].footprint).unwrap();
+        assert!((fp.min().x - r.min().x - 20.0).abs() < 1e-6, "{r:?} {fp:?}");
+        assert!(said.contains("An area \"surroundings\""), "{said}");
     }
 
     #[test]

@@ -235,7 +235,20 @@ pub fn sky_chart_svg(
 /// An SVG surface of `width` × `height` pixels, within [`crate::limits::figure_size`].
 pub(crate) fn svg_surface(width: u32, height: u32) -> Result<crate::render::Svg, JsError> {
     crate::limits::figure_size("width, height", width, height).map_err(super::err)?;
-    Ok(crate::render::Svg::new(width, height))
+    Ok(crate::render::Svg::new(width, height).with_image_encoder(browser_png))
+}
+
+/// An image as a PNG data URL by the browser's own encoder (a scratch canvas's `toDataURL`); `None`
+/// where there is no document (a worker).
+fn browser_png(image: &Image) -> Option<String> {
+    let document = web_sys::window()?.document()?;
+    let canvas: HtmlCanvasElement = document.create_element("canvas").ok()?.dyn_into().ok()?;
+    canvas.set_width(image.width);
+    canvas.set_height(image.height);
+    let ctx: CanvasRenderingContext2d = canvas.get_context("2d").ok()??.dyn_into().ok()?;
+    let data = ImageData::new_with_u8_clamped_array_and_sh(Clamped(image.rgba), image.width, image.height).ok()?;
+    ctx.put_image_data(&data, 0.0, 0.0).ok()?;
+    canvas.to_data_url_with_type("image/png").ok()
 }
 
 /// A local wall time `YYYY-MM-DDTHH:MM` in the site's zone (the earlier of a repeated time).
