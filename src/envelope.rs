@@ -195,7 +195,7 @@ pub fn solar_envelope(req: &EnvelopeRequest, mut progress: impl FnMut(f64) -> bo
             }
         }
         if !progress((row + 1) as f64 / total as f64) {
-            return Err(ExposureError::Period("cancelled".into()));
+            return Err(ExposureError::Cancelled);
         }
     }
     let step = req.height_step_m;

@@ -319,7 +319,7 @@ pub fn facade_map(
                 done += 1;
             }
             if !progress(done as f64 / cells as f64) {
-                return Err(ExposureError::Period("cancelled".into()));
+                return Err(ExposureError::Cancelled);
             }
         }
     }

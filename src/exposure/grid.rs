@@ -28,6 +28,9 @@ pub enum ExposureError {
     /// The solar engine refused an instant.
     #[error("{0}")]
     Time(#[from] crate::solar::InputError),
+    /// The caller's progress callback asked to stop.
+    #[error("cancelled")]
+    Cancelled,
 }
 
 /// Square cells over the bounding box of an area; cells whose centre is outside the area are marked.

@@ -99,7 +99,7 @@ pub fn insolation(req: &InsolationRequest, mut progress: impl FnMut(f64) -> bool
     let (g, model) = (req.grid, req.model);
     let sky_view = sky_view_map(model, g, req.plane_m, req.massing, req.sky_step_deg)?;
     if !progress(0.05) {
-        return Err(ExposureError::Period("cancelled".into()));
+        return Err(ExposureError::Cancelled);
     }
     let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, req.plane_m);
     let mut sums = ShadeSums::<2>::new(model, g, receiver, req.massing);

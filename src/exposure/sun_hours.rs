@@ -70,7 +70,7 @@ pub(crate) fn check_plane(plane_m: f64) -> Result<(), ExposureError> {
 }
 
 /// Runs `day(date, steps, eph)` for every date of `period` with its sun-up steps, reporting progress
-/// every few days; stops with "cancelled" when `progress` returns `false`.
+/// every few days; stops with [`ExposureError::Cancelled`] when `progress` returns `false`.
 pub(crate) fn for_each_day(
     model: &SiteModel,
     period: &Period,
@@ -83,14 +83,37 @@ pub(crate) fn for_each_day(
     for (k, date) in period.dates().enumerate() {
         day(date, period.steps_of(model, date, delta_t, &mut eph)?)?;
         if ((k + 1) % DAYS_PER_REPORT == 0 || k + 1 == days) && !progress((k + 1) as f64 / days as f64) {
-            return Err(ExposureError::Period("cancelled".into()));
+            return Err(ExposureError::Cancelled);
         }
     }
     Ok(())
 }
 
 /// Hours of direct sun per cell. `progress` is told the fraction done every few days and may return
-/// `false` to cancel, which returns [`ExposureError::Period`] with "cancelled".
+/// `false` to cancel, which returns [`ExposureError::Cancelled`].
+///
+/// # Examples
+/// ```
+/// use chrono::NaiveDate;
+/// use sunlot::exposure::{sun_hours, Grid, Massing, Period, SunHoursRequest, Window, DEFAULT_MAX_CELLS};
+/// use sunlot::DeltaT;
+/// // The demo's front garden at 9 Weir Close has nothing to its south: on 21 March at 52.6° N every
+/// // cell gets the open site's hours, sunrise to sunset (about 12.2 h: the day is a little longer
+/// // than 12 h at an equinox, by refraction and the sun's radius; common practice).
+/// let model = sunlot::demo::demo();
+/// let garden = model.areas.iter().find(|a| a.id == "garden-9").unwrap();
+/// let grid = Grid::over_polygon(&garden.polygon, 1.0, DEFAULT_MAX_CELLS)?;
+/// let day = NaiveDate::from_ymd_opt(2026, 3, 21).unwrap();
+/// let period = Period { first: day, last: day, window: Window::Daylight, step_min: 5 };
+/// let req = SunHoursRequest {
+///     model: &model, grid: &grid, period, plane_m: 0.0, delta_t: DeltaT::EspenakMeeus, massing: Massing::WithProposed,
+/// };
+/// let map = sun_hours(&req, |_| true)?;
+/// assert!((map.open_hours - 12.25).abs() < 0.1, "{}", map.open_hours);
+/// let least = map.hours.iter().flatten().fold(f64::INFINITY, |a, &h| a.min(h));
+/// assert!(least > map.open_hours - 1.0, "{least}");
+/// # Ok::<(), sunlot::exposure::ExposureError>(())
+/// ```
 ///
 /// # Errors
 /// [`ExposureError`] for an empty or inverted window, a bad step, plane or date range (before any
@@ -232,7 +255,8 @@ mod tests {
         assert!(sun_hours(&req, |_| true).is_err());
         let mut req = request(&m, &g, d);
         req.period.last = d + Duration::days(30);
-        assert_eq!(sun_hours(&req, |f| f < 0.5).unwrap_err().to_string(), "cancelled");
+        let e = sun_hours(&req, |f| f < 0.5).unwrap_err();
+        assert!(matches!(e, ExposureError::Cancelled) && e.to_string() == "cancelled", "{e}");
         assert!(matches!(
             Grid::over_polygon(&m.areas[0].polygon, 0.001, DEFAULT_MAX_CELLS),
             Err(ExposureError::CellSize(_))

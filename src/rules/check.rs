@@ -93,6 +93,22 @@ pub struct CheckReport {
 
 /// Checks the site against the rule. `progress` gets the fraction done and may cancel.
 ///
+/// # Examples
+/// ```
+/// use sunlot::rules::{check_rule, preset, AnyRule, CheckRequest};
+/// use sunlot::DeltaT;
+/// // The demo's gardens against BRE BR 209's amenity test (half of each area with 2 h of sun on
+/// // 21 March, or 0.8 × its former sunlit area): every garden passes, 16's with 64 % of it sunlit.
+/// let model = sunlot::demo::demo();
+/// let AnyRule::Area(rule) = preset("bre-br209-amenity")? else { unreachable!("an area rule") };
+/// let req = CheckRequest { model: &model, rule: &rule, year: 2026, cell_m: 1.0, step_min: 10, delta_t: DeltaT::EspenakMeeus };
+/// let report = check_rule(&req, |_| true)?;
+/// assert!(report.all_pass);
+/// let g16 = report.areas.iter().find(|a| a.id == "garden-16").unwrap();
+/// assert!((g16.after_share - 0.64).abs() < 0.05 && g16.share_margin > 0.0, "{}", g16.after_share);
+/// # Ok::<(), sunlot::rules::RuleError>(())
+/// ```
+///
 /// # Errors
 /// [`RuleError`] for an unknown area, no areas, a bad date, grid or step (before any work), or a
 /// cancelled run.

@@ -149,7 +149,7 @@ pub fn check_windows(
             Plan::Year(t, steps) => sun_year(req, w, t, steps)?,
         });
         if !progress(done + (1.0 - done) * (k + 1) as f64 / n) {
-            return Err(crate::exposure::ExposureError::Period("cancelled".into()).into());
+            return Err(crate::exposure::ExposureError::Cancelled.into());
         }
     }
     let tested: Vec<bool> = out.iter().filter_map(|w| w.passes).collect();

@@ -197,6 +197,22 @@ pub enum Shadows {
 /// a plane parallel to it), for the sun at `azimuth_deg` (plan frame) and `altitude_deg`, clipped to
 /// `extent` (low sun casts very long shadows).
 ///
+/// # Examples
+/// ```
+/// use geo::{Area, Coord, LineString, Polygon, Rect};
+/// use sunlot::shadow::{cast_shadows, Receiver, Shadows};
+/// use sunlot::site::{Status, Volume};
+/// // A 10 m cube with the sun due south at 45°: its shadow runs 10 m / tan 45° = 10 m north, so the
+/// // shade it casts on flat ground, footprint included, is 10 m × 20 m (analytic).
+/// let square = LineString::from(vec![(0.0, 0.0), (10.0, 0.0), (10.0, 10.0), (0.0, 10.0)]);
+/// let cube = Volume::new("cube", Status::Existing, Polygon::new(square, vec![]), 0.0, 10.0)?;
+/// let extent = Rect::new(Coord { x: -100.0, y: -100.0 }, Coord { x: 100.0, y: 100.0 });
+/// let Shadows::Sun { union, clipped, .. } = cast_shadows(&[cube], &[], 180.0, 45.0, &Receiver::flat_ground(), extent)?
+/// else { unreachable!("the sun is up") };
+/// assert!((union.unsigned_area() - 200.0).abs() < 1e-6 && !clipped);
+/// # Ok::<(), Box<dyn std::error::Error>>(())
+/// ```
+///
 /// # Errors
 /// [`ShadowError`] for a degenerate extent or non-finite angles.
 pub fn cast_shadows(
