@@ -8,7 +8,7 @@
 //! ```
 //!
 //! The figures are drawn from SVG by resvg with the font embedded in the binary, so they do not
-//! depend on the fonts of the machine. The tolerance (a channel 24 levels off, on at most 0.2 % of
+//! depend on the fonts of the machine. The tolerance (a channel 24 levels off, on at most 0.01 % of
 //! the pixels) takes anti-aliasing noise between builds of the rasteriser, not a moved line or label.
 
 #![cfg(not(target_arch = "wasm32"))]
@@ -19,7 +19,7 @@ use std::process::Command;
 /// A pixel differs when any channel is more than this many levels (of 255) off.
 const CHANNEL_TOLERANCE: u8 = 24;
 /// A figure passes while no more than this share of its pixels differ.
-const MAX_DIFFERING_SHARE: f64 = 0.002;
+const MAX_DIFFERING_SHARE: f64 = 1e-4;
 
 /// Each figure: its name and the command that writes it (the PNG path is appended after `--png`).
 const FIGURES: &[(&str, &[&str])] = &[

@@ -370,7 +370,9 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             }
         }
     }
-    // Neighbouring paths' labels on alternate sides of their highest points.
+    // Neighbouring paths' labels on alternate sides of their highest points; their boxes are kept so
+    // the sun's label can keep off them.
+    let mut boxes: Vec<(f64, f64, f64, f64)> = Vec::new();
     tags.sort_by(|a, b| a.1 .1.total_cmp(&b.1 .1));
     for (n, (c, (az, alt))) in tags.into_iter().enumerate() {
         let Some((_, text)) = legend.iter().find(|(j, _)| *j == c) else { continue };
@@ -381,6 +383,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             if n % 2 == 0 { (x + 6.0, Anchor::Start, x + 9.0) } else { (x - tw - 12.0, Anchor::End, x - 9.0) };
         d.fill_rect(left, y - 16.0, tw + 6.0, 16.0, Colour { a: 210, ..PAPER });
         d.text(tx, y - 4.0, LABEL_PX, &text, PATH_COLOURS[c], anchor);
+        boxes.push((left, y - 16.0, left + tw + 6.0, y));
     }
 
     if let Some(t) = chart.now {
@@ -396,7 +399,20 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             d.fill_polygon(std::slice::from_ref(&disc), SUN);
             d.stroke(&disc, 1.0, INK, true);
             let label = chart.zone.local(t).format("sun at %H:%M").to_string();
-            d.text(x + 11.0, y - 9.0, TEXT_PX, &label, INK, Anchor::Start);
+            // Beside the disc, on the first side clear of the paths' labels (above right, below right,
+            // above left, below left), on a paper backing.
+            let (tw, th) = (super::draw::text_width_px(TEXT_PX, &label) + 6.0, TEXT_PX + 4.0);
+            let sides = [
+                (x + 10.0, y - 10.0 - th),
+                (x + 10.0, y + 10.0),
+                (x - 10.0 - tw, y - 10.0 - th),
+                (x - 10.0 - tw, y + 10.0),
+            ];
+            let clear =
+                |&(bx, by): &(f64, f64)| boxes.iter().all(|b| bx + tw < b.0 || bx > b.2 || by + th < b.1 || by > b.3);
+            let (bx, by) = sides.iter().copied().find(clear).unwrap_or(sides[0]);
+            d.fill_rect(bx, by, tw, th, Colour { a: 210, ..PAPER });
+            d.text(bx + 3.0, by + th - 5.0, TEXT_PX, &label, INK, Anchor::Start);
         }
     }
     let mut y = top + 36.0 + 22.0 * legend.len() as f64 + 14.0;
