@@ -187,8 +187,13 @@ console.log(`     the year's map (1 m cells, 15-min steps) took ${Date.now() - t
   `(${(await page.evaluate(() => window.sunlotLastMapMs)).toFixed(0)} ms in the worker)`);
 check((await changed("#map canvas", map_before_year)).ink > 20000, `the year's map is drawn: ${await page.textContent("#map-status")}`);
 await page.screenshot({ path: path.join(shots, "index-year.png"), fullPage: true });
-await page.selectOption("#layer", "envelope");
-await page.click("#map-cancel"); // at once: the worker is still starting, so the run cannot finish first
+// Start the envelope and cancel it in one task: the worker's answer cannot be taken in between.
+await page.evaluate(() => {
+  const layer = document.querySelector("#layer");
+  layer.value = "envelope";
+  layer.dispatchEvent(new Event("change"));
+  document.querySelector("#map-cancel").click();
+});
 await page.waitForFunction(() => document.querySelector("#map-status").textContent === "cancelled", null, { timeout: 10000 });
 check(await page.isHidden("#map-progress"), "a cancelled run says so and hides its progress bar");
 await page.selectOption("#layer", "sun-hours");

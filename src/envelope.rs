@@ -26,6 +26,14 @@ use crate::site::SiteModel;
 use crate::solar::Ephemeris;
 use crate::time::DeltaT;
 
+/// The envelope's defaults when a request does not say (the CLI's and the module's): the protected
+/// window 09:00-15:00, 15-minute steps, 1 m cells, a 30 m cap, heights in 0.1 m, GeoJSON bands of 3 m.
+pub const DEFAULT_ENVELOPE_WINDOW: &str = "09:00-15:00";
+pub const DEFAULT_ENVELOPE_CELL_M: f64 = 1.0;
+pub const DEFAULT_MAX_HEIGHT_M: f64 = 30.0;
+pub const DEFAULT_HEIGHT_STEP_M: f64 = 0.1;
+pub const DEFAULT_BAND_M: f64 = 3.0;
+
 /// What to compute.
 #[derive(Debug, Clone)]
 pub struct EnvelopeRequest<'a> {

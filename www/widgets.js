@@ -328,11 +328,9 @@
     return rows.join("\n") + "\n";
   }
 
-  /** The period and settings of a computed map, in words. */
+  /** The period (in the core's words) and the cells of a computed map. */
   function describeMap(map) {
-    const i = map.input;
-    return `${i.date}${i.to ? ` to ${i.to}` : ""}, ${i.window || "sunrise to sunset"}, ${i.cellM || 1} m cells, ` +
-      `${i.stepMin}-minute steps`;
+    return `${map.result.period}, ${map.input.cellM || 1} m cells`;
   }
 
   /** Mixin: a widget that shows a map it computes for its `layer` attribute, or one it is given. */

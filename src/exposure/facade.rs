@@ -36,6 +36,8 @@ pub const SAMPLE_OFFSET_M: f64 = 0.01;
 
 /// Most cells of one facade map (all faces together).
 pub const MAX_FACADE_CELLS: usize = 200_000;
+/// Largest side of a face's cells when a request does not say, metres.
+pub const DEFAULT_FACADE_CELL_M: f64 = 1.0;
 
 /// One face of a volume.
 #[derive(Debug, Clone, PartialEq)]

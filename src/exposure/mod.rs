@@ -21,13 +21,13 @@ mod year_profile;
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
 pub use cover::MIN_COVER;
 pub use facade::{
-    facade_map, faces_of, FacadeLayer, FacadeRequest, Face, FaceMap, FaceWindow, FACADE_SKY_STEP_DEG, MAX_FACADE_CELLS,
-    SAMPLE_OFFSET_M,
+    facade_map, faces_of, FacadeLayer, FacadeRequest, Face, FaceMap, FaceWindow, DEFAULT_FACADE_CELL_M,
+    FACADE_SKY_STEP_DEG, MAX_FACADE_CELLS, SAMPLE_OFFSET_M,
 };
 pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};
-pub use period::{Period, Step, Window};
+pub use period::{Period, Step, Window, DEFAULT_CELL_M, DEFAULT_LONG_STEP_MIN, DEFAULT_STEP_MIN};
 pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;
 pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};

@@ -37,6 +37,24 @@ impl Window {
     }
 }
 
+impl std::fmt::Display for Window {
+    /// "sunrise to sunset", or the clock times "09:00-15:00" as they are written in requests.
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Window::Daylight => f.write_str("sunrise to sunset"),
+            Window::Clock { from, to } => write!(f, "{}-{}", from.format("%H:%M"), to.format("%H:%M")),
+        }
+    }
+}
+
+/// Cell size of ground maps when a request does not say, metres (the CLI's, the module's and the
+/// page's default: fine enough to resolve a garden fence's shadow; common practice).
+pub const DEFAULT_CELL_M: f64 = 0.5;
+/// Time step of a day's map when a request does not say, minutes.
+pub const DEFAULT_STEP_MIN: u32 = 5;
+/// Time step of a longer run (a point's day, a year's map, an envelope, facade faces), minutes.
+pub const DEFAULT_LONG_STEP_MIN: u32 = 15;
+
 /// Local dates, a daily window and a step.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Period {
@@ -62,6 +80,14 @@ pub struct Step {
 }
 
 impl Period {
+    /// The period in words, as figures and tables state it: "2026-03-21, sunrise to sunset, 5-minute
+    /// steps" or "2026-06-01 to 2026-08-31, 09:00-15:00, 10-minute steps".
+    pub fn describe(&self) -> String {
+        let dates =
+            if self.last == self.first { self.first.to_string() } else { format!("{} to {}", self.first, self.last) };
+        format!("{dates}, {}, {}-minute steps", self.window, self.step_min)
+    }
+
     /// One local date, sunrise to sunset, at `step_min`.
     pub fn day(date: NaiveDate, step_min: u32) -> Self {
         Period { first: date, last: date, window: Window::Daylight, step_min }
@@ -178,5 +204,19 @@ impl Period {
             }
         }
         Ok(out)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_period_says_itself_in_one_form() {
+        let d = |m, day| NaiveDate::from_ymd_opt(2026, m, day).unwrap();
+        assert_eq!(Period::day(d(3, 21), 5).describe(), "2026-03-21, sunrise to sunset, 5-minute steps");
+        let window = Window::parse("09:00-15:00").unwrap();
+        let summer = Period { first: d(6, 1), last: d(8, 31), window, step_min: 10 };
+        assert_eq!(summer.describe(), "2026-06-01 to 2026-08-31, 09:00-15:00, 10-minute steps");
     }
 }

@@ -4,6 +4,7 @@
 use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 
+use super::defaults;
 use super::maps::{date, massing_of, window};
 use super::{err, read, site, write};
 use crate::exposure::{facade_map, FacadeLayer, FacadeRequest, FaceMap, Massing, Period, SunSteps};
@@ -20,22 +21,14 @@ struct FacadeIn {
     date: String,
     to: Option<String>,
     window: Option<String>,
-    #[serde(default = "fifteen")]
+    #[serde(default = "defaults::long_step_min")]
     step_min: u32,
-    #[serde(default = "one")]
+    #[serde(default = "defaults::facade_cell_m")]
     cell_m: f64,
     massing: Option<String>,
     /// `hours` (default), `beam`, `insolation` (beam and diffuse) or `lost` (hours lost to the
     /// proposal), for the figures.
     show: Option<String>,
-}
-
-fn fifteen() -> u32 {
-    15
-}
-
-fn one() -> f64 {
-    1.0
 }
 
 /// A computed facade map: the site, the faces with the proposal, before it (for the hours lost), and
@@ -77,13 +70,7 @@ fn compute(i: &FacadeIn, with_before: bool) -> Result<Computed, JsError> {
     } else {
         None
     };
-    let describe = format!(
-        "{}{}, {}, {}-minute steps",
-        i.date,
-        i.to.as_deref().map_or(String::new(), |t| format!(" to {t}")),
-        i.window.as_deref().unwrap_or("sunrise to sunset"),
-        i.step_min
-    );
+    let describe = period.describe();
     Ok(Computed { model, faces, before, describe })
 }
 

@@ -7,6 +7,7 @@ use js_sys::Float64Array;
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
+use super::defaults;
 use super::{err, read, read_split, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
@@ -32,12 +33,12 @@ struct MapIn {
     /// Area ids (default: all).
     #[serde(default)]
     areas: Vec<String>,
-    #[serde(default = "half")]
+    #[serde(default = "defaults::cell_m")]
     cell_m: f64,
     date: String,
     to: Option<String>,
     window: Option<String>,
-    #[serde(default = "five")]
+    #[serde(default = "defaults::step_min")]
     step_min: u32,
     #[serde(default)]
     plane_m: f64,
@@ -82,13 +83,6 @@ pub(crate) fn camel_keys(value: serde_json::Value) -> serde_json::Value {
         Value::Array(items) => Value::Array(items.into_iter().map(camel_keys).collect()),
         other => other,
     }
-}
-
-fn half() -> f64 {
-    0.5
-}
-fn five() -> u32 {
-    5
 }
 
 impl MapIn {
@@ -205,8 +199,11 @@ pub fn sun_hours_map(
         grid: GridOut,
         open_hours: f64,
         steps: usize,
+        /// The period in words (the core's [`Period::describe`]).
+        period: String,
     }
-    let out = write(&Out { grid: grid_out(&grid), open_hours: map.open_hours, steps: map.steps })?;
+    let out =
+        write(&Out { grid: grid_out(&grid), open_hours: map.open_hours, steps: map.steps, period: period.describe() })?;
     set(&out, "hours", &array(&map.hours))?;
     Ok(out)
 }
@@ -222,7 +219,8 @@ pub fn compare_map(
     let (model, grid, period, _) = i.parts_over(true)?;
     let req = i.request(&model, &grid, period, Massing::WithProposed);
     let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours}))?;
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours,
+                                         "period": period.describe()}))?;
     set(&out, "before", &array(&ba.before.hours))?;
     set(&out, "after", &array(&ba.after.hours))?;
     set(&out, "lostH", &array(&ba.lost_h))?;
@@ -265,7 +263,7 @@ pub fn insolation_map(
     };
     let m = crate::exposure::insolation(&req, progress(&on_progress)).map_err(err)?;
     let o = m.open;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "open": {
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "period": period.describe(), "open": {
         "totalKwhM2": o.total_kwh_m2, "beamKwhM2": o.beam_kwh_m2, "diffuseKwhM2": o.diffuse_kwh_m2,
         "sunHours": o.sun_hours}}))?;
     set(&out, "totalKwhM2", &array(&m.total_kwh_m2))?;
@@ -286,27 +284,14 @@ struct EnvelopeIn {
     date: String,
     to: Option<String>,
     window: Option<String>,
-    #[serde(default = "fifteen")]
+    #[serde(default = "defaults::long_step_min")]
     step_min: u32,
-    #[serde(default = "one")]
+    #[serde(default = "defaults::envelope_cell_m")]
     cell_m: f64,
-    #[serde(default = "thirty")]
+    #[serde(default = "defaults::max_height_m")]
     max_height_m: f64,
-    #[serde(default = "tenth")]
+    #[serde(default = "defaults::height_step_m")]
     height_step_m: f64,
-}
-
-fn fifteen() -> u32 {
-    15
-}
-fn one() -> f64 {
-    1.0
-}
-fn thirty() -> f64 {
-    30.0
-}
-fn tenth() -> f64 {
-    0.1
 }
 
 /// The solar envelope of a lot: `{grid, heightM: Float64Array, steps}`.
@@ -336,7 +321,7 @@ pub fn solar_envelope_js(
         .map_err(|e| JsError::new(&format!("cellM: {e}")))?;
     let first = date(&i.date, "date")?;
     let last = i.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
-    let window = window(Some(i.window.as_deref().unwrap_or("09:00-15:00")))?;
+    let window = window(Some(i.window.as_deref().unwrap_or(crate::envelope::DEFAULT_ENVELOPE_WINDOW)))?;
     let req = EnvelopeRequest {
         model: &model,
         grid: &grid,
@@ -347,7 +332,8 @@ pub fn solar_envelope_js(
         delta_t: DeltaT::EspenakMeeus,
     };
     let env = solar_envelope(&req, progress(&on_progress)).map_err(err)?;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "steps": env.steps}))?;
+    let out =
+        write(&serde_json::json!({"grid": grid_out(&grid), "steps": env.steps, "period": req.period.describe()}))?;
     set(&out, "heightM", &array(&env.height_m))?;
     Ok(out)
 }
@@ -415,13 +401,7 @@ pub fn draw_map_figure(
     let (map, i): (MapIn, FigureIn) = read_split(input, "drawMapFigure", &["show", "palette"])?;
     let (model, grid, period, massing) = map.parts_over(i.show.as_deref() == Some("lost"))?;
     let req = map.request(&model, &grid, period, massing);
-    let describe = format!(
-        "{}{}, {}, {}-minute steps",
-        map.date,
-        map.to.as_deref().map_or(String::new(), |t| format!(" to {t}")),
-        map.window.as_deref().unwrap_or("sunrise to sunset"),
-        map.step_min
-    );
+    let describe = period.describe();
     let (values, open, title, unit, range) = match i.show.as_deref() {
         None | Some("hours") => {
             let m = sun_hours(&req, |_| true).map_err(err)?;

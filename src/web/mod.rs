@@ -9,6 +9,7 @@ use wasm_bindgen::prelude::*;
 use wasm_bindgen::JsCast;
 
 mod canvas;
+mod defaults;
 mod facade;
 mod layer;
 mod maps;

@@ -4,6 +4,7 @@
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
+use super::defaults;
 use super::maps::camel_keys;
 use super::{err, read, site, write};
 use crate::daylight::DEFAULT_AZIMUTH_STEP_DEG;
@@ -23,19 +24,11 @@ struct CheckIn {
     /// … or a rule as an object of the rule-file format.
     rule: Option<serde_json::Value>,
     year: i32,
-    #[serde(default = "half")]
+    #[serde(default = "defaults::cell_m")]
     cell_m: f64,
-    #[serde(default = "five")]
+    #[serde(default = "defaults::step_min")]
     step_min: u32,
     azimuth_step_deg: Option<f64>,
-}
-
-fn half() -> f64 {
-    0.5
-}
-
-fn five() -> u32 {
-    5
 }
 
 /// The rule of a request: its `rule` object, or its preset (`default` when neither is given).

@@ -4,6 +4,7 @@
 use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 
+use super::defaults;
 use super::maps::{date, massing_of};
 use super::{err, read, site, write};
 use crate::shadow::ViewPoint;
@@ -55,13 +56,9 @@ struct YearIn {
     #[serde(default)]
     z_m: f64,
     year: Option<i32>,
-    #[serde(default = "fifteen")]
+    #[serde(default = "defaults::long_step_min")]
     step_min: u32,
     massing: Option<String>,
-}
-
-fn fifteen() -> u32 {
-    15
 }
 
 #[derive(Deserialize)]

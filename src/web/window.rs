@@ -4,6 +4,7 @@
 use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
+use super::defaults;
 use super::maps::date;
 use super::{err, read, site, write};
 use crate::daylight::{sky_component_pct, SkyPlane, DEFAULT_AZIMUTH_STEP_DEG};
@@ -23,13 +24,9 @@ struct WindowIn {
     facing_deg: Option<f64>,
     date: String,
     to: Option<String>,
-    #[serde(default = "five")]
+    #[serde(default = "defaults::step_min")]
     step_min: u32,
     azimuth_step_deg: Option<f64>,
-}
-
-fn five() -> u32 {
-    5
 }
 
 #[derive(Serialize)]

@@ -32,10 +32,10 @@ pub struct CheckArgs {
     #[arg(long)]
     pub year: Option<i32>,
     /// Cell size, metres.
-    #[arg(long, default_value_t = 0.5)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_CELL_M)]
     pub cell_m: f64,
     /// Time step, minutes.
-    #[arg(long, default_value_t = 5)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_STEP_MIN)]
     pub step_min: u32,
     /// Azimuth step of the vertical sky component's integration, degrees (window sky rules).
     #[arg(long, default_value_t = sunlot::daylight::DEFAULT_AZIMUTH_STEP_DEG)]

@@ -34,22 +34,22 @@ pub struct EnvelopeArgs {
     pub to: Option<String>,
     /// Protected daily hours, local clock time HH:MM-HH:MM ("daylight" for sunrise to sunset, whose
     /// very long low-sun shadows allow little height).
-    #[arg(long, default_value = "09:00-15:00")]
+    #[arg(long, default_value = sunlot::envelope::DEFAULT_ENVELOPE_WINDOW)]
     pub window: String,
     /// Time step, minutes.
-    #[arg(long, default_value_t = 15)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_LONG_STEP_MIN)]
     pub step_min: u32,
     /// Cell size, metres.
-    #[arg(long, default_value_t = 1.0)]
+    #[arg(long, default_value_t = sunlot::envelope::DEFAULT_ENVELOPE_CELL_M)]
     pub cell_m: f64,
     /// Height cap, metres.
-    #[arg(long, default_value_t = 30.0)]
+    #[arg(long, default_value_t = sunlot::envelope::DEFAULT_MAX_HEIGHT_M)]
     pub max_height_m: f64,
     /// Heights are rounded down to a multiple of this, metres.
-    #[arg(long, default_value_t = 0.1)]
+    #[arg(long, default_value_t = sunlot::envelope::DEFAULT_HEIGHT_STEP_M)]
     pub height_step_m: f64,
     /// Height of the bands written by --geojson, metres.
-    #[arg(long, default_value_t = 3.0)]
+    #[arg(long, default_value_t = sunlot::envelope::DEFAULT_BAND_M)]
     pub band_m: f64,
     #[command(flatten)]
     pub delta_t: DeltaTArgs,

@@ -48,7 +48,7 @@ pub struct FacadeArgs {
     #[command(flatten)]
     pub period: PeriodArgs,
     /// Largest cell side on the faces, metres (cells fit each face exactly, so they may be smaller).
-    #[arg(long, default_value_t = 1.0)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_FACADE_CELL_M)]
     pub cell_m: f64,
     /// The existing massing alone (before the proposal); the building itself always stands.
     #[arg(long)]

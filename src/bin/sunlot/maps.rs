@@ -35,7 +35,7 @@ pub struct PeriodArgs {
     #[arg(long)]
     pub window: Option<String>,
     /// Time step, minutes (1 to 60).
-    #[arg(long, default_value_t = 5)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_STEP_MIN)]
     pub step_min: u32,
 }
 
@@ -53,13 +53,9 @@ impl PeriodArgs {
     }
 
     /// "2026-03-21, sunrise to sunset, 5-minute steps".
+    /// (The core's [`Period::describe`]; empty for a period that does not read, refused before.)
     pub fn describe(&self) -> String {
-        let dates = match &self.to {
-            Some(t) if t != &self.date => format!("{} to {t}", self.date),
-            _ => self.date.clone(),
-        };
-        let window = self.window.as_deref().map_or("sunrise to sunset".to_string(), |w| w.to_string());
-        format!("{dates}, {window}, {}-minute steps", self.step_min)
+        self.period().map(|p| p.describe()).unwrap_or_default()
     }
 }
 
@@ -70,7 +66,7 @@ pub struct GridArgs {
     #[arg(long, value_delimiter = ',')]
     pub area: Vec<String>,
     /// Cell size, metres (at least 0.01).
-    #[arg(long, default_value_t = 0.5)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_CELL_M)]
     pub cell_m: f64,
     /// Height of the receiving plane above the ground, metres (a terrace, a first-floor sill).
     #[arg(long, default_value_t = 0.0)]

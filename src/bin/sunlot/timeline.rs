@@ -66,7 +66,7 @@ pub struct YearArgs {
     #[arg(long)]
     pub year: Option<i32>,
     /// Time step, minutes.
-    #[arg(long, default_value_t = 15)]
+    #[arg(long, default_value_t = sunlot::exposure::DEFAULT_LONG_STEP_MIN)]
     pub step_min: u32,
     /// The existing massing alone (before the proposal).
     #[arg(long)]
