@@ -769,3 +769,14 @@ fn plain_building_footprints_are_read_once_the_zone_is_given() {
     assert!(e.contains("2 footprint(s) read as existing buildings") && e.contains("at 3.5 m a storey"), "{e}");
     assert!(e.contains("the site is called \"mill-street\""), "{e}");
 }
+
+/// Too many day paths are refused under the flag that gives them (the diagram's typed error; the
+/// message named --at before).
+#[test]
+fn too_many_sky_dates_name_the_dates_flag() {
+    let dates = vec!["2026-06-21"; 70].join(",");
+    let o = sunlot(&["sky", "--demo", "--dates", &dates, "--svg", "/dev/null"], None);
+    assert!(!o.status.success());
+    let e = stderr(&o);
+    assert!(e.contains("--dates: 70 day paths is more than the limit of 64") && !e.contains("--at"), "{e}");
+}

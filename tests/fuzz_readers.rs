@@ -91,7 +91,7 @@ fn fuzz(name: &str, seeds: &[String], mut target: impl FnMut(&str) -> Result<boo
 fn site_case(text: &str) -> Result<bool, String> {
     match SiteModel::read(text) {
         Err(e) => {
-            if e.trim().is_empty() {
+            if e.to_string().trim().is_empty() {
                 return Err("an empty error message".into());
             }
             Ok(false)
@@ -154,6 +154,8 @@ fn rule_reader_never_panics_and_accepted_rules_check_a_site() {
 fn oversized_sites_are_refused_naming_the_limit() {
     let big = format!("{{\"sunlot_site\": 1, \"name\": \"{}\"}}", "x".repeat(sunlot::limits::MAX_SITE_TEXT_BYTES));
     let e = SiteModel::read(&big).unwrap_err();
+    assert!(matches!(e, sunlot::site::SiteReadError::Budget(_)), "{e:?}");
+    let e = e.to_string();
     assert!(e.contains("site") && e.contains("limit"), "{e}");
     let mut v: Value = serde_json::from_str(&corpus("site")[1]).unwrap();
     let wall = v["walls"][0].clone();
@@ -165,6 +167,6 @@ fn oversized_sites_are_refused_naming_the_limit() {
         })
         .collect();
     v["walls"] = Value::from(walls);
-    let e = SiteModel::read(&v.to_string()).unwrap_err();
+    let e = SiteModel::read(&v.to_string()).unwrap_err().to_string();
     assert!(e.contains("features") && e.contains(&sunlot::limits::count(sunlot::limits::MAX_FEATURES as f64)), "{e}");
 }

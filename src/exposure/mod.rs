@@ -27,7 +27,7 @@ pub use facade::{
 pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};
-pub use period::{Period, Step, Window, DEFAULT_CELL_M, DEFAULT_LONG_STEP_MIN, DEFAULT_STEP_MIN};
+pub use period::{Period, Step, Window, WindowError, DEFAULT_CELL_M, DEFAULT_LONG_STEP_MIN, DEFAULT_STEP_MIN};
 pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;
 pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};

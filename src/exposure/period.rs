@@ -24,13 +24,21 @@ pub enum Window {
     Clock { from: NaiveTime, to: NaiveTime },
 }
 
+/// A daily window's text that is not two clock times.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+#[error("{text:?} is not HH:MM-HH:MM")]
+pub struct WindowError {
+    /// The text given.
+    pub text: String,
+}
+
 impl Window {
     /// Reads `HH:MM-HH:MM` (the window's ends in local clock time).
     ///
     /// # Errors
-    /// A message quoting the text when it is not two clock times joined by `-`.
-    pub fn parse(text: &str) -> Result<Window, String> {
-        let bad = || format!("{text:?} is not HH:MM-HH:MM");
+    /// [`WindowError`] quoting the text when it is not two clock times joined by `-`.
+    pub fn parse(text: &str) -> Result<Window, WindowError> {
+        let bad = || WindowError { text: text.to_string() };
         let (a, b) = text.split_once('-').ok_or_else(bad)?;
         let t = |s: &str| NaiveTime::parse_from_str(s.trim(), "%H:%M").map_err(|_| bad());
         Ok(Window::Clock { from: t(a)?, to: t(b)? })

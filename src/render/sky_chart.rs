@@ -78,7 +78,8 @@ impl SkyChart {
     /// 1° steps.
     ///
     /// # Errors
-    /// A message naming the bad field: the point, or more dates than [`crate::limits::MAX_SKY_DATES`].
+    /// [`SkyChartError`]: more dates than [`crate::limits::MAX_SKY_DATES`], or a point whose skyline
+    /// cannot be traced.
     pub fn for_site(
         model: &SiteModel,
         year: i32,
@@ -87,10 +88,10 @@ impl SkyChart {
         from: Option<(ViewPoint, Massing)>,
         projection: Projection,
         delta_t: DeltaT,
-    ) -> Result<SkyChart, String> {
+    ) -> Result<SkyChart, SkyChartError> {
         if let Some(d) = &dates {
             crate::limits::within("dates", d.len() as f64, crate::limits::MAX_SKY_DATES as f64, "day paths")
-                .map_err(|e| e.to_string())?;
+                .map_err(SkyChartError::Dates)?;
         }
         let mut title = super::titled("Sun path", &model.name);
         let mut sky = Vec::new();
@@ -102,7 +103,7 @@ impl SkyChart {
             title =
                 super::titled(&format!("Sun path and skyline from ({}, {}, {} m)", p.x_m, p.y_m, p.z_m), &model.name);
             sky = skyline(p, &volumes, &walls, &ground, 1.0, reach)
-                .map_err(|e| e.to_string())?
+                .map_err(SkyChartError::Point)?
                 .into_iter()
                 .map(|(az, alt)| ((az + model.plan_rotation_deg).rem_euclid(360.0), alt))
                 .collect();
@@ -120,6 +121,17 @@ impl SkyChart {
             delta_t,
         })
     }
+}
+
+/// Why a sun-path diagram cannot be made; each variant names its field.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SkyChartError {
+    /// More day paths than allowed.
+    #[error("{0}")]
+    Dates(crate::limits::OverBudget),
+    /// The point the skyline is seen from.
+    #[error("{0}")]
+    Point(crate::shadow::ShadowError),
 }
 
 /// The default dates: the 21st of every month, labelled (solstices and equinoxes fall within two days

@@ -563,6 +563,21 @@ mod tests {
     }
 }
 
+/// Why a site's text could not be read: too large, or the site-file or GeoJSON reader's error (each
+/// names the feature or field).
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SiteReadError {
+    /// More text than [`crate::limits::MAX_SITE_TEXT_BYTES`].
+    #[error("{0}")]
+    Budget(String),
+    /// A site file (JSON) that does not read.
+    #[error("{0}")]
+    File(#[from] SiteFileError),
+    /// A GeoJSON site or plain footprints that do not read.
+    #[error("{0}")]
+    GeoJson(#[from] super::geojson_io::GeoJsonError),
+}
+
 /// A site read from text that is either a site file or a GeoJSON FeatureCollection.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ReadSite {
@@ -578,8 +593,8 @@ impl SiteModel {
     /// Reads a site file or, when the text is a GeoJSON FeatureCollection, a GeoJSON site.
     ///
     /// # Errors
-    /// The reader's error as text, naming the feature or field.
-    pub fn read(text: &str) -> Result<ReadSite, String> {
+    /// [`SiteReadError`]: the reader's error, naming the feature or field.
+    pub fn read(text: &str) -> Result<ReadSite, SiteReadError> {
         SiteModel::read_with(text, &FootprintOptions::default())
     }
 
@@ -587,10 +602,10 @@ impl SiteModel {
     /// `footprints` saying what to assume (see [`SiteModel::from_footprints`]).
     ///
     /// # Errors
-    /// The reader's error as text, naming the feature or field.
-    pub fn read_with(text: &str, footprints: &FootprintOptions) -> Result<ReadSite, String> {
+    /// [`SiteReadError`]: the reader's error, naming the feature or field.
+    pub fn read_with(text: &str, footprints: &FootprintOptions) -> Result<ReadSite, SiteReadError> {
         within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")
-            .map_err(|e| e.hint("split the site or simplify its outlines").to_string())?;
+            .map_err(|e| SiteReadError::Budget(e.hint("split the site or simplify its outlines").to_string()))?;
         // Only the top-level "type": the rest is skipped, not built as a tree.
         #[derive(Deserialize)]
         struct Probe {
@@ -601,16 +616,16 @@ impl SiteModel {
             .ok()
             .is_some_and(|p| p.kind.as_ref().and_then(|t| t.as_str()) == Some("FeatureCollection"));
         if !is_geojson {
-            let model = SiteModel::from_json(text).map_err(|e| e.to_string())?;
+            let model = SiteModel::from_json(text)?;
             return Ok(ReadSite { model, from_geojson: false, assumptions: vec![] });
         }
         let plain =
             matches!(text.parse::<geojson::GeoJson>(), Ok(geojson::GeoJson::FeatureCollection(fc)) if is_plain(&fc));
         if plain {
-            let got = SiteModel::from_footprints(text, footprints).map_err(|e| e.to_string())?;
+            let got = SiteModel::from_footprints(text, footprints)?;
             return Ok(ReadSite { model: got.model, from_geojson: true, assumptions: got.assumptions });
         }
-        let model = SiteModel::from_geojson(text).map_err(|e| e.to_string())?;
+        let model = SiteModel::from_geojson(text)?;
         Ok(ReadSite { model, from_geojson: true, assumptions: vec![] })
     }
 }

@@ -12,7 +12,7 @@ pub(crate) mod test_sites;
 mod underlay;
 mod windows;
 
-pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SITE_FILE_VERSION};
+pub use file::{Area, AreaKind, ReadSite, SiteFileError, SiteModel, SiteReadError, SITE_FILE_VERSION};
 pub use footprints::{
     is_plain, suggested_zone, zone_from_longitude, FootprintOptions, Imported, BASE_KEYS, DEFAULT_STOREY_HEIGHT_M,
     HEIGHT_KEYS, LEVEL_KEYS,

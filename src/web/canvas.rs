@@ -204,7 +204,10 @@ fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::
     };
     let palette = i.palette.palette()?;
     let chart = SkyChart::for_site(&model, i.year, dates, now, from, projection, crate::time::DeltaT::EspenakMeeus)
-        .map_err(|e| JsError::new(&format!("xM: {e}")))?;
+        .map_err(|e| match e {
+            crate::render::SkyChartError::Dates(b) => JsError::new(&b.to_string()),
+            crate::render::SkyChartError::Point(p) => JsError::new(&format!("xM, yM, zM: {p}")),
+        })?;
     Ok((chart, palette))
 }
 

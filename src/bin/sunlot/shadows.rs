@@ -58,12 +58,15 @@ impl SiteFileArgs {
             name: name.clone(),
         };
         let read = SiteModel::read_with(&text, &footprints).map_err(|e| {
-            let hint = if e.contains("do not say the site's time zone") {
-                " (give --zone)"
-            } else if e.contains("default_height_m for buildings") {
-                " (--default-height-m)"
-            } else {
-                ""
+            use sunlot::site::{GeoJsonError, SiteReadError};
+            let hint = match &e {
+                SiteReadError::GeoJson(GeoJsonError::ZoneNeeded { .. }) => " (give --zone)",
+                SiteReadError::GeoJson(GeoJsonError::Footprint { problem, .. })
+                    if problem.contains("has no height") =>
+                {
+                    " (or give --default-height-m)"
+                }
+                _ => "",
             };
             format!("{}: {e}{hint}", path.display())
         })?;
