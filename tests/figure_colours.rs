@@ -165,8 +165,7 @@ fn pass_and_fail_differ_by_25_lstar_for_every_vision_and_fail_is_hatched() {
     use sunlot::rules::{check_rule, AnyRule, CheckRequest};
     let model = sunlot::demo::demo();
     // Stricter than any preset, so the demo has areas both ways (an invented test rule).
-    let text = r#"{"id": "strict", "title": "Half of each garden 5 h on 21 March", "month": 3, "day": 21,
-                   "min_hours": 5, "min_share": 0.5, "area_kinds": ["garden"]}"#;
+    let text = include_str!("fixtures/strict_garden_rule.json");
     let AnyRule::Area(rule) = AnyRule::from_json(text).unwrap() else { panic!("an area rule") };
     let req = CheckRequest {
         model: &model,

@@ -218,18 +218,12 @@ mod tests {
     #[test]
     fn each_tested_area_is_filled_by_its_verdict_and_labelled_with_its_margin() {
         let model = crate::demo::demo();
-        // Stricter than any preset, so the demo has areas both ways (invented test rule).
-        let text = r#"{"id": "strict", "title": "Half of each garden 5 h on 21 March", "month": 3, "day": 21,
-                       "min_hours": 5, "min_share": 0.5, "area_kinds": ["garden"]}"#;
-        let AnyRule::Area(rule) = AnyRule::from_json(text).unwrap() else { panic!() };
-        let req = CheckRequest {
-            model: &model,
-            rule: &rule,
-            year: 2026,
-            cell_m: 1.0,
-            step_min: 30,
-            delta_t: DeltaT::EspenakMeeus,
-        };
+        // Stricter than any preset, so the demo has areas both ways (an invented test rule, shared with
+        // the colour test and the reference images).
+        let text = include_str!("../../tests/fixtures/strict_garden_rule.json");
+        let AnyRule::Area(rule) = AnyRule::from_json(text).unwrap() else { panic!("an area rule") };
+        let (year, cell_m, step_min, delta_t) = (2026, 1.0, 30, DeltaT::EspenakMeeus);
+        let req = CheckRequest { model: &model, rule: &rule, year, cell_m, step_min, delta_t };
         let report = check_rule(&req, |_| true).unwrap();
         assert!(report.areas.iter().any(|a| a.passes) && report.areas.iter().any(|a| !a.passes), "the demo has both");
         let plan = VerdictPlan::of_report(&model, &report).unwrap();
