@@ -105,192 +105,10 @@ impl SiteModel {
             MAX_VERTICES as f64,
             "vertices",
         )?;
-        let meta = fc.foreign_members.as_ref().and_then(|m| m.get("sunlot")).cloned().unwrap_or(Value::Null);
-        if !(meta.is_object() || meta.is_null()) {
-            return Err(GeoJsonError::Location(format!(" must be an object with the zone, got {meta}")));
-        }
-        let zone: Zone = match meta.get("zone") {
-            None | Some(Value::Null) => {
-                return Err(GeoJsonError::Location("zone is missing (an IANA name such as Europe/London)".into()))
-            }
-            Some(Value::String(z)) => z.parse().map_err(|e: TimeError| GeoJsonError::Location(e.to_string()))?,
-            Some(other) => {
-                return Err(GeoJsonError::Location(format!("zone must be a name such as Europe/London, got {other}")))
-            }
-        };
-        let elevation_m = match meta.get("elevation_m") {
-            None | Some(Value::Null) => 0.0,
-            Some(v) => v
-                .as_f64()
-                .ok_or_else(|| GeoJsonError::Location(format!("elevation_m must be a number of metres, got {v}")))?,
-        };
-        let origin = match meta.get("origin").and_then(Value::as_array) {
-            Some(o) if o.len() == 2 && o.iter().all(Value::is_number) => {
-                (o[0].as_f64().unwrap_or(f64::NAN), o[1].as_f64().unwrap_or(f64::NAN))
-            }
-            Some(_) => return Err(GeoJsonError::Location("origin must be [longitude, latitude]".into())),
-            None => bbox_centre(&fc).ok_or_else(|| GeoJsonError::Format("the collection has no coordinates".into()))?,
-        };
-        let location = Site::new(origin.1, origin.0, elevation_m)
-            .map_err(|e: InputError| GeoJsonError::Location(e.to_string()))?;
-        let frame = LocalFrame::new(origin.0, origin.1, elevation_m);
-        let name = match meta.get("name") {
-            None | Some(Value::Null) => String::new(),
-            Some(Value::String(n)) => n.clone(),
-            Some(other) => return Err(GeoJsonError::Location(format!("name must be text, got {other}"))),
-        };
-        let ground: Ground = match meta.get("ground") {
-            None | Some(Value::Null) => Ground::flat(),
-            Some(g) => serde_json::from_value::<Ground>(g.clone())
-                .map_err(|e| GeoJsonError::Location(format!("ground: {e}")))?
-                .validated()
-                .map_err(GeoJsonError::Location)?,
-        };
-        let mut model = SiteModel {
-            name,
-            location,
-            zone,
-            plan_rotation_deg: 0.0,
-            ground,
-            areas: vec![],
-            volumes: vec![],
-            walls: vec![],
-            windows: vec![],
-        };
+        let (mut model, frame) = site_header(&fc)?;
         let mut ids = std::collections::HashSet::new();
         for (index, f) in fc.features.iter().enumerate() {
-            let props = f.properties.clone().unwrap_or_default();
-            let Some(what) = props.get("sunlot").and_then(Value::as_str).map(str::to_string) else {
-                return Err(GeoJsonError::Property {
-                    feature: format!("#{index}"),
-                    property: "sunlot",
-                    problem: "is missing: say whether the feature is a \"volume\", an \"area\" or a \"wall\"".into(),
-                });
-            };
-            let base_id = props
-                .get("id")
-                .and_then(Value::as_str)
-                .map(str::to_string)
-                .or_else(|| {
-                    f.id.as_ref().map(|i| match i {
-                        geojson::feature::Id::String(s) => s.clone(),
-                        geojson::feature::Id::Number(n) => n.to_string(),
-                    })
-                })
-                .unwrap_or_else(|| format!("feature-{index}"));
-            let label = format!("{base_id:?} (#{index})");
-            let prop = Props { props: &props, feature: &label };
-            let status = prop.status()?;
-            let geom = f.geometry.as_ref().map(|g| &g.value);
-            let parts_of =
-                |expected: &'static str, polygonal: bool| -> Result<Vec<Vec<Vec<Coord<f64>>>>, GeoJsonError> {
-                    let ring = |r: &Vec<geojson::Position>, path: String| -> Result<Vec<Coord<f64>>, GeoJsonError> {
-                        r.iter()
-                            .enumerate()
-                            .map(|(k, p)| {
-                                let (lon, lat) = lon_lat(p, &label, &format!("{path}[{k}]"))?;
-                                let (e, n) = frame.to_local(lon, lat);
-                                Ok(Coord { x: e, y: n })
-                            })
-                            .collect()
-                    };
-                    match (geom, polygonal) {
-                        (Some(GeometryValue::Polygon { coordinates }), true) => Ok(vec![coordinates
-                            .iter()
-                            .enumerate()
-                            .map(|(r, c)| ring(c, format!("[{r}]")))
-                            .collect::<Result<_, _>>()?]),
-                        (Some(GeometryValue::MultiPolygon { coordinates }), true) => coordinates
-                            .iter()
-                            .enumerate()
-                            .map(|(k, p)| p.iter().enumerate().map(|(r, c)| ring(c, format!("[{k}][{r}]"))).collect())
-                            .collect(),
-                        (Some(GeometryValue::LineString { coordinates }), false) => {
-                            Ok(vec![vec![ring(coordinates, String::new())?]])
-                        }
-                        (Some(GeometryValue::MultiLineString { coordinates }), false) => {
-                            coordinates.iter().enumerate().map(|(k, l)| Ok(vec![ring(l, format!("[{k}]"))?])).collect()
-                        }
-                        (g, _) => Err(GeoJsonError::UnsupportedGeometry {
-                            feature: label.clone(),
-                            what: what.clone(),
-                            expected,
-                            found: g.map_or("no geometry".to_string(), geometry_name),
-                        }),
-                    }
-                };
-            if what == "window" {
-                let Some(GeometryValue::Point { coordinates }) = geom else {
-                    return Err(GeoJsonError::UnsupportedGeometry {
-                        feature: label.clone(),
-                        what: what.clone(),
-                        expected: "a Point",
-                        found: geom.map_or("no geometry".to_string(), geometry_name),
-                    });
-                };
-                let (lon, lat) = lon_lat(coordinates, &label, "")?;
-                let (e, n) = frame.to_local(lon, lat);
-                if !ids.insert(base_id.clone()) {
-                    return Err(GeoJsonError::Property {
-                        feature: label,
-                        property: "id",
-                        problem: format!("{base_id:?} is used by more than one feature"),
-                    });
-                }
-                let need = |key: &'static str| prop.number(key)?.ok_or_else(|| prop.missing(key));
-                model.windows.push(WindowPoint::new(
-                    &base_id,
-                    &prop.text("name")?,
-                    status,
-                    Coord { x: e, y: n },
-                    need("z_m")?,
-                    need("facing_deg")?,
-                    need("opening_width_m")?,
-                    need("opening_height_m")?,
-                )?);
-                continue;
-            }
-            let parts = match what.as_str() {
-                "volume" | "area" => parts_of("a Polygon or MultiPolygon", true)?,
-                "wall" => parts_of("a LineString or MultiLineString", false)?,
-                other => {
-                    return Err(GeoJsonError::Property {
-                        feature: label,
-                        property: "sunlot",
-                        problem: format!("must be \"volume\", \"area\", \"wall\" or \"window\", got {other:?}"),
-                    })
-                }
-            };
-            for (k, rings) in parts.into_iter().enumerate() {
-                let id = if k == 0 { base_id.clone() } else { format!("{base_id}#{}", k + 1) };
-                if !ids.insert(id.clone()) {
-                    return Err(GeoJsonError::Property {
-                        feature: label,
-                        property: "id",
-                        problem: format!("{id:?} is used by more than one feature"),
-                    });
-                }
-                let polygon = || {
-                    let mut it = rings.iter().map(|r| LineString::from(r.clone()));
-                    let outer = it.next().unwrap_or_else(|| LineString::new(vec![]));
-                    Polygon::new(outer, it.collect())
-                };
-                match what.as_str() {
-                    "volume" => {
-                        let base = prop.number("base_m")?.unwrap_or(0.0);
-                        let top = prop.number("top_m")?.ok_or_else(|| prop.missing("top_m"))?;
-                        model.volumes.push(Volume::new(&id, status, polygon(), base, top)?);
-                    }
-                    "area" => {
-                        model.areas.push(Area::new(&id, &prop.text("name")?, prop.kind()?, status, polygon())?);
-                    }
-                    _ => {
-                        let h = prop.number("height_m")?.ok_or_else(|| prop.missing("height_m"))?;
-                        let line = rings.first().cloned().unwrap_or_default();
-                        model.walls.push(Wall::new(&id, status, LineString::from(line), h)?);
-                    }
-                }
-            }
+            read_feature(&mut model, &frame, &mut ids, index, f)?;
         }
         Ok(model)
     }
@@ -363,6 +181,215 @@ impl SiteModel {
     /// A plan polygon in WGS84.
     pub fn polygon_to_wgs84(&self, frame: &LocalFrame, p: &Polygon<f64>) -> Polygon<f64> {
         p.map_coords(|c| self.plan_to_wgs84(frame, c))
+    }
+}
+
+/// The site a collection's `sunlot` member describes (location, zone, name, ground), with no features
+/// yet, and the local frame its features are read in.
+fn site_header(fc: &FeatureCollection) -> Result<(SiteModel, LocalFrame), GeoJsonError> {
+    let meta = fc.foreign_members.as_ref().and_then(|m| m.get("sunlot")).cloned().unwrap_or(Value::Null);
+    if !(meta.is_object() || meta.is_null()) {
+        return Err(GeoJsonError::Location(format!(" must be an object with the zone, got {meta}")));
+    }
+    let zone: Zone = match meta.get("zone") {
+        None | Some(Value::Null) => {
+            return Err(GeoJsonError::Location("zone is missing (an IANA name such as Europe/London)".into()))
+        }
+        Some(Value::String(z)) => z.parse().map_err(|e: TimeError| GeoJsonError::Location(e.to_string()))?,
+        Some(other) => {
+            return Err(GeoJsonError::Location(format!("zone must be a name such as Europe/London, got {other}")))
+        }
+    };
+    let elevation_m = match meta.get("elevation_m") {
+        None | Some(Value::Null) => 0.0,
+        Some(v) => v
+            .as_f64()
+            .ok_or_else(|| GeoJsonError::Location(format!("elevation_m must be a number of metres, got {v}")))?,
+    };
+    let origin = match meta.get("origin").and_then(Value::as_array) {
+        Some(o) if o.len() == 2 && o.iter().all(Value::is_number) => {
+            (o[0].as_f64().unwrap_or(f64::NAN), o[1].as_f64().unwrap_or(f64::NAN))
+        }
+        Some(_) => return Err(GeoJsonError::Location("origin must be [longitude, latitude]".into())),
+        None => bbox_centre(fc).ok_or_else(|| GeoJsonError::Format("the collection has no coordinates".into()))?,
+    };
+    let location =
+        Site::new(origin.1, origin.0, elevation_m).map_err(|e: InputError| GeoJsonError::Location(e.to_string()))?;
+    let frame = LocalFrame::new(origin.0, origin.1, elevation_m);
+    let name = match meta.get("name") {
+        None | Some(Value::Null) => String::new(),
+        Some(Value::String(n)) => n.clone(),
+        Some(other) => return Err(GeoJsonError::Location(format!("name must be text, got {other}"))),
+    };
+    let ground: Ground = match meta.get("ground") {
+        None | Some(Value::Null) => Ground::flat(),
+        Some(g) => serde_json::from_value::<Ground>(g.clone())
+            .map_err(|e| GeoJsonError::Location(format!("ground: {e}")))?
+            .validated()
+            .map_err(GeoJsonError::Location)?,
+    };
+    let model = SiteModel {
+        name,
+        location,
+        zone,
+        plan_rotation_deg: 0.0,
+        ground,
+        areas: vec![],
+        volumes: vec![],
+        walls: vec![],
+        windows: vec![],
+    };
+    Ok((model, frame))
+}
+
+/// Reads feature `index` into `model`: a volume, area or wall (each part of a Multi geometry its own
+/// feature) or a window, in `frame`; `ids` holds the ids taken so far.
+fn read_feature(
+    model: &mut SiteModel,
+    frame: &LocalFrame,
+    ids: &mut std::collections::HashSet<String>,
+    index: usize,
+    f: &Feature,
+) -> Result<(), GeoJsonError> {
+    let props = f.properties.clone().unwrap_or_default();
+    let Some(what) = props.get("sunlot").and_then(Value::as_str).map(str::to_string) else {
+        return Err(GeoJsonError::Property {
+            feature: format!("#{index}"),
+            property: "sunlot",
+            problem: "is missing: say whether the feature is a \"volume\", an \"area\" or a \"wall\"".into(),
+        });
+    };
+    let base_id = props
+        .get("id")
+        .and_then(Value::as_str)
+        .map(str::to_string)
+        .or_else(|| {
+            f.id.as_ref().map(|i| match i {
+                geojson::feature::Id::String(s) => s.clone(),
+                geojson::feature::Id::Number(n) => n.to_string(),
+            })
+        })
+        .unwrap_or_else(|| format!("feature-{index}"));
+    let label = format!("{base_id:?} (#{index})");
+    let prop = Props { props: &props, feature: &label };
+    let status = prop.status()?;
+    let geom = f.geometry.as_ref().map(|g| &g.value);
+    if what == "window" {
+        let Some(GeometryValue::Point { coordinates }) = geom else {
+            return Err(GeoJsonError::UnsupportedGeometry {
+                feature: label.clone(),
+                what: what.clone(),
+                expected: "a Point",
+                found: geom.map_or("no geometry".to_string(), geometry_name),
+            });
+        };
+        let (lon, lat) = lon_lat(coordinates, &label, "")?;
+        let (e, n) = frame.to_local(lon, lat);
+        if !ids.insert(base_id.clone()) {
+            return Err(GeoJsonError::Property {
+                feature: label,
+                property: "id",
+                problem: format!("{base_id:?} is used by more than one feature"),
+            });
+        }
+        let need = |key: &'static str| prop.number(key)?.ok_or_else(|| prop.missing(key));
+        model.windows.push(WindowPoint::new(
+            &base_id,
+            &prop.text("name")?,
+            status,
+            Coord { x: e, y: n },
+            need("z_m")?,
+            need("facing_deg")?,
+            need("opening_width_m")?,
+            need("opening_height_m")?,
+        )?);
+        return Ok(());
+    }
+    let parts = match what.as_str() {
+        "volume" | "area" => geometry_parts(geom, frame, &label, &what, "a Polygon or MultiPolygon", true)?,
+        "wall" => geometry_parts(geom, frame, &label, &what, "a LineString or MultiLineString", false)?,
+        other => {
+            return Err(GeoJsonError::Property {
+                feature: label,
+                property: "sunlot",
+                problem: format!("must be \"volume\", \"area\", \"wall\" or \"window\", got {other:?}"),
+            })
+        }
+    };
+    for (k, rings) in parts.into_iter().enumerate() {
+        let id = if k == 0 { base_id.clone() } else { format!("{base_id}#{}", k + 1) };
+        if !ids.insert(id.clone()) {
+            return Err(GeoJsonError::Property {
+                feature: label,
+                property: "id",
+                problem: format!("{id:?} is used by more than one feature"),
+            });
+        }
+        let polygon = || {
+            let mut it = rings.iter().map(|r| LineString::from(r.clone()));
+            let outer = it.next().unwrap_or_else(|| LineString::new(vec![]));
+            Polygon::new(outer, it.collect())
+        };
+        match what.as_str() {
+            "volume" => {
+                let base = prop.number("base_m")?.unwrap_or(0.0);
+                let top = prop.number("top_m")?.ok_or_else(|| prop.missing("top_m"))?;
+                model.volumes.push(Volume::new(&id, status, polygon(), base, top)?);
+            }
+            "area" => {
+                model.areas.push(Area::new(&id, &prop.text("name")?, prop.kind()?, status, polygon())?);
+            }
+            _ => {
+                let h = prop.number("height_m")?.ok_or_else(|| prop.missing("height_m"))?;
+                let line = rings.first().cloned().unwrap_or_default();
+                model.walls.push(Wall::new(&id, status, LineString::from(line), h)?);
+            }
+        }
+    }
+    Ok(())
+}
+
+/// A feature's geometry as parts of rings in the local frame: polygons (outer ring, then holes) when
+/// `polygonal`, else lines (one ring each); another geometry is named with what was `expected`.
+fn geometry_parts(
+    geom: Option<&GeometryValue>,
+    frame: &LocalFrame,
+    label: &str,
+    what: &str,
+    expected: &'static str,
+    polygonal: bool,
+) -> Result<Vec<Vec<Vec<Coord<f64>>>>, GeoJsonError> {
+    let ring = |r: &Vec<geojson::Position>, path: String| -> Result<Vec<Coord<f64>>, GeoJsonError> {
+        r.iter()
+            .enumerate()
+            .map(|(k, p)| {
+                let (lon, lat) = lon_lat(p, label, &format!("{path}[{k}]"))?;
+                let (e, n) = frame.to_local(lon, lat);
+                Ok(Coord { x: e, y: n })
+            })
+            .collect()
+    };
+    match (geom, polygonal) {
+        (Some(GeometryValue::Polygon { coordinates }), true) => Ok(vec![coordinates
+            .iter()
+            .enumerate()
+            .map(|(r, c)| ring(c, format!("[{r}]")))
+            .collect::<Result<_, _>>()?]),
+        (Some(GeometryValue::MultiPolygon { coordinates }), true) => coordinates
+            .iter()
+            .enumerate()
+            .map(|(k, p)| p.iter().enumerate().map(|(r, c)| ring(c, format!("[{k}][{r}]"))).collect())
+            .collect(),
+        (Some(GeometryValue::LineString { coordinates }), false) => Ok(vec![vec![ring(coordinates, String::new())?]]),
+        (Some(GeometryValue::MultiLineString { coordinates }), false) => {
+            coordinates.iter().enumerate().map(|(k, l)| Ok(vec![ring(l, format!("[{k}]"))?])).collect()
+        }
+        (g, _) => Err(GeoJsonError::UnsupportedGeometry {
+            feature: label.to_string(),
+            what: what.to_string(),
+            expected,
+            found: g.map_or("no geometry".to_string(), geometry_name),
+        }),
     }
 }
 
