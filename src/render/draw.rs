@@ -86,7 +86,16 @@ pub fn titled(title: &str, site_name: &str) -> String {
 /// `text` broken into lines no wider than `width_px` at `size_px`: whole phrases (the parts between
 /// " — ") where they fit, words within a phrase that does not; a word wider than the line stands alone.
 pub fn wrap(text: &str, size_px: f64, width_px: f64) -> Vec<String> {
-    let fits = |s: &str| text_width_px(size_px, s) <= width_px;
+    wrap_by(text, width_px, |s| text_width_px(size_px, s))
+}
+
+/// As [`wrap`], measured by the back end `d` draws with ([`Draw::measure_px`]).
+pub fn wrap_on(d: &dyn Draw, text: &str, size_px: f64, width_px: f64) -> Vec<String> {
+    wrap_by(text, width_px, |s| d.measure_px(size_px, s))
+}
+
+fn wrap_by(text: &str, width_px: f64, measure: impl Fn(&str) -> f64) -> Vec<String> {
+    let fits = |s: &str| measure(s) <= width_px;
     let mut lines: Vec<String> = Vec::new();
     let mut line = String::new();
     for phrase in text.split(" — ").map(str::trim).filter(|p| !p.is_empty()) {
@@ -149,6 +158,11 @@ pub trait Draw {
     fn fill_rect(&mut self, x: f64, y: f64, w: f64, h: f64, fill: Colour) {
         self.fill_polygon(&[vec![(x, y), (x + w, y), (x + w, y + h), (x, y + h)]], fill);
     }
+    /// The advance width of `text` at `size_px` in the font this back end writes with, pixels; by
+    /// default DejaVu Sans's ([`text_width_px`], the font of the SVG and PNG figures).
+    fn measure_px(&self, size_px: f64, text: &str) -> f64 {
+        text_width_px(size_px, text)
+    }
 }
 
 /// Size of a figure's title, pixels.
@@ -165,26 +179,26 @@ pub const MUTED: Colour = Colour::rgb(95, 95, 95);
 pub fn heading(d: &mut dyn Draw, title: &str, subtitle: &str) -> f64 {
     let width = f64::from(d.size().0) - 48.0;
     let mut y = 14.0;
-    for line in wrap(title, TITLE_PX, width) {
+    for line in wrap_on(d, title, TITLE_PX, width) {
         y += TITLE_PX * 1.25;
         d.text(24.0, y, TITLE_PX, &line, INK, Anchor::Start);
     }
-    for line in wrap(subtitle, TEXT_PX, width) {
+    for line in wrap_on(d, subtitle, TEXT_PX, width) {
         y += TEXT_PX * 1.35;
         d.text(24.0, y, TEXT_PX, &line, MUTED, Anchor::Start);
     }
     y + 16.0
 }
 
-/// Height of a footnote of `text` at the bottom of a figure `width_px` wide, pixels.
-pub fn footnote_px(text: &str, width_px: f64) -> f64 {
-    12.0 + LABEL_PX * 1.35 * wrap(text, LABEL_PX, width_px - 48.0).len() as f64
+/// Height of a footnote of `text` at the bottom of the figure `d` draws, pixels.
+pub fn footnote_px(d: &dyn Draw, text: &str) -> f64 {
+    12.0 + LABEL_PX * 1.35 * wrap_on(d, text, LABEL_PX, f64::from(d.size().0) - 48.0).len() as f64
 }
 
 /// The footnote (the caution), wrapped, at the bottom left.
 pub fn footnote(d: &mut dyn Draw, text: &str) {
     let (w, h) = d.size();
-    let lines = wrap(text, LABEL_PX, f64::from(w) - 48.0);
+    let lines = wrap_on(d, text, LABEL_PX, f64::from(w) - 48.0);
     for (k, line) in lines.iter().enumerate() {
         let y = f64::from(h) - 12.0 - LABEL_PX * 1.35 * (lines.len() - 1 - k) as f64;
         d.text(24.0, y, LABEL_PX, line, MUTED, Anchor::Start);

@@ -115,7 +115,7 @@ pub fn draw_elevation(d: &mut dyn Draw, e: &Elevation) {
             let rect = [(cx - hw, cy - hh), (cx + hw, cy - hh), (cx + hw, cy + hh), (cx - hw, cy + hh)];
             d.stroke(&rect, 3.0, PAPER, true);
             d.stroke(&rect, 1.5, INK, true);
-            let tw = super::draw::text_width_px(11.0, &win.id);
+            let tw = d.measure_px(11.0, &win.id);
             d.fill_rect(cx - tw / 2.0 - 2.0, cy - hh - 16.0, tw + 4.0, 14.0, PAPER);
             d.text(cx, cy - hh - 4.0, 11.0, &win.id, INK, Anchor::Middle);
         }

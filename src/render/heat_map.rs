@@ -68,7 +68,7 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) -> PlanFrame {
     let top = heading(d, &map.title, &map.subtitle);
 
     let layer = MapLayer::on_grid(map.grid, map.values.to_vec(), "", &map.unit, map.range);
-    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(&map.caution, w));
+    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(d, &map.caution));
     let frame = PlanFrame::fit(layer.bounds, &map.outlines, plan_box);
     draw_cells(d, &frame, &layer, &layer.rgba());
     draw_outlines(d, &frame, &map.outlines);

@@ -1,7 +1,7 @@
 //! Placing labels on a plan: inside the shape they name where they fit (level, then turned upright
 //! for a tall narrow shape), otherwise beside it with a leader line, never over a label already placed.
 
-use super::draw::{text_width_px, Anchor, Colour, Draw, PAPER};
+use super::draw::{Anchor, Colour, Draw, PAPER};
 
 /// A box on the figure: left, top, right, bottom, pixels.
 type Box = (f64, f64, f64, f64);
@@ -71,7 +71,7 @@ impl LabelPlacer {
         let Some((x0, y0, x1, y1)) = bounds_of(rings) else { return false };
         let lines: Vec<&str> = text.lines().collect();
         let line_px = size_px * 1.15;
-        let widest = lines.iter().map(|l| text_width_px(size_px, l)).fold(0.0, f64::max);
+        let widest = lines.iter().map(|l| d.measure_px(size_px, l)).fold(0.0, f64::max);
         let (tw, th) = (widest + 4.0, line_px * lines.len() as f64 - 0.05 * size_px);
         // Line k's offset across the label from its middle (down the figure, or right when upright).
         let across = |k: usize| -th / 2.0 + line_px * (k as f64 + 0.5) + size_px * 0.35 - 0.025 * size_px;

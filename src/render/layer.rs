@@ -89,7 +89,7 @@ pub fn draw_legend_len(
 ) -> f64 {
     let (lw, lh) = (24.0, len_px.max(100.0));
     let title = if label.is_empty() { unit.to_string() } else { format!("{label} ({unit})") };
-    let lines = super::draw::wrap(&title, TEXT_PX, 210.0);
+    let lines = super::draw::wrap_on(d, &title, TEXT_PX, 210.0);
     let top = y + 19.0 * (lines.len().max(1) - 1) as f64;
     for (k, line) in lines.iter().enumerate() {
         d.text(x, y - 10.0 + 19.0 * k as f64, TEXT_PX, line, INK, Anchor::Start);

@@ -42,6 +42,6 @@ pub use plan_view::{draw_shadow_plan, PlanExtras, ShadowPlan};
 pub use png::encode_png;
 pub use ramp::{ramp, ramp_colour};
 pub use restyle::{Palette, Restyle};
-pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart, SkyChartError};
+pub use sky_chart::{draw_sky_chart, monthly_dates, Projection, SkyChart, SkyChartError, SkyChartRequest};
 pub use svg::{ImageEncoder, Svg};
 pub use verdict_plan::{draw_verdict_plan, AreaVerdict, VerdictPlan, FAILS, PASSES};

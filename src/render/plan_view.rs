@@ -141,7 +141,7 @@ pub fn draw_shadow_plan(d: &mut dyn Draw, plan: &ShadowPlan, extras: &PlanExtras
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, PAPER);
     let top = heading(d, &plan.title, &plan.subtitle);
-    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(&plan.caution, w));
+    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(d, &plan.caution));
     let frame = match extras.view {
         Some((centre, width_m)) => PlanFrame::view(centre, width_m, plan_box),
         None => PlanFrame::fit(plan.extent, &plan.outlines, plan_box),
@@ -269,8 +269,7 @@ mod tests {
         let study = shadow_study(&model, t, DeltaT::EspenakMeeus).unwrap();
         let plan = ShadowPlan::of_study(&model, &study, "2026-03-21T15:00Z");
         assert_eq!(plan.title, "Shadows at 2026-03-21T15:00Z");
-        let projection = crate::render::Projection::Stereographic;
-        let chart = crate::render::SkyChart::for_site(&model, 2026, None, None, None, projection, DeltaT::EspenakMeeus);
+        let chart = crate::render::SkyChart::for_site(&model, crate::render::SkyChartRequest::year(2026));
         assert!(chart.is_ok_and(|c| c.title == "Sun path"));
     }
 

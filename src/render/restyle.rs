@@ -64,6 +64,9 @@ impl Draw for Restyle<'_> {
     fn clip(&mut self, rect: Option<(f64, f64, f64, f64)>) {
         self.inner.clip(rect);
     }
+    fn measure_px(&self, size_px: f64, text: &str) -> f64 {
+        self.inner.measure_px(size_px, text)
+    }
 }
 
 #[cfg(test)]

@@ -80,15 +80,8 @@ impl SkyChart {
     /// # Errors
     /// [`SkyChartError`]: more dates than [`crate::limits::MAX_SKY_DATES`], or a point whose skyline
     /// cannot be traced.
-    pub fn for_site(
-        model: &SiteModel,
-        year: i32,
-        dates: Option<Vec<(NaiveDate, String)>>,
-        now: Option<DateTime<Utc>>,
-        from: Option<(ViewPoint, Massing)>,
-        projection: Projection,
-        delta_t: DeltaT,
-    ) -> Result<SkyChart, SkyChartError> {
+    pub fn for_site(model: &SiteModel, request: SkyChartRequest) -> Result<SkyChart, SkyChartError> {
+        let SkyChartRequest { year, dates, now, from, projection, delta_t } = request;
         if let Some(d) = &dates {
             crate::limits::within("dates", d.len() as f64, crate::limits::MAX_SKY_DATES as f64, "day paths")
                 .map_err(SkyChartError::Dates)?;
@@ -120,6 +113,35 @@ impl SkyChart {
             projection,
             delta_t,
         })
+    }
+}
+
+/// What a sun-path diagram shows (see [`SkyChart::for_site`]).
+#[derive(Debug, Clone)]
+pub struct SkyChartRequest {
+    /// Year of the day paths and hour lines.
+    pub year: i32,
+    /// Dates of the day paths with their labels; `None`: the 21st of every month.
+    pub dates: Option<Vec<(NaiveDate, String)>>,
+    /// The sun marked at this moment.
+    pub now: Option<DateTime<Utc>>,
+    /// The point the skyline is seen from, and the massing that makes it.
+    pub from: Option<(ViewPoint, Massing)>,
+    pub projection: Projection,
+    pub delta_t: DeltaT,
+}
+
+impl SkyChartRequest {
+    /// The year's monthly paths in the stereographic projection, no sun, no skyline.
+    pub fn year(year: i32) -> Self {
+        SkyChartRequest {
+            year,
+            dates: None,
+            now: None,
+            from: None,
+            projection: Projection::Stereographic,
+            delta_t: DeltaT::EspenakMeeus,
+        }
     }
 }
 
@@ -390,7 +412,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         let Some((_, text)) = legend.iter().find(|(j, _)| *j == c) else { continue };
         let text = if paired { text.replace("21 ", "") } else { text.clone() };
         let (x, y) = frame.at(az, alt);
-        let tw = super::draw::text_width_px(LABEL_PX, &text);
+        let tw = d.measure_px(LABEL_PX, &text);
         let (left, anchor, tx) =
             if n % 2 == 0 { (x + 6.0, Anchor::Start, x + 9.0) } else { (x - tw - 12.0, Anchor::End, x - 9.0) };
         d.fill_rect(left, y - 16.0, tw + 6.0, 16.0, Colour { a: 210, ..PAPER });
@@ -413,7 +435,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             let label = chart.zone.local(t).format("sun at %H:%M").to_string();
             // Beside the disc, on the first side clear of the paths' labels (above right, below right,
             // above left, below left), on a paper backing.
-            let (tw, th) = (super::draw::text_width_px(TEXT_PX, &label) + 6.0, TEXT_PX + 4.0);
+            let (tw, th) = (d.measure_px(TEXT_PX, &label) + 6.0, TEXT_PX + 4.0);
             let sides = [
                 (x + 10.0, y - 10.0 - th),
                 (x + 10.0, y + 10.0),
@@ -436,7 +458,8 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         d.text(key_x + 34.0, y + 17.0, LABEL_PX, "buildings and ground", INK, Anchor::Start);
         y += 44.0;
     }
-    for (k, line) in super::draw::wrap(
+    for (k, line) in super::draw::wrap_on(
+        d,
         "Hour lines: the sun at each whole hour of local clock time through the year.",
         LABEL_PX,
         190.0,

@@ -162,7 +162,7 @@ pub fn draw_verdict_plan(d: &mut dyn Draw, plan: &VerdictPlan) -> PlanFrame {
     let (w, h) = (f64::from(w), f64::from(h));
     d.fill_rect(0.0, 0.0, w, h, PAPER);
     let top = heading(d, &plan.title, &plan.subtitle);
-    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(&plan.caution, w));
+    let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(d, &plan.caution));
     let frame = PlanFrame::fit(plan.extent, &plan.outlines, plan_box);
     d.clip(Some(frame.bounds_px()));
     for v in &plan.verdicts {

@@ -17,6 +17,9 @@ pub struct Canvas {
     clipped: bool,
     /// The CSS font family of text (the canvas's `data-font`, else [`crate::render::FONT_FAMILY`]).
     font: String,
+    /// Whether the page chose that font (`data-font`): text is then measured by the canvas itself, so
+    /// wrapping and labels fit the font drawn; otherwise by DejaVu Sans's widths, as in the SVG.
+    page_font: bool,
 }
 
 impl Canvas {
@@ -40,12 +43,11 @@ impl Canvas {
             .filter(|s| s.is_finite() && (0.25..=8.0).contains(s))
             .unwrap_or(1.0);
         let _ = ctx.set_transform(scale, 0.0, 0.0, scale, 0.0, 0.0);
-        let font = canvas
-            .get_attribute("data-font")
-            .filter(|f| !f.is_empty() && f.len() < 200 && !f.contains(';'))
-            .unwrap_or_else(|| crate::render::FONT_FAMILY.into());
+        let chosen = canvas.get_attribute("data-font").filter(|f| !f.is_empty() && f.len() < 200 && !f.contains(';'));
+        let page_font = chosen.is_some();
+        let font = chosen.unwrap_or_else(|| crate::render::FONT_FAMILY.into());
         let size = |px: u32| (f64::from(px) / scale).round() as u32;
-        Ok(Canvas { ctx, width: size(canvas.width()), height: size(canvas.height()), clipped: false, font })
+        Ok(Canvas { ctx, width: size(canvas.width()), height: size(canvas.height()), clipped: false, font, page_font })
     }
 
     fn path(&self, points: &[(f64, f64)], closed: bool) {
@@ -75,6 +77,14 @@ impl Canvas {
 }
 
 impl Draw for Canvas {
+    fn measure_px(&self, size_px: f64, text: &str) -> f64 {
+        if !self.page_font {
+            return crate::render::text_width_px(size_px, text);
+        }
+        self.ctx.set_font(&format!("{size_px}px {}", self.font));
+        self.ctx.measure_text(text).map_or_else(|_| crate::render::text_width_px(size_px, text), |m| m.width())
+    }
+
     fn size(&self) -> (u32, u32) {
         (self.width, self.height)
     }
@@ -203,11 +213,12 @@ fn sky_chart(input: JsValue) -> Result<(crate::render::SkyChart, crate::render::
         }
     };
     let palette = i.palette.palette()?;
-    let chart = SkyChart::for_site(&model, i.year, dates, now, from, projection, crate::time::DeltaT::EspenakMeeus)
-        .map_err(|e| match e {
-            crate::render::SkyChartError::Dates(b) => JsError::new(&b.to_string()),
-            crate::render::SkyChartError::Point(p) => JsError::new(&format!("xM, yM, zM: {p}")),
-        })?;
+    let request =
+        crate::render::SkyChartRequest { dates, now, from, projection, ..crate::render::SkyChartRequest::year(i.year) };
+    let chart = SkyChart::for_site(&model, request).map_err(|e| match e {
+        crate::render::SkyChartError::Dates(b) => JsError::new(&b.to_string()),
+        crate::render::SkyChartError::Point(p) => JsError::new(&format!("xM, yM, zM: {p}")),
+    })?;
     Ok((chart, palette))
 }
 

@@ -85,12 +85,18 @@ pub fn run(a: &SkyArgs) -> Result<String, String> {
         ProjectionArg::Equidistant => Projection::Equidistant,
         ProjectionArg::Rectangular => Projection::Rectangular,
     };
-    let chart = SkyChart::for_site(&model, year, Some(dates), now, from, projection, a.delta_t.delta_t()?).map_err(
-        |e| match e {
-            sunlot::render::SkyChartError::Dates(b) => format!("--{b}"),
-            sunlot::render::SkyChartError::Point(p) => format!("--at: {p}"),
-        },
-    )?;
+    let request = sunlot::render::SkyChartRequest {
+        year,
+        dates: Some(dates),
+        now,
+        from,
+        projection,
+        delta_t: a.delta_t.delta_t()?,
+    };
+    let chart = SkyChart::for_site(&model, request).map_err(|e| match e {
+        sunlot::render::SkyChartError::Dates(b) => format!("--{b}"),
+        sunlot::render::SkyChartError::Point(p) => format!("--at: {p}"),
+    })?;
     let notes = crate::figure::write_figure(SIZE, a.png.as_deref(), a.svg.as_deref(), "sun-path diagram", |d| {
         draw_sky_chart(d, &chart).map_err(|e| e.to_string())
     })?;
