@@ -235,20 +235,46 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         chart.zone
     );
     let top = heading(d, &chart.title, &sub);
-    let (plot_w, plot_h) = (w - 240.0, h - top - 40.0);
-    let r = (plot_w.min(plot_h) / 2.0 - 28.0).max(10.0);
-    let frame = Frame {
-        projection: chart.projection,
-        cx: 24.0 + plot_w / 2.0,
-        cy: top + plot_h / 2.0,
-        r,
-        x0: 48.0,
-        y0: top + 10.0,
-        w: plot_w - 48.0,
-        h: plot_h - 50.0,
-    };
+    let layout = SkyLayout::of((w, h), top, chart.projection);
+    draw_obstruction(d, &layout.frame, chart);
+    draw_grid(d, &layout.frame, chart);
+    draw_hour_lines(d, &layout.frame, chart, &mut eph)?;
+    let (legend, boxes) = draw_day_paths(d, &layout, chart, &mut eph)?;
+    draw_sun(d, &layout.frame, chart, &mut eph, &boxes)?;
+    draw_key_notes(d, &layout, chart, legend.len());
+    d.text(24.0, h - 14.0, LABEL_PX, "Indicative; NREL SPA positions.", MUTED, Anchor::Start);
+    Ok(())
+}
 
-    // Obstructions first, under everything: the skyline filled down to the horizon.
+/// Where a sun-path diagram's parts go on a figure: the chart's frame and the key's column.
+struct SkyLayout {
+    frame: Frame,
+    /// Left of the key column, and the top of the drawing (below the heading), pixels.
+    key_x: f64,
+    top: f64,
+}
+
+impl SkyLayout {
+    /// The layout of a figure `(w, h)` pixels whose heading ends at `top`.
+    fn of((w, h): (f64, f64), top: f64, projection: Projection) -> Self {
+        let (plot_w, plot_h) = (w - 240.0, h - top - 40.0);
+        let r = (plot_w.min(plot_h) / 2.0 - 28.0).max(10.0);
+        let frame = Frame {
+            projection,
+            cx: 24.0 + plot_w / 2.0,
+            cy: top + plot_h / 2.0,
+            r,
+            x0: 48.0,
+            y0: top + 10.0,
+            w: plot_w - 48.0,
+            h: plot_h - 50.0,
+        };
+        SkyLayout { frame, key_x: w - 200.0, top }
+    }
+}
+
+/// The obstructed sky: the skyline filled down to the horizon, under everything.
+fn draw_obstruction(d: &mut dyn Draw, frame: &Frame, chart: &SkyChart) {
     if chart.skyline.len() > 1 {
         let mut ring: Vec<(f64, f64)> = chart.skyline.iter().map(|&(az, alt)| frame.at(az, alt)).collect();
         if chart.projection == Projection::Rectangular {
@@ -262,12 +288,14 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             let horizon: Vec<(f64, f64)> = (0..360).map(|a| frame.at(f64::from(a), 0.0)).collect();
             obstruction(d, &[horizon, ring.clone()]);
         }
-        for line in polylines(&frame, &chart.skyline) {
+        for line in polylines(frame, &chart.skyline) {
             d.stroke(&line, 1.5, OBSTRUCTION_LINE, chart.projection != Projection::Rectangular);
         }
     }
+}
 
-    // Altitude rings and azimuth spokes.
+/// Altitude rings and azimuth spokes with their labels.
+fn draw_grid(d: &mut dyn Draw, frame: &Frame, chart: &SkyChart) {
     for alt in (0..90).step_by(10) {
         let alt = f64::from(alt);
         let line: Vec<(f64, f64)> = (0..=360).map(|a| frame.at(f64::from(a), alt)).collect();
@@ -291,13 +319,16 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             Projection::Rectangular => (frame.at(az, 0.0).0, frame.y0 + frame.h + 20.0),
             _ => {
                 let (s, c) = az.to_radians().sin_cos();
-                (frame.cx + (r + 18.0) * s, frame.cy - (r + 18.0) * c + 5.0)
+                (frame.cx + (frame.r + 18.0) * s, frame.cy - (frame.r + 18.0) * c + 5.0)
             }
         };
         d.text(x, y, TEXT_PX, &label, INK, Anchor::Middle);
     }
+}
 
-    // Hour lines: the sun at each whole local hour on every fifth day of the year.
+/// Hour lines: the sun at each whole local hour on every third day of the year, each labelled in a
+/// ring at its summer end.
+fn draw_hour_lines(d: &mut dyn Draw, frame: &Frame, chart: &SkyChart, eph: &mut Ephemeris) -> Result<(), InputError> {
     let dt = chart.delta_t;
     let jan1 = NaiveDate::from_ymd_opt(chart.year, 1, 1).ok_or(InputError::YearOutOfRange { year: chart.year })?;
     for hour in 0..24 {
@@ -308,7 +339,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         // The hour is labelled at the highest point of its figure (the summer-solstice end).
         let mut best: Option<(f64, f64)> = None;
         let flush = |d: &mut dyn Draw, pts: &mut Vec<(f64, f64)>| {
-            for line in polylines(&frame, pts) {
+            for line in polylines(frame, pts) {
                 d.stroke(&line, 0.8, HOUR, false);
             }
             pts.clear();
@@ -322,7 +353,7 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
                 flush(d, &mut pts);
             }
             offset = Some(off);
-            let (az, alt) = sun(&mut eph, &chart.site, t, dt)?;
+            let (az, alt) = sun(eph, &chart.site, t, dt)?;
             if alt > 2.0 && best.is_none_or(|b| alt > b.1) {
                 best = Some((az, alt));
             }
@@ -348,6 +379,19 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         }
     }
 
+    Ok(())
+}
+
+/// The day paths, their key and their labels on the chart; returns the key's rows (colour, label) and
+/// the boxes of the labels drawn on the chart.
+#[allow(clippy::type_complexity)]
+fn draw_day_paths(
+    d: &mut dyn Draw,
+    layout: &SkyLayout,
+    chart: &SkyChart,
+    eph: &mut Ephemeris,
+) -> Result<(Vec<(usize, String)>, Vec<(f64, f64, f64, f64)>), InputError> {
+    let (frame, key_x, top) = (&layout.frame, layout.key_x, layout.top);
     // Day paths.
     // Dates a month either side of a solstice follow nearly the same path: the 21st of month m and of
     // month 12 − m share a colour when every date is a 21st, and one legend line.
@@ -375,7 +419,6 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
     if paired {
         legend.sort_by_key(|(c, _)| *c);
     }
-    let key_x = w - 200.0;
     d.text(key_x, top + 10.0, TEXT_PX, "Day paths", INK, Anchor::Start);
     for (row, (c, label)) in legend.iter().enumerate() {
         let ly = top + 36.0 + 22.0 * row as f64;
@@ -390,12 +433,12 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         let start = chart.zone.start_of_day(*date);
         let mut pts = Vec::new();
         for m in (0..=24 * 60).step_by(5) {
-            let (az, alt) = sun(&mut eph, &chart.site, start + Duration::minutes(m), dt)?;
+            let (az, alt) = sun(eph, &chart.site, start + Duration::minutes(m), chart.delta_t)?;
             if alt > 0.0 {
                 pts.push((az, alt));
             }
         }
-        for line in polylines(&frame, &pts) {
+        for line in polylines(frame, &pts) {
             d.stroke(&line, path_width(c), PATH_COLOURS[c], false);
         }
         if let Some(high) = pts.iter().copied().max_by(|a, b| a.1.total_cmp(&b.1)) {
@@ -420,8 +463,19 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
         boxes.push((left, y - 16.0, left + tw + 6.0, y));
     }
 
+    Ok((legend, boxes))
+}
+
+/// The sun at the chart's moment, if it is up, labelled clear of `boxes`.
+fn draw_sun(
+    d: &mut dyn Draw,
+    frame: &Frame,
+    chart: &SkyChart,
+    eph: &mut Ephemeris,
+    boxes: &[(f64, f64, f64, f64)],
+) -> Result<(), InputError> {
     if let Some(t) = chart.now {
-        let (az, alt) = sun(&mut eph, &chart.site, t, dt)?;
+        let (az, alt) = sun(eph, &chart.site, t, chart.delta_t)?;
         if alt > 0.0 {
             let (x, y) = frame.at(az, alt);
             let disc: Vec<(f64, f64)> = (0..24)
@@ -449,7 +503,13 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
             d.text(bx + 3.0, by + th - 5.0, TEXT_PX, &label, INK, Anchor::Start);
         }
     }
-    let mut y = top + 36.0 + 22.0 * legend.len() as f64 + 14.0;
+    Ok(())
+}
+
+/// Under the key's `rows` day paths: the obstruction's swatch and the note on hour lines.
+fn draw_key_notes(d: &mut dyn Draw, layout: &SkyLayout, chart: &SkyChart, rows: usize) {
+    let (key_x, top) = (layout.key_x, layout.top);
+    let mut y = top + 36.0 + 22.0 * rows as f64 + 14.0;
     if !chart.skyline.is_empty() {
         let swatch = vec![(key_x, y - 12.0), (key_x + 26.0, y - 12.0), (key_x + 26.0, y + 4.0), (key_x, y + 4.0)];
         obstruction(d, std::slice::from_ref(&swatch));
@@ -469,8 +529,6 @@ pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputErr
     {
         d.text(key_x, y + 17.0 * k as f64, LABEL_PX, line, MUTED, Anchor::Start);
     }
-    d.text(24.0, h - 14.0, LABEL_PX, "Indicative; NREL SPA positions.", MUTED, Anchor::Start);
-    Ok(())
 }
 
 /// Line width of day path colour `c`: the solstices and equinoxes heavier.
@@ -493,6 +551,22 @@ fn obstruction(d: &mut dyn Draw, rings: &[Vec<(f64, f64)>]) {
 #[cfg(all(test, not(target_arch = "wasm32")))]
 mod tests {
     use super::*;
+
+    /// The layout keeps the chart's round and its labels clear of the key column and inside the figure,
+    /// at the design size and at the smallest size the widgets draw.
+    #[test]
+    fn the_layout_keeps_the_chart_clear_of_the_key() {
+        for (w, h) in [(900.0, 720.0), (640.0, 512.0)] {
+            let l = SkyLayout::of((w, h), 90.0, Projection::Stereographic);
+            let f = &l.frame;
+            // The compass labels sit 18 px outside the horizon ring and are about 20 px wide.
+            assert!(f.cx + f.r + 18.0 + 20.0 < l.key_x, "{w}: {} + {} vs {}", f.cx, f.r, l.key_x);
+            assert!(f.cx - f.r - 38.0 > 0.0 && f.cy - f.r - 18.0 > l.top - 10.0 && f.cy + f.r + 24.0 < h, "{w}");
+            assert_eq!(f.at(0.0, 90.0), (f.cx, f.cy), "the zenith at the centre");
+            let (x, y) = f.at(90.0, 0.0);
+            assert!((x - (f.cx + f.r)).abs() < 1e-9 && (y - f.cy).abs() < 1e-9, "east on the horizon at the right");
+        }
+    }
     use crate::render::Pixmap;
 
     #[test]
