@@ -198,7 +198,7 @@
     const openSite = async (text, source, footprints) => {
       try {
         await useSite(text, source, footprints);
-        plan.history = []; plan.future = [];
+        plan.clearHistory();
         hideError();
         redraw();
         return true;

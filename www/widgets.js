@@ -558,6 +558,8 @@
       to.push(this.state.site);
       this.commit(this.module.readSite(text), action);
     }
+    /** Forgets the edits to undo and redo (a new site was opened). */
+    clearHistory() { this.history = []; this.future = []; }
     get canUndo() { return this.history.length > 0; }
     get canRedo() { return this.future.length > 0; }
 

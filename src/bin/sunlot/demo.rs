@@ -3,8 +3,8 @@
 use chrono::Datelike;
 use clap::Args;
 use sunlot::demo::{demo, demo_site, demo_zone};
-use sunlot::shadow::{shadow_study, Study};
-use sunlot::solar::{day_events, season_instants, Atmosphere, SunAtInstant};
+use sunlot::shadow::{shadow_study, shadow_table, Study};
+use sunlot::solar::{day_events, season_instants};
 use sunlot::time::DeltaT;
 
 use crate::args::input_message;
@@ -20,67 +20,75 @@ pub struct DemoArgs {
 
 pub fn run(a: &DemoArgs) -> Result<String, String> {
     let year = a.year.unwrap_or_else(|| chrono::Utc::now().year());
-    let site = demo_site();
-    let zone = demo_zone();
-    let dt = DeltaT::EspenakMeeus;
-    let seasons = season_instants(year, dt).map_err(|e| input_message(&e))?;
-    let mut out = format!(
-        "sunlot demo — {}\n  {:.2}° N, {:.2}° W, {} m above sea level, zone {zone}\n\n",
-        demo().name,
-        site.latitude_deg,
-        -site.longitude_deg,
-        site.elevation_m
-    );
-
+    let (site, zone, model) = (demo_site(), demo_zone(), demo());
+    let seasons = season_instants(year, DT).map_err(|e| input_message(&e))?;
     let key = [
         ("March equinox", seasons.march_equinox),
         ("June solstice", seasons.june_solstice),
         ("September equinox", seasons.september_equinox),
         ("December solstice", seasons.december_solstice),
     ];
+    let mut tables = vec![season_days(year, &key)?];
+    for (name, t) in [key[0], key[1], key[3]] {
+        tables.push(hourly_sun(&model, zone.local_date(t), name)?);
+    }
+    tables.push(area_shade(&model, zone.local_date(seasons.march_equinox))?);
+    tables.push(garden_check(&model, year)?);
+    tables.extend(window_checks(&model, year)?);
+    let mut out = format!(
+        "sunlot demo — {}\n  {:.2}° N, {:.2}° W, {} m above sea level, zone {zone}\n\n",
+        model.name, site.latitude_deg, -site.longitude_deg, site.elevation_m
+    );
+    for t in tables {
+        out += &t.render(Format::Table);
+        out.push('\n');
+    }
+    out += "Indicative results from the NREL SPA; the site is invented. Local planning codes and a licensed\nprofessional's assessment govern any planning decision.\n";
+    Ok(out)
+}
+
+/// ΔT for every table of the demo.
+const DT: DeltaT = DeltaT::EspenakMeeus;
+
+/// The sun's day on the year's equinoxes and solstices (`key`: their names and instants).
+fn season_days(year: i32, key: &[(&str, chrono::DateTime<chrono::Utc>); 4]) -> Result<Table, String> {
+    let (site, zone) = (demo_site(), demo_zone());
     let mut days = day_table(&zone);
     days.title = format!("The sun's day on the equinoxes and solstices of {year}");
     days.columns.insert(0, "occasion".into());
     days.columns.insert(1, "instant".into());
     for (name, t) in key {
-        let ev = day_events(&site, zone.local_date(t), &zone, dt).map_err(|e| input_message(&e))?;
-        let mut r = vec![Cell::text(name), Cell::text(zone.local(t).format("%Y-%m-%d %H:%M %Z").to_string())];
+        let ev = day_events(&site, zone.local_date(*t), &zone, DT).map_err(|e| input_message(&e))?;
+        let mut r = vec![Cell::text(*name), Cell::text(zone.local(*t).format("%Y-%m-%d %H:%M %Z").to_string())];
         r.extend(day_row(&ev, &zone, true));
         days.rows.push(r);
     }
     days.drop_columns(&["day_length_h", "zone", "sun", "date"]);
-    out += &days.render(Format::Table);
-    out.push('\n');
+    Ok(days)
+}
 
-    for (name, t) in [key[0], key[1], key[3]] {
-        let date = zone.local_date(t);
-        let mut table = Table::new(
-            format!("Sun every hour on {date} ({name}), local time {zone}"),
-            vec!["local_time", "altitude_deg", "azimuth_deg", "shadow_length_m_per_m", "shadow_azimuth_deg"],
-        );
-        let (start, end) = crate::args::day_bounds(&zone, date);
-        let mut at = start;
-        while at < end {
-            let p = SunAtInstant::new(at, dt).map_err(|e| input_message(&e))?.observe(&site, &Atmosphere::default());
-            if p.is_up() {
-                table.rows.push(vec![
-                    Cell::text(zone.local(at).format("%H:%M").to_string()),
-                    Cell::num(p.altitude_deg, 2),
-                    Cell::num(p.azimuth_deg, 2),
-                    Cell::num(1.0 / p.altitude_deg.to_radians().tan(), 2),
-                    Cell::num((p.azimuth_deg + 180.0) % 360.0, 1),
-                ]);
-            }
-            at += chrono::Duration::hours(1);
-        }
-        table
-            .notes
-            .push("Shadow length per metre of height = 1 / tan(altitude), on flat ground (common practice).".into());
-        out += &table.render(Format::Table);
-        out.push('\n');
+/// The sun and the shadow length every hour of `date` (the core's shadow-length table, on the hour).
+fn hourly_sun(model: &sunlot::site::SiteModel, date: chrono::NaiveDate, name: &str) -> Result<Table, String> {
+    let zone = model.zone;
+    let mut table = Table::new(
+        format!("Sun every hour on {date} ({name}), local time {zone}"),
+        vec!["local_time", "altitude_deg", "azimuth_deg", "shadow_length_m_per_m", "shadow_azimuth_deg"],
+    );
+    for r in shadow_table(model, date, 60, DT).map_err(|e| input_message(&e))? {
+        table.rows.push(vec![
+            Cell::text(zone.local(r.time).format("%H:%M").to_string()),
+            Cell::num(r.altitude_deg, 2),
+            Cell::num(r.azimuth_deg, 2),
+            Cell::num(r.shadow_length_m_per_m, 2),
+            Cell::num(r.shadow_azimuth_deg, 1),
+        ]);
     }
-    let model = demo();
-    let date = zone.local_date(seasons.march_equinox);
+    table.notes.push("Shadow length per metre of height = 1 / tan(altitude), on flat ground (common practice).".into());
+    Ok(table)
+}
+
+/// Each area's share in shadow at 09:00, 12:00 and 15:00 on `date`, existing → with the proposal.
+fn area_shade(model: &sunlot::site::SiteModel, date: chrono::NaiveDate) -> Result<Table, String> {
     let mut shade = Table::new(
         format!("Share of each area in shadow on {date} (March equinox): existing → with the proposal"),
         vec!["area", "09:00", "12:00", "15:00"],
@@ -89,8 +97,8 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         model.areas.iter().map(|a| vec![Cell::text(if a.name.is_empty() { &a.id } else { &a.name })]).collect();
     for hour in [9, 12, 15] {
         let wall = date.and_hms_opt(hour, 0, 0).ok_or("bad hour")?;
-        let t = zone.resolve(wall, sunlot::time::Fold::Earlier).map_err(|e| e.to_string())?;
-        let study = shadow_study(&model, t, dt).map_err(|e| e.to_string())?;
+        let t = model.zone.resolve(wall, sunlot::time::Fold::Earlier).map_err(|e| e.to_string())?;
+        let study = shadow_study(model, t, DT).map_err(|e| e.to_string())?;
         for (row, a) in cells.iter_mut().zip(&model.areas) {
             let text = match &study {
                 Study::Sun { areas, .. } => areas
@@ -110,10 +118,14 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         "From demo-site/hollin-vale.site.json; try: sunlot shadows --demo --local 2026-03-20T12:00 --format table"
             .into(),
     );
-    out += &shade.render(Format::Table);
-    out.push('\n');
+    Ok(shade)
+}
+
+/// The gardens against the default area preset (BRE BR 209's amenity test).
+fn garden_check(model: &sunlot::site::SiteModel, year: i32) -> Result<Table, String> {
     let rule = sunlot::rules::area_preset(sunlot::rules::DEFAULT_AREA_PRESET).map_err(|e| e.to_string())?;
-    let req = sunlot::rules::CheckRequest { model: &model, rule: &rule, year, cell_m: 0.5, step_min: 5, delta_t: dt };
+    let (cell_m, step_min) = (sunlot::exposure::DEFAULT_CELL_M, sunlot::exposure::DEFAULT_STEP_MIN);
+    let req = sunlot::rules::CheckRequest { model, rule: &rule, year, cell_m, step_min, delta_t: DT };
     let report = sunlot::rules::check_rule(&req, |_| true).map_err(|e| e.to_string())?;
     let mut check = crate::check::report_table(&report);
     check.notes.insert(
@@ -121,27 +133,28 @@ pub fn run(a: &DemoArgs) -> Result<String, String> {
         "Try: sunlot compare --demo --date YYYY-03-21 --png lost.png; sunlot envelope --demo --lot lot-14 --date YYYY-03-21"
             .replace("YYYY", &year.to_string()),
     );
-    out += &check.render(Format::Table);
-    out.push('\n');
-    // The neighbours' windows against BR 209's window tests.
+    Ok(check)
+}
+
+/// The neighbours' windows against BR 209's window tests.
+fn window_checks(model: &sunlot::site::SiteModel, year: i32) -> Result<Vec<Table>, String> {
+    let mut out = Vec::new();
     for id in ["bre-br209-window-sky", "bre-br209-window-sun"] {
         let sunlot::rules::AnyRule::Window(rule) = sunlot::rules::preset(id).map_err(|e| e.to_string())? else {
             continue;
         };
         let req = sunlot::rules::WindowCheckRequest {
-            model: &model,
+            model,
             rule: &rule,
             year,
             step_min: 10,
             azimuth_step_deg: sunlot::daylight::DEFAULT_AZIMUTH_STEP_DEG,
-            delta_t: dt,
+            delta_t: DT,
         };
         let report = sunlot::rules::check_windows(&req, |_| true).map_err(|e| e.to_string())?;
         let mut table = crate::check::window_table(&report);
         table.drop_columns(&["window"]);
-        out += &table.render(Format::Table);
-        out.push('\n');
+        out.push(table);
     }
-    out += "Indicative results from the NREL SPA; the site is invented. Local planning codes and a licensed\nprofessional's assessment govern any planning decision.\n";
     Ok(out)
 }
