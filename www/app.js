@@ -144,11 +144,11 @@
         window.sunlotLastMapMs = ms;
         mapEl.setMap(map);
         plan.setMap($("on-plan").checked ? map : null);
-        const v = Array.from(map.values).filter(Number.isFinite);
-        const mean = v.reduce((a, b) => a + b, 0) / Math.max(v.length, 1);
-        const least = v.reduce((a, b) => Math.min(a, b), Infinity);
-        $("map-status").textContent = `${map.spec.title}: ${v.length} cells, mean ${mean.toFixed(2)} ${map.spec.unit}, ` +
-          `least ${least.toFixed(2)} ${map.spec.unit} (${(ms / 1000).toFixed(2)} s).`;
+        // The core's figures of the map (cells with a value, mean, least), not recomputed here.
+        const f = map.result.stats, u = map.spec.unit;
+        $("map-status").textContent = f
+          ? `${map.spec.title}: ${f.cells} cells, mean ${f.mean.toFixed(2)} ${u}, least ${f.min.toFixed(2)} ${u} (${(ms / 1000).toFixed(2)} s).`
+          : `${map.spec.title}: no cells (${(ms / 1000).toFixed(2)} s).`;
       }).catch(e => {
         if (mapKey === key) mapKey = null;
         $("map-status").textContent = e.message === "cancelled" ? "cancelled" : "";

@@ -169,6 +169,15 @@ fn array(values: &[Option<f64>]) -> Float64Array {
     Float64Array::from(v.as_slice())
 }
 
+/// The core's figures of a map's values, `{cells, min, mean, max}` (each cell with a value counts
+/// whole), for captions and status lines; `null` when no cell has a value.
+fn stats(grid: &Grid, values: &[Option<f64>]) -> serde_json::Value {
+    match crate::exposure::map_stats(grid, values, None, 0.0) {
+        Some(m) => serde_json::json!({"cells": m.cells, "min": m.min, "mean": m.mean, "max": m.max}),
+        None => serde_json::Value::Null,
+    }
+}
+
 fn set(obj: &JsValue, key: &str, value: &JsValue) -> Result<(), JsError> {
     js_sys::Reflect::set(obj, &JsValue::from_str(key), value)
         .map(|_| ())
@@ -201,9 +210,11 @@ pub fn sun_hours_map(
         steps: usize,
         /// The period in words (the core's [`Period::describe`]).
         period: String,
+        /// The core's figures of the hours.
+        stats: serde_json::Value,
     }
-    let out =
-        write(&Out { grid: grid_out(&grid), open_hours: map.open_hours, steps: map.steps, period: period.describe() })?;
+    let (open_hours, steps, stats) = (map.open_hours, map.steps, stats(&grid, &map.hours));
+    let out = write(&Out { grid: grid_out(&grid), open_hours, steps, period: period.describe(), stats })?;
     set(&out, "hours", &array(&map.hours))?;
     Ok(out)
 }
@@ -220,7 +231,7 @@ pub fn compare_map(
     let req = i.request(&model, &grid, period, Massing::WithProposed);
     let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
     let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours,
-                                         "period": period.describe()}))?;
+                                         "period": period.describe(), "stats": stats(&grid, &ba.lost_h)}))?;
     set(&out, "before", &array(&ba.before.hours))?;
     set(&out, "after", &array(&ba.after.hours))?;
     set(&out, "lostH", &array(&ba.lost_h))?;
@@ -263,7 +274,8 @@ pub fn insolation_map(
     };
     let m = crate::exposure::insolation(&req, progress(&on_progress)).map_err(err)?;
     let o = m.open;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "period": period.describe(), "open": {
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "period": period.describe(),
+                                         "stats": stats(&grid, &m.total_kwh_m2), "open": {
         "totalKwhM2": o.total_kwh_m2, "beamKwhM2": o.beam_kwh_m2, "diffuseKwhM2": o.diffuse_kwh_m2,
         "sunHours": o.sun_hours}}))?;
     set(&out, "totalKwhM2", &array(&m.total_kwh_m2))?;
@@ -332,8 +344,8 @@ pub fn solar_envelope_js(
         delta_t: DeltaT::EspenakMeeus,
     };
     let env = solar_envelope(&req, progress(&on_progress)).map_err(err)?;
-    let out =
-        write(&serde_json::json!({"grid": grid_out(&grid), "steps": env.steps, "period": req.period.describe()}))?;
+    let out = write(&serde_json::json!({"grid": grid_out(&grid), "steps": env.steps, "period": req.period.describe(),
+                                         "stats": stats(&grid, &env.height_m)}))?;
     set(&out, "heightM", &array(&env.height_m))?;
     Ok(out)
 }

@@ -38,11 +38,12 @@ export interface WindowLight { facingDeg: number; existing: WindowLightFigures; 
 export interface GridGeometry { cols: number; rows: number; originXM: number; originYM: number; col0: number; row0: number; cellM: number; }
 export interface MapInput { site: SiteText; areas?: string[]; cellM?: number; date: string; to?: string;
   window?: string; stepMin?: number; planeM?: number; massing?: Massing; maxCells?: number; }
-export interface SunHoursMap { grid: GridGeometry; hours: Float64Array; openHours: number; steps: number; period: string; }
-export interface CompareMap { grid: GridGeometry; openHours: number; period: string; before: Float64Array; after: Float64Array;
+export interface MapFigures { cells: number; min: number; mean: number; max: number; }
+export interface SunHoursMap { grid: GridGeometry; hours: Float64Array; openHours: number; steps: number; period: string; stats: MapFigures | null; }
+export interface CompareMap { grid: GridGeometry; openHours: number; period: string; stats: MapFigures | null; before: Float64Array; after: Float64Array;
   lostH: Float64Array; ratio: Float64Array; }
 export interface InsolationInput extends MapInput { aod500?: number; skyStepDeg?: number; }
-export interface InsolationMap { grid: GridGeometry; period: string; totalKwhM2: Float64Array; beamKwhM2: Float64Array;
+export interface InsolationMap { grid: GridGeometry; period: string; stats: MapFigures | null; totalKwhM2: Float64Array; beamKwhM2: Float64Array;
   diffuseKwhM2: Float64Array; skyView: Float64Array; sunHours: Float64Array;
   open: { totalKwhM2: number; beamKwhM2: number; diffuseKwhM2: number; sunHours: number }; }
 export interface CheckInput { site: SiteText; preset?: string; rule?: object; year: number; cellM?: number; stepMin?: number;
@@ -66,7 +67,7 @@ export interface FacadeMap { caution: string; faces: { number: number; facingDeg
 export interface RulePreset { id: string; kind: "area" | "window"; summary: string; rule: Record<string, unknown>; }
 export interface EnvelopeInput { site: SiteText; lot: string; protect?: string[]; date: string; to?: string; window?: string;
   stepMin?: number; cellM?: number; maxHeightM?: number; heightStepM?: number; }
-export interface Envelope { grid: GridGeometry; heightM: Float64Array; steps: number; period: string; }
+export interface Envelope { grid: GridGeometry; heightM: Float64Array; steps: number; period: string; stats: MapFigures | null; }
 export interface PointInput { site: SiteText; xM: number; yM: number; zM?: number; massing?: Massing; }
 export interface TimelineInput extends PointInput { date: string; }
 export interface Timeline { intervals: { from: string; to: string; sunlit: boolean; by: string | null }[]; sunHours: number; dayHours: number; }
