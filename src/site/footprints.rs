@@ -154,8 +154,8 @@ impl SiteModel {
         if let Some((area, margin_m)) = ground {
             assumptions.push(format!(
                 "An area {SURROUNDINGS_ID:?} (the footprints' bounding box grown by {margin_m:.0} m, the tallest \
-                 building's height and at least {MIN_MARGIN_M:.0} m) was added so that maps have ground to cover; \
-                 draw the lots and gardens to check them against a rule."
+                 building's height and at least {MIN_MARGIN_M:.0} m, the buildings' footprints left out) was added \
+                 so that maps have ground to cover; draw the lots and gardens to check them against a rule."
             ));
             model.areas.push(area);
         }
@@ -189,13 +189,24 @@ fn surroundings(model: &SiteModel) -> Result<Option<(Area, f64)>, GeoJsonError> 
         (hi.x + margin_m, hi.y + margin_m),
         (lo.x - margin_m, hi.y + margin_m),
     ]);
-    let area = Area::new(
-        SURROUNDINGS_ID,
-        "Ground around the imported buildings",
-        AreaKind::Other,
-        Status::Existing,
-        geo::Polygon::new(ring, vec![]),
-    )?;
+    let rect = geo::Polygon::new(ring, vec![]);
+    // The ground under buildings that stand on it is not ground to map: their footprints are holes
+    // (a raised volume's is not). A courtyard closed on every side is left out with its building.
+    use geo::{Area as _, BooleanOps};
+    let standing =
+        model.volumes.iter().filter(|v| v.base_m <= 0.0).fold(geo::MultiPolygon::new(vec![]), |acc, v| {
+            acc.union(&geo::MultiPolygon::new(vec![v.footprint.clone()]))
+        });
+    let open = geo::MultiPolygon::new(vec![rect.clone()]).difference(&standing);
+    let largest = open.0.into_iter().max_by(|a, b| a.unsigned_area().total_cmp(&b.unsigned_area()));
+    let area = |polygon| {
+        Area::new(SURROUNDINGS_ID, "Ground around the imported buildings", AreaKind::Other, Status::Existing, polygon)
+    };
+    // Should the holes not make a valid area (the union's output touching itself), the whole box.
+    let area = match largest.map(area) {
+        Some(Ok(a)) => a,
+        _ => area(rect)?,
+    };
     Ok(Some((area, margin_m)))
 }
 
@@ -371,6 +382,11 @@ mod tests {
         let r = geo::BoundingRect::bounding_rect(&a[0].polygon).unwrap();
         let fp = geo::BoundingRect::bounding_rect(&v[0].footprint).unwrap();
         assert!((fp.min().x - r.min().x - 20.0).abs() < 1e-6, "{r:?} {fp:?}");
+        // The footprints standing on the ground are holes in it; the raised one (3 m up) is not.
+        assert_eq!(a[0].polygon.interiors().len(), 1);
+        let inside = |p: geo::Point<f64>| geo::Contains::contains(&a[0].polygon, &p);
+        assert!(!inside(geo::Centroid::centroid(&v[0].footprint).unwrap()));
+        assert!(inside(geo::Centroid::centroid(&v[1].footprint).unwrap()));
         assert!(said.contains("An area \"surroundings\""), "{said}");
     }
 
