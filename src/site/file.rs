@@ -619,13 +619,13 @@ impl SiteModel {
             let model = SiteModel::from_json(text)?;
             return Ok(ReadSite { model, from_geojson: false, assumptions: vec![] });
         }
-        let plain =
-            matches!(text.parse::<geojson::GeoJson>(), Ok(geojson::GeoJson::FeatureCollection(fc)) if is_plain(&fc));
-        if plain {
-            let got = SiteModel::from_footprints(text, footprints)?;
+        // Parsed once: a plain collection goes to the footprint reader, a sunlot one to the site reader.
+        let fc = super::geojson_io::parse_collection(text)?;
+        if is_plain(&fc) {
+            let got = SiteModel::footprints_from_collection(fc, footprints)?;
             return Ok(ReadSite { model: got.model, from_geojson: true, assumptions: got.assumptions });
         }
-        let model = SiteModel::from_geojson(text)?;
+        let model = SiteModel::from_collection(&fc)?;
         Ok(ReadSite { model, from_geojson: true, assumptions: vec![] })
     }
 }

@@ -3,13 +3,13 @@
 //! existing volume; the collection is then read as a sunlot GeoJSON site (same checks, same errors),
 //! and every assumption made on the way is returned to be shown to the user.
 
-use geojson::{FeatureCollection, GeoJson, GeometryValue, JsonObject};
+use geojson::{FeatureCollection, GeometryValue, JsonObject};
 use serde_json::{json, Value};
 
 use super::file::{Area, AreaKind, SiteModel};
-use super::geojson_io::GeoJsonError;
+use super::geojson_io::{bbox_centre, parse_collection, GeoJsonError};
 use super::massing::Status;
-use crate::limits::{within, MAX_HEIGHT_M, MAX_SITE_TEXT_BYTES};
+use crate::limits::MAX_HEIGHT_M;
 use crate::time::Zone;
 
 /// Feature properties read as a building's height in metres, first found wins: ours, the common
@@ -78,7 +78,7 @@ pub fn zone_from_longitude(longitude_deg: f64) -> String {
 /// The middle longitude of a collection's footprints and the fixed-offset zone it suggests
 /// ([`zone_from_longitude`]); `None` without a position in range.
 pub fn suggested_zone(fc: &FeatureCollection) -> Option<(f64, String)> {
-    longitude_centre(fc).map(|lon| (lon, zone_from_longitude(lon)))
+    bbox_centre(fc).map(|(lon, _)| (lon, zone_from_longitude(lon)))
 }
 
 impl SiteModel {
@@ -88,12 +88,14 @@ impl SiteModel {
     /// [`GeoJsonError::ZoneNeeded`] without a zone; a feature with no usable height, named; and every
     /// error of [`SiteModel::from_geojson`].
     pub fn from_footprints(text: &str, options: &FootprintOptions) -> Result<Imported, GeoJsonError> {
-        within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")?;
-        crate::json_check::unique_members(text).map_err(GeoJsonError::Format)?;
-        let gj: GeoJson = text.parse().map_err(|e: geojson::Error| GeoJsonError::Format(e.to_string()))?;
-        let GeoJson::FeatureCollection(mut fc) = gj else {
-            return Err(GeoJsonError::Format("a site must be a FeatureCollection".into()));
-        };
+        SiteModel::footprints_from_collection(parse_collection(text)?, options)
+    }
+
+    /// As [`SiteModel::from_footprints`], from a parsed collection.
+    pub(super) fn footprints_from_collection(
+        mut fc: FeatureCollection,
+        options: &FootprintOptions,
+    ) -> Result<Imported, GeoJsonError> {
         if !(options.storey_height_m.is_finite() && (1.0..=10.0).contains(&options.storey_height_m)) {
             return Err(GeoJsonError::Format(format!(
                 "storey_height_m must be 1 m to 10 m, got {} m",
@@ -144,7 +146,7 @@ impl SiteModel {
         let mut members = JsonObject::new();
         members.insert("sunlot".into(), json!({"zone": zone.to_string(), "name": options.name}));
         fc.foreign_members = Some(members);
-        let mut model = SiteModel::from_geojson(&serde_json::to_string(&fc).unwrap_or_default())?;
+        let mut model = SiteModel::from_collection(&fc)?;
         let ground = surroundings(&model)?;
         let mut assumptions = vec![format!(
             "Plain GeoJSON: {} footprint(s) read as existing buildings (a \"status\": \"proposed\" property \
@@ -174,11 +176,8 @@ pub const SURROUNDINGS_ID: &str = "surroundings";
 const MIN_MARGIN_M: f64 = 20.0;
 
 /// The ground around the footprints as an area (their bounding box grown by the tallest height, at
-/// least [`MIN_MARGIN_M`]), with the margin used; `None` for a site that has areas.
+/// least [`MIN_MARGIN_M`]), with the margin used; `None` for a site without volumes.
 fn surroundings(model: &SiteModel) -> Result<Option<(Area, f64)>, GeoJsonError> {
-    if !model.areas.is_empty() {
-        return Ok(None);
-    }
     let polys: Vec<geo::Polygon<f64>> = model.volumes.iter().map(|v| v.footprint.clone()).collect();
     let Some(b) = geo::BoundingRect::bounding_rect(&geo::MultiPolygon::new(polys)) else { return Ok(None) };
     let margin_m = model.volumes.iter().map(|v| v.top_m).fold(MIN_MARGIN_M, f64::max);
@@ -320,30 +319,10 @@ fn heights(
     }
 }
 
-/// The middle of the longitudes of the collection's positions (those in range).
-fn longitude_centre(fc: &FeatureCollection) -> Option<f64> {
-    let (mut lo, mut hi) = (f64::INFINITY, f64::NEG_INFINITY);
-    let mut visit = |p: &geojson::Position| {
-        if let Some(&lon) = p.as_slice().first().filter(|l| l.is_finite() && (-180.0..=180.0).contains(*l)) {
-            lo = lo.min(lon);
-            hi = hi.max(lon);
-        }
-    };
-    for f in &fc.features {
-        match f.geometry.as_ref().map(|g| &g.value) {
-            Some(GeometryValue::Polygon { coordinates }) => coordinates.iter().flatten().for_each(&mut visit),
-            Some(GeometryValue::MultiPolygon { coordinates }) => {
-                coordinates.iter().flatten().flatten().for_each(&mut visit)
-            }
-            _ => {}
-        }
-    }
-    lo.is_finite().then_some((lo + hi) / 2.0)
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
+    use geojson::GeoJson;
 
     /// Two footprints about 0.1° W, 51.5° N: one 12 m tall (text, OSM style), one of 4 storeys; and a
     /// Point (a tree) that is not a footprint.

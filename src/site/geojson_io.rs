@@ -92,12 +92,11 @@ impl SiteModel {
     /// # Errors
     /// [`GeoJsonError`] naming the feature and the problem; no feature is silently dropped.
     pub fn from_geojson(text: &str) -> Result<Self, GeoJsonError> {
-        within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")?;
-        crate::json_check::unique_members(text).map_err(GeoJsonError::Format)?;
-        let gj: GeoJson = text.parse().map_err(|e: geojson::Error| GeoJsonError::Format(e.to_string()))?;
-        let GeoJson::FeatureCollection(fc) = gj else {
-            return Err(GeoJsonError::Format("a site must be a FeatureCollection".into()));
-        };
+        SiteModel::from_collection(&parse_collection(text)?)
+    }
+
+    /// A site from a parsed FeatureCollection with `sunlot` members (see [`SiteModel::from_geojson`]).
+    pub(super) fn from_collection(fc: &FeatureCollection) -> Result<Self, GeoJsonError> {
         within("features", fc.features.len() as f64, MAX_FEATURES as f64, "features")?;
         within(
             "vertices",
@@ -105,7 +104,7 @@ impl SiteModel {
             MAX_VERTICES as f64,
             "vertices",
         )?;
-        let (mut model, frame) = site_header(&fc)?;
+        let (mut model, frame) = site_header(fc)?;
         let mut ids = std::collections::HashSet::new();
         for (index, f) in fc.features.iter().enumerate() {
             read_feature(&mut model, &frame, &mut ids, index, f)?;
@@ -182,6 +181,17 @@ impl SiteModel {
     pub fn polygon_to_wgs84(&self, frame: &LocalFrame, p: &Polygon<f64>) -> Polygon<f64> {
         p.map_coords(|c| self.plan_to_wgs84(frame, c))
     }
+}
+
+/// A site's text as a FeatureCollection: within the text budget, no member given twice, GeoJSON.
+pub(super) fn parse_collection(text: &str) -> Result<FeatureCollection, GeoJsonError> {
+    within("site", text.len() as f64, MAX_SITE_TEXT_BYTES as f64, "bytes")?;
+    crate::json_check::unique_members(text).map_err(GeoJsonError::Format)?;
+    let gj: GeoJson = text.parse().map_err(|e: geojson::Error| GeoJsonError::Format(e.to_string()))?;
+    let GeoJson::FeatureCollection(fc) = gj else {
+        return Err(GeoJsonError::Format("a site must be a FeatureCollection".into()));
+    };
+    Ok(fc)
 }
 
 /// The site a collection's `sunlot` member describes (location, zone, name, ground), with no features
@@ -416,7 +426,7 @@ fn lon_lat(p: &geojson::Position, feature: &str, path: &str) -> Result<(f64, f64
     Ok((lon, lat))
 }
 
-fn bbox_centre(fc: &FeatureCollection) -> Option<(f64, f64)> {
+pub(super) fn bbox_centre(fc: &FeatureCollection) -> Option<(f64, f64)> {
     let (mut lo, mut hi) = ((f64::INFINITY, f64::INFINITY), (f64::NEG_INFINITY, f64::NEG_INFINITY));
     let mut visit = |p: &geojson::Position| {
         // Bad positions are named when the features are read; here they are only left out.
