@@ -155,10 +155,22 @@ fn rule_checks_envelopes_and_timelines_through_the_facade() {
     assert!(get(&report, "caution").as_string().unwrap().contains("licensed professional"));
     let areas: js_sys::Array = get(&report, "areas").into();
     assert!(areas.length() >= 5);
-    // camelCase like every other call: the core's snake_case report keys are converted.
+    // The report in camelCase like every other call; its rule in the rule-file format, so that it can
+    // be given back as `rule` (here with a stricter share: the same areas, other verdicts).
     let first = areas.get(0);
     assert!(num(&first, "beforeShare") >= num(&first, "afterShare"));
-    assert!(get(&report, "rule").is_object() && get(&get(&report, "rule"), "minHours").as_f64() == Some(2.0));
+    let rule = get(&report, "rule");
+    assert_eq!(get(&rule, "min_hours").as_f64(), Some(2.0));
+    js_sys::Reflect::set(&rule, &"min_share".into(), &1.0.into()).unwrap();
+    let again = js_sys::Object::new();
+    for (k, v) in
+        [("site", js(&site)), ("rule", rule), ("year", 2026.into()), ("cellM", 1.into()), ("stepMin", 10.into())]
+    {
+        js_sys::Reflect::set(&again, &k.into(), &v).unwrap();
+    }
+    let strict = sunlot::web::check_rule_js(again.into()).unwrap();
+    assert_eq!(get(&get(&strict, "rule"), "min_share").as_f64(), Some(1.0));
+    assert_eq!(js_sys::Array::from(&get(&strict, "areas")).length(), areas.length());
     let env = sunlot::web::solar_envelope_js(
         js(&format!(r#"{{"site": {site}, "lot": "lot-14", "date": "2026-03-21"}}"#)),
         None,

@@ -32,6 +32,9 @@ pub struct CheckRequest<'a> {
 
 /// One area's result.
 #[derive(Debug, Clone, PartialEq, Serialize)]
+/// Serialized with snake_case keys (the CLI's JSON) and, in the wasm build, camelCase keys (the
+/// JavaScript facade's naming).
+#[cfg_attr(target_arch = "wasm32", serde(rename_all = "camelCase"))]
 pub struct AreaCheck {
     /// Area id.
     pub id: String,
@@ -74,6 +77,9 @@ pub struct AreaCheck {
 
 /// The check of every area the rule picks.
 #[derive(Debug, Clone, PartialEq, Serialize)]
+/// Serialized with snake_case keys (the CLI's JSON) and, in the wasm build, camelCase keys (the
+/// JavaScript facade's naming).
+#[cfg_attr(target_arch = "wasm32", serde(rename_all = "camelCase"))]
 pub struct CheckReport {
     /// The rule.
     pub rule: Rule,

@@ -34,6 +34,9 @@ pub struct WindowCheckRequest<'a> {
 
 /// A figure of a window before and with the proposal.
 #[derive(Debug, Clone, PartialEq, Serialize)]
+/// Serialized with snake_case keys (the CLI's JSON) and, in the wasm build, camelCase keys (the
+/// JavaScript facade's naming).
+#[cfg_attr(target_arch = "wasm32", serde(rename_all = "camelCase"))]
 pub struct Figure {
     /// What it is, with its unit (`vsc_pct`, `sun_h`, `annual_share`, `winter_share`).
     pub name: &'static str,
@@ -45,6 +48,9 @@ pub struct Figure {
 
 /// One window's result.
 #[derive(Debug, Clone, PartialEq, Serialize)]
+/// Serialized with snake_case keys (the CLI's JSON) and, in the wasm build, camelCase keys (the
+/// JavaScript facade's naming).
+#[cfg_attr(target_arch = "wasm32", serde(rename_all = "camelCase"))]
 pub struct WindowCheck {
     /// Window id.
     pub id: String,
@@ -64,6 +70,9 @@ pub struct WindowCheck {
 
 /// The check of every window the rule picks.
 #[derive(Debug, Clone, PartialEq, Serialize)]
+/// Serialized with snake_case keys (the CLI's JSON) and, in the wasm build, camelCase keys (the
+/// JavaScript facade's naming).
+#[cfg_attr(target_arch = "wasm32", serde(rename_all = "camelCase"))]
 pub struct WindowReport {
     /// The rule.
     pub rule: WindowRule,

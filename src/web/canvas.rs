@@ -367,9 +367,12 @@ pub(crate) fn draw_plan(
     let frame = j.draw(&mut surface, layer);
     let (o, far) = (frame.to_plan(0.0, 0.0), frame.to_plan(1.0, 1.0));
     let (bx, by, bw, bh) = frame.bounds_px();
-    super::write(&serde_json::json!({
-        "xAtLeftM": o.x, "yAtTopM": o.y, "pxPerM": 1.0 / (far.x - o.x), "box": [bx, by, bw, bh],
-    }))
+    super::write(&super::outputs::PlanFrame {
+        x_at_left_m: o.x,
+        y_at_top_m: o.y,
+        px_per_m: 1.0 / (far.x - o.x),
+        bounds_px: [bx, by, bw, bh],
+    })
 }
 
 /// The shadow plan as an SVG document, `width` × `height` pixels.

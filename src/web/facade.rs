@@ -6,6 +6,7 @@ use wasm_bindgen::prelude::*;
 
 use super::defaults;
 use super::maps::{date, massing_of, window};
+use super::outputs::{FacadeMap, FaceCells, FaceWindow, FigureSize};
 use super::{err, read, site, write};
 use crate::exposure::{facade_map, FacadeLayer, FacadeRequest, FaceMap, Massing, Period, SunSteps};
 use crate::render::{draw_elevation, elevation_size, Elevation};
@@ -97,27 +98,35 @@ fn figure<D: crate::render::Draw>(
 pub fn facade_map_js(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: FacadeIn = read(input, "facadeMap")?;
     let faces = compute(&i, false)?.faces;
-    let faces: Vec<serde_json::Value> = faces
+    let faces = faces
         .iter()
-        .map(|f| {
-            let windows: Vec<serde_json::Value> = f
+        .map(|f| FaceCells {
+            number: f.face.number,
+            facing_deg: f.face.facing_deg,
+            compass: f.face.compass(),
+            start_m: [f.face.start.x, f.face.start.y],
+            end_m: [f.face.end.x, f.face.end.y],
+            base_m: f.face.base_m,
+            top_m: f.face.top_m,
+            cols: f.cols,
+            rows: f.rows,
+            sun_hours: f.sun_hours.clone(),
+            beam_kwh_m2: f.beam_kwh_m2.clone(),
+            diffuse_kwh_m2: f.diffuse_kwh_m2.clone(),
+            windows: f
                 .windows
                 .iter()
-                .map(|w| {
-                    serde_json::json!({"id": w.id, "alongM": w.along_m, "zM": w.z_m, "widthM": w.width_m,
-                                       "heightM": w.height_m})
+                .map(|w| FaceWindow {
+                    id: w.id.clone(),
+                    along_m: w.along_m,
+                    z_m: w.z_m,
+                    width_m: w.width_m,
+                    height_m: w.height_m,
                 })
-                .collect();
-            serde_json::json!({
-                "number": f.face.number, "facingDeg": f.face.facing_deg, "compass": f.face.compass(),
-                "startM": [f.face.start.x, f.face.start.y], "endM": [f.face.end.x, f.face.end.y],
-                "baseM": f.face.base_m, "topM": f.face.top_m, "cols": f.cols, "rows": f.rows,
-                "sunHours": f.sun_hours, "beamKwhM2": f.beam_kwh_m2, "diffuseKwhM2": f.diffuse_kwh_m2,
-                "windows": windows,
-            })
+                .collect(),
         })
         .collect();
-    write(&serde_json::json!({"faces": faces, "caution": crate::rules::CAUTION}))
+    write(&FacadeMap { faces, caution: crate::rules::CAUTION })
 }
 
 /// Computes the facade map and draws its elevations onto `canvas`, first sized to the figure (`{width,
@@ -133,7 +142,7 @@ pub fn draw_facade(
         canvas.set_height(h);
         super::Canvas::new(canvas)
     })?;
-    write(&serde_json::json!({"width": canvas.width(), "height": canvas.height()}))
+    write(&FigureSize { width: canvas.width(), height: canvas.height() })
 }
 
 /// The facade map's elevations as an SVG document.

@@ -3,11 +3,14 @@
 //! or GeoJSON), so the page keeps the user's site and nothing is lost on an error.
 
 use geo::{MultiPolygon, Polygon};
-use js_sys::Float64Array;
-use serde::{Deserialize, Serialize};
+use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 
 use super::defaults;
+use super::outputs::{
+    AreaSummary, CompareMap, Envelope, InsolationMap, Interval, MapDrawn, MapFigures, OpenInsolation, SiteSummary,
+    SiteTextKind, SunHoursMap, Timeline, VolumeSummary, WindowSummary,
+};
 use super::{err, read, read_split, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
 use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
@@ -53,35 +56,6 @@ pub(crate) fn massing_of(text: Option<&str>) -> Result<Massing, JsError> {
         None | Some("withProposed") => Ok(Massing::WithProposed),
         Some("existing") => Ok(Massing::Existing),
         Some(other) => Err(JsError::new(&format!("massing: {other:?} is not \"existing\" or \"withProposed\""))),
-    }
-}
-
-/// `value` with every object key turned from snake_case to camelCase (`before_share` → `beforeShare`),
-/// the JavaScript side's naming, for reports whose core types are written in snake_case for the CLI.
-pub(crate) fn camel_keys(value: serde_json::Value) -> serde_json::Value {
-    use serde_json::Value;
-    match value {
-        Value::Object(map) => Value::Object(
-            map.into_iter()
-                .map(|(k, v)| {
-                    let mut out = String::with_capacity(k.len());
-                    let mut up = false;
-                    for ch in k.chars() {
-                        if ch == '_' {
-                            up = true;
-                        } else if up {
-                            out.extend(ch.to_uppercase());
-                            up = false;
-                        } else {
-                            out.push(ch);
-                        }
-                    }
-                    (out, camel_keys(v))
-                })
-                .collect(),
-        ),
-        Value::Array(items) => Value::Array(items.into_iter().map(camel_keys).collect()),
-        other => other,
     }
 }
 
@@ -138,52 +112,6 @@ impl MapIn {
     }
 }
 
-/// A grid's geometry for the page.
-#[derive(Serialize)]
-#[serde(rename_all = "camelCase")]
-struct GridOut {
-    cols: usize,
-    rows: usize,
-    origin_x_m: f64,
-    origin_y_m: f64,
-    col0: usize,
-    row0: usize,
-    cell_m: f64,
-}
-
-fn grid_out(g: &Grid) -> GridOut {
-    GridOut {
-        cols: g.cols,
-        rows: g.rows,
-        origin_x_m: g.origin.x,
-        origin_y_m: g.origin.y,
-        col0: g.col0,
-        row0: g.row0,
-        cell_m: g.cell_m,
-    }
-}
-
-/// Values row-major from the bottom row, NaN outside the areas.
-fn array(values: &[Option<f64>]) -> Float64Array {
-    let v: Vec<f64> = values.iter().map(|x| x.unwrap_or(f64::NAN)).collect();
-    Float64Array::from(v.as_slice())
-}
-
-/// The core's figures of a map's values, `{cells, min, mean, max}` (each cell with a value counts
-/// whole), for captions and status lines; `null` when no cell has a value.
-fn stats(grid: &Grid, values: &[Option<f64>]) -> serde_json::Value {
-    match crate::exposure::map_stats(grid, values, None, 0.0) {
-        Some(m) => serde_json::json!({"cells": m.cells, "min": m.min, "mean": m.mean, "max": m.max}),
-        None => serde_json::Value::Null,
-    }
-}
-
-fn set(obj: &JsValue, key: &str, value: &JsValue) -> Result<(), JsError> {
-    js_sys::Reflect::set(obj, &JsValue::from_str(key), value)
-        .map(|_| ())
-        .map_err(|_| JsError::new("could not build the result"))
-}
-
 pub(crate) fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -> bool + '_ {
     move |f| match callback {
         Some(cb) => cb.call1(&JsValue::NULL, &JsValue::from_f64(f)).map_or(true, |r| r.as_bool() != Some(false)),
@@ -202,21 +130,14 @@ pub fn sun_hours_map(
     let (model, grid, period, massing) = i.parts()?;
     let req = i.request(&model, &grid, period, massing);
     let map = sun_hours(&req, progress(&on_progress)).map_err(err)?;
-    #[derive(Serialize)]
-    #[serde(rename_all = "camelCase")]
-    struct Out {
-        grid: GridOut,
-        open_hours: f64,
-        steps: usize,
-        /// The period in words (the core's [`Period::describe`]).
-        period: String,
-        /// The core's figures of the hours.
-        stats: serde_json::Value,
-    }
-    let (open_hours, steps, stats) = (map.open_hours, map.steps, stats(&grid, &map.hours));
-    let out = write(&Out { grid: grid_out(&grid), open_hours, steps, period: period.describe(), stats })?;
-    set(&out, "hours", &array(&map.hours))?;
-    Ok(out)
+    write(&SunHoursMap {
+        grid: (&grid).into(),
+        hours: (&map.hours).into(),
+        open_hours: map.open_hours,
+        steps: map.steps,
+        period: period.describe(),
+        stats: MapFigures::of(&grid, &map.hours),
+    })
 }
 
 /// Before and after the proposal: `{grid, before, after, lostH, ratio}` as Float64Arrays; without
@@ -230,13 +151,16 @@ pub fn compare_map(
     let (model, grid, period, _) = i.parts_over(true)?;
     let req = i.request(&model, &grid, period, Massing::WithProposed);
     let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "openHours": ba.before.open_hours,
-                                         "period": period.describe(), "stats": stats(&grid, &ba.lost_h)}))?;
-    set(&out, "before", &array(&ba.before.hours))?;
-    set(&out, "after", &array(&ba.after.hours))?;
-    set(&out, "lostH", &array(&ba.lost_h))?;
-    set(&out, "ratio", &array(&ba.ratio))?;
-    Ok(out)
+    write(&CompareMap {
+        grid: (&grid).into(),
+        open_hours: ba.before.open_hours,
+        period: period.describe(),
+        stats: MapFigures::of(&grid, &ba.lost_h),
+        before: (&ba.before.hours).into(),
+        after: (&ba.after.hours).into(),
+        lost_h: (&ba.lost_h).into(),
+        ratio: (&ba.ratio).into(),
+    })
 }
 
 #[derive(Deserialize)]
@@ -274,16 +198,22 @@ pub fn insolation_map(
     };
     let m = crate::exposure::insolation(&req, progress(&on_progress)).map_err(err)?;
     let o = m.open;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "period": period.describe(),
-                                         "stats": stats(&grid, &m.total_kwh_m2), "open": {
-        "totalKwhM2": o.total_kwh_m2, "beamKwhM2": o.beam_kwh_m2, "diffuseKwhM2": o.diffuse_kwh_m2,
-        "sunHours": o.sun_hours}}))?;
-    set(&out, "totalKwhM2", &array(&m.total_kwh_m2))?;
-    set(&out, "beamKwhM2", &array(&m.beam_kwh_m2))?;
-    set(&out, "diffuseKwhM2", &array(&m.diffuse_kwh_m2))?;
-    set(&out, "skyView", &array(&m.sky_view))?;
-    set(&out, "sunHours", &array(&m.sun_hours))?;
-    Ok(out)
+    write(&InsolationMap {
+        grid: (&grid).into(),
+        period: period.describe(),
+        stats: MapFigures::of(&grid, &m.total_kwh_m2),
+        total_kwh_m2: (&m.total_kwh_m2).into(),
+        beam_kwh_m2: (&m.beam_kwh_m2).into(),
+        diffuse_kwh_m2: (&m.diffuse_kwh_m2).into(),
+        sky_view: (&m.sky_view).into(),
+        sun_hours: (&m.sun_hours).into(),
+        open: OpenInsolation {
+            total_kwh_m2: o.total_kwh_m2,
+            beam_kwh_m2: o.beam_kwh_m2,
+            diffuse_kwh_m2: o.diffuse_kwh_m2,
+            sun_hours: o.sun_hours,
+        },
+    })
 }
 
 #[derive(Deserialize)]
@@ -344,10 +274,13 @@ pub fn solar_envelope_js(
         delta_t: DeltaT::EspenakMeeus,
     };
     let env = solar_envelope(&req, progress(&on_progress)).map_err(err)?;
-    let out = write(&serde_json::json!({"grid": grid_out(&grid), "steps": env.steps, "period": req.period.describe(),
-                                         "stats": stats(&grid, &env.height_m)}))?;
-    set(&out, "heightM", &array(&env.height_m))?;
-    Ok(out)
+    write(&Envelope {
+        grid: (&grid).into(),
+        height_m: (&env.height_m).into(),
+        steps: env.steps,
+        period: req.period.describe(),
+        stats: MapFigures::of(&grid, &env.height_m),
+    })
 }
 
 #[derive(Deserialize)]
@@ -379,15 +312,17 @@ pub fn point_timeline(
     )
     .map_err(err)?;
     let zone = model.zone;
-    let intervals: Vec<_> = t
+    let intervals = t
         .intervals
         .iter()
-        .map(|iv| {
-            serde_json::json!({"from": super::stamp(iv.from, &zone), "to": super::stamp(iv.to, &zone),
-                               "sunlit": iv.sunlit, "by": iv.by})
+        .map(|iv| Interval {
+            from: super::stamp(iv.from, &zone),
+            to: super::stamp(iv.to, &zone),
+            sunlit: iv.sunlit,
+            by: iv.by.clone(),
         })
         .collect();
-    write(&serde_json::json!({"intervals": intervals, "sunHours": t.sun_hours, "dayHours": t.day_hours}))
+    write(&Timeline { intervals, sun_hours: t.sun_hours, day_hours: t.day_hours })
 }
 
 /// What a map figure shows.
@@ -430,7 +365,7 @@ pub fn draw_map_figure(
     let map = crate::render::HeatMap::of_site(&model, &grid, &values, (title, &describe), unit, range);
     let palette = i.palette.palette()?;
     crate::render::draw_heat_map(&mut crate::render::Restyle { inner: &mut surface, palette }, &map);
-    write(&serde_json::json!({"grid": grid_out(&grid), "openHours": open}))
+    write(&MapDrawn { grid: (&grid).into(), open_hours: open })
 }
 
 /// What to assume for plain GeoJSON building footprints (no `sunlot` members); see
@@ -451,19 +386,21 @@ struct FootprintsIn {
 pub fn site_text_kind(#[wasm_bindgen(unchecked_param_type = "string")] text: JsValue) -> Result<JsValue, JsError> {
     let text = super::text_arg(&text, "site")?;
     let parsed = text.parse::<geojson::GeoJson>();
+    let kind = |kind| SiteTextKind { kind, suggested_zone: None, longitude_deg: None };
     let out = match parsed {
         Ok(geojson::GeoJson::FeatureCollection(fc)) if crate::site::is_plain(&fc) => {
             match crate::site::suggested_zone(&fc) {
-                Some((longitude_deg, suggestion)) => serde_json::json!({
-                    "kind": "footprints", "suggestedZone": suggestion, "longitudeDeg": longitude_deg}),
-                None => serde_json::json!({"kind": "footprints"}),
+                Some((longitude_deg, suggestion)) => SiteTextKind {
+                    suggested_zone: Some(suggestion),
+                    longitude_deg: Some(longitude_deg),
+                    ..kind("footprints")
+                },
+                None => kind("footprints"),
             }
         }
-        Ok(geojson::GeoJson::FeatureCollection(_)) => serde_json::json!({"kind": "geojson"}),
-        _ if serde_json::from_str::<serde_json::Value>(&text).is_ok_and(|v| v.is_object()) => {
-            serde_json::json!({"kind": "site"})
-        }
-        _ => serde_json::json!({"kind": "unknown"}),
+        Ok(geojson::GeoJson::FeatureCollection(_)) => kind("geojson"),
+        _ if serde_json::from_str::<serde_json::Value>(&text).is_ok_and(|v| v.is_object()) => kind("site"),
+        _ => kind("unknown"),
     };
     write(&out)
 }
@@ -497,28 +434,39 @@ pub fn read_site(
     };
     let r = crate::site::SiteModel::read_with(&text, &options).map_err(|e| JsError::new(&format!("site: {e}")))?;
     let m = &r.model;
-    let status = |s: crate::site::Status| if s == crate::site::Status::Proposed { "proposed" } else { "existing" };
-    let areas: Vec<_> = m
+    let areas = m
         .areas
         .iter()
-        .map(|a| serde_json::json!({"id": a.id, "name": a.name, "kind": a.kind, "status": status(a.status)}))
+        .map(|a| AreaSummary { id: a.id.clone(), name: a.name.clone(), kind: a.kind, status: a.status })
         .collect();
-    let volumes: Vec<_> = m
+    let volumes = m
         .volumes
         .iter()
-        .map(|v| serde_json::json!({"id": v.id, "status": status(v.status), "baseM": v.base_m, "topM": v.top_m}))
+        .map(|v| VolumeSummary { id: v.id.clone(), status: v.status, base_m: v.base_m, top_m: v.top_m })
         .collect();
-    let windows: Vec<_> = m
+    let windows = m
         .windows
         .iter()
-        .map(|w| {
-            serde_json::json!({"id": w.id, "name": w.name, "status": status(w.status), "xM": w.at.x, "yM": w.at.y,
-                               "zM": w.z_m, "facingDeg": w.facing_deg})
+        .map(|w| WindowSummary {
+            id: w.id.clone(),
+            name: w.name.clone(),
+            status: w.status,
+            x_m: w.at.x,
+            y_m: w.at.y,
+            z_m: w.z_m,
+            facing_deg: w.facing_deg,
         })
         .collect();
-    write(&serde_json::json!({
-        "name": m.name, "fromGeojson": r.from_geojson, "zone": m.zone.to_string(),
-        "latitudeDeg": m.location.latitude_deg, "longitudeDeg": m.location.longitude_deg,
-        "areas": areas, "volumes": volumes, "windows": windows, "assumptions": r.assumptions, "siteJson": m.to_json(),
-    }))
+    write(&SiteSummary {
+        name: m.name.clone(),
+        from_geojson: r.from_geojson,
+        zone: m.zone.to_string(),
+        latitude_deg: m.location.latitude_deg,
+        longitude_deg: m.location.longitude_deg,
+        areas,
+        volumes,
+        windows,
+        assumptions: r.assumptions.clone(),
+        site_json: m.to_json(),
+    })
 }

@@ -13,6 +13,7 @@ mod defaults;
 mod facade;
 mod layer;
 mod maps;
+mod outputs;
 mod rules;
 mod studies;
 mod types;

@@ -1,11 +1,11 @@
 //! Rule checks for pages (wasm32 only): areas against an area rule, windows against a window rule,
 //! and the presets with their sources. Errors name the member.
 
-use serde::{Deserialize, Serialize};
+use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 
 use super::defaults;
-use super::maps::camel_keys;
+use super::outputs::RulePreset;
 use super::{err, read, site, write};
 use crate::daylight::DEFAULT_AZIMUTH_STEP_DEG;
 use crate::render::{draw_verdict_plan, VerdictPlan, FIGURE_PX};
@@ -71,7 +71,7 @@ fn area_check(input: JsValue, call: &str) -> Result<(crate::site::SiteModel, Che
 }
 
 fn report_js(report: &CheckReport) -> Result<JsValue, JsError> {
-    write(&camel_keys(serde_json::to_value(report).map_err(err)?))
+    write(report)
 }
 
 fn verdict_plan(model: &crate::site::SiteModel, report: &CheckReport) -> Result<VerdictPlan, JsError> {
@@ -129,28 +129,21 @@ pub fn check_windows_js(
         azimuth_step_deg: i.azimuth_step_deg.unwrap_or(DEFAULT_AZIMUTH_STEP_DEG),
         delta_t: DeltaT::EspenakMeeus,
     };
-    let report = serde_json::to_value(check_windows(&req, |_| true).map_err(err)?).map_err(err)?;
-    write(&camel_keys(report))
+    write(&check_windows(&req, |_| true).map_err(err)?)
 }
 
 /// The rule presets: `[{id, kind, summary, rule}]`, `kind` `"area"` or `"window"`, `rule` the full
-/// rule (its source, and `fromMemory` for a window rule whose numbers must be checked).
+/// rule in the rule-file format that `checkRule` and `checkWindows` take (its source, and `from_memory`
+/// for a window rule whose numbers must be checked).
 #[wasm_bindgen(js_name = rulePresets, unchecked_return_type = "RulePreset[]")]
 pub fn rule_presets() -> Result<JsValue, JsError> {
-    #[derive(Serialize)]
-    struct Out {
-        id: &'static str,
-        kind: &'static str,
-        summary: &'static str,
-        rule: serde_json::Value,
-    }
-    let out: Vec<Out> = PRESETS
+    let out: Vec<RulePreset> = PRESETS
         .iter()
         .map(|p| {
             let rule = (p.rule)();
             let kind = if matches!(rule, AnyRule::Area(_)) { "area" } else { "window" };
-            Out { id: p.id, kind, summary: p.summary, rule: serde_json::to_value(&rule).unwrap_or_default() }
+            RulePreset { id: p.id, kind, summary: p.summary, rule }
         })
         .collect();
-    write(&camel_keys(serde_json::to_value(out).map_err(err)?))
+    write(&out)
 }

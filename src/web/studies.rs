@@ -6,6 +6,7 @@ use wasm_bindgen::prelude::*;
 
 use super::defaults;
 use super::maps::{date, massing_of};
+use super::outputs::{MonthFigures, ShadowTableRow, YearProfile};
 use super::{err, read, site, write};
 use crate::shadow::ViewPoint;
 use crate::time::DeltaT;
@@ -34,14 +35,15 @@ pub fn shadow_table_js(
     let model = site(&i.site)?;
     let rows =
         crate::shadow::shadow_table(&model, date(&i.date, "date")?, i.step_min, DeltaT::EspenakMeeus).map_err(err)?;
-    let out: Vec<_> = rows
+    let out: Vec<ShadowTableRow> = rows
         .iter()
-        .map(|r| {
-            let tips: serde_json::Map<String, serde_json::Value> =
-                r.tips_m.iter().map(|(id, m)| (id.clone(), serde_json::json!(m))).collect();
-            serde_json::json!({"time": super::stamp(r.time, &model.zone), "altitudeDeg": r.altitude_deg,
-                "azimuthDeg": r.azimuth_deg, "shadowLengthMPerM": r.shadow_length_m_per_m, "shadowAzimuthDeg": r.shadow_azimuth_deg,
-                "tipsM": tips})
+        .map(|r| ShadowTableRow {
+            time: super::stamp(r.time, &model.zone),
+            altitude_deg: r.altitude_deg,
+            azimuth_deg: r.azimuth_deg,
+            shadow_length_m_per_m: r.shadow_length_m_per_m,
+            shadow_azimuth_deg: r.shadow_azimuth_deg,
+            tips_m: r.tips_m.clone(),
         })
         .collect();
     write(&out)
@@ -95,15 +97,18 @@ pub fn year_profile_js(
         super::maps::progress(&on_progress),
     )
     .map_err(err)?;
-    let months: Vec<_> = p
+    let months = p
         .months
         .iter()
-        .map(|m| {
-            serde_json::json!({"month": m.month, "sunHours": m.sun_hours, "openHours": m.open_hours,
-                "kwhM2": m.kwh_m2, "openKwhM2": m.open_kwh_m2})
+        .map(|m| MonthFigures {
+            month: m.month,
+            sun_hours: m.sun_hours,
+            open_hours: m.open_hours,
+            kwh_m2: m.kwh_m2,
+            open_kwh_m2: m.open_kwh_m2,
         })
         .collect();
-    write(&serde_json::json!({"year": p.year, "skyView": p.sky_view, "months": months}))
+    write(&YearProfile { year: p.year, sky_view: p.sky_view, months })
 }
 
 /// A point's sky-view factor (0–1, the cosine-weighted share of the sky it sees past the massing,

@@ -24,9 +24,9 @@ export interface SeasonInstants { year: number; marchEquinox: string; juneSolsti
 export interface ClearSkyInput { zenithDeg: number; dayOfYear: number; atmosphere?: Record<string, number>; }
 export interface ClearSky { airMass: number; extraterrestrialWM2: number; dniWM2: number; dhiWM2: number; ghiWM2: number; }
 export interface SiteSummary { name: string; fromGeojson: boolean; zone: string; latitudeDeg: number; longitudeDeg: number;
-  areas: { id: string; name: string; kind: string; status: "existing" | "proposed" }[];
-  volumes: { id: string; status: "existing" | "proposed"; baseM: number; topM: number }[];
-  windows: { id: string; name: string; status: "existing" | "proposed"; xM: number; yM: number; zM: number; facingDeg: number }[];
+  areas: { id: string; name: string; kind: AreaKind; status: Status }[];
+  volumes: { id: string; status: Status; baseM: number; topM: number }[];
+  windows: { id: string; name: string; status: Status; xM: number; yM: number; zM: number; facingDeg: number }[];
   assumptions: string[]; siteJson: string; }
 export interface FootprintOptions { zone: string; storeyHeightM?: number; defaultHeightM?: number; name?: string; }
 export interface SiteTextKind { kind: "site" | "geojson" | "footprints" | "unknown"; suggestedZone?: string; longitudeDeg?: number; }
@@ -48,23 +48,34 @@ export interface InsolationMap { grid: GridGeometry; period: string; stats: MapF
   open: { totalKwhM2: number; beamKwhM2: number; diffuseKwhM2: number; sunHours: number }; }
 export interface CheckInput { site: SiteText; preset?: string; rule?: object; year: number; cellM?: number; stepMin?: number;
   azimuthStepDeg?: number; }
-export interface CheckReport { rule: { id: string; title: string; source: string; month: number; day: number;
-    minHours: number; minShare: number; minRatio: number; combine: string; areaKinds: string[]; areaIds: string[] } & Record<string, unknown>;
-  date: string; cellM: number; stepMin: number; allPass: boolean; caution: string;
-  areas: { id: string; name: string; areaM2: number; beforeShare: number; afterShare: number; beforeM2: number;
-    afterM2: number; ratio: number; shareTest: boolean; shareMargin: number; ratioTest: boolean; ratioMargin: number;
-    passes: boolean; shareError: number; nearThreshold: boolean; meanBeforeH: number; meanAfterH: number }[]; }
-export interface WindowReport { rule: { id: string; title: string; source: string; fromMemory: boolean; windowIds: string[];
-    statuses: string[]; test: "window_sky" | "window_sun_day" | "window_sun_year" } & Record<string, unknown>;
-  year: number; stepMin: number; sharePassing: number | null; passes: boolean; cautions: string[];
-  windows: { id: string; name: string; status: string; facingDeg: number;
+export type Status = "existing" | "proposed";
+export type AreaKind = "lot" | "garden" | "terrace" | "amenity" | "other";
+/** An area rule in the rule-file format (snake_case keys, as `checkRule` takes it in `rule`). */
+export interface AreaRuleFile { id: string; title: string; source: string; month: number; day: number;
+  from: string | null; to: string | null; min_hours: number; min_share: number; min_ratio: number | null;
+  combine: "either" | "both"; area_kinds: AreaKind[]; area_ids: string[]; }
+/** A window rule in the rule-file format (snake_case keys, as `checkWindows` takes it in `rule`). */
+export type WindowRuleFile = { id: string; title: string; source: string; from_memory: boolean; window_ids: string[];
+  statuses: Status[] } & (
+  | { test: "window_sky"; min_vsc_pct: number; min_ratio: number | null }
+  | { test: "window_sun_day"; month: number; day: number; from: string | null; to: string | null; min_hours: number;
+      min_altitude_deg: number; min_share_of_windows: number; date_hemisphere: "north" | "south" | null }
+  | { test: "window_sun_year"; annual_min_share: number; winter_min_share: number; min_ratio: number;
+      max_annual_loss: number; facing_within_deg: number });
+export interface AreaCheck { id: string; name: string; areaM2: number; beforeShare: number; afterShare: number; beforeM2: number;
+  afterM2: number; ratio: number | null; shareTest: boolean; shareMargin: number; ratioTest: boolean | null;
+  ratioMargin: number | null; passes: boolean; shareError: number; nearThreshold: boolean; meanBeforeH: number; meanAfterH: number; }
+export interface CheckReport { rule: AreaRuleFile; date: string; cellM: number; stepMin: number; allPass: boolean; caution: string;
+  areas: AreaCheck[]; }
+export interface WindowReport { rule: WindowRuleFile; year: number; stepMin: number; sharePassing: number | null; passes: boolean;
+  cautions: string[]; windows: { id: string; name: string; status: Status; facingDeg: number;
     figures: { name: string; before: number | null; after: number }[]; passes: boolean | null; reason: string }[]; }
 export interface FacadeInput { site: SiteText; volume: string; date: string; to?: string; window?: string; stepMin?: number;
   cellM?: number; massing?: Massing; show?: "hours" | "beam" | "insolation" | "lost"; }
 export interface FacadeMap { caution: string; faces: { number: number; facingDeg: number; compass: string; startM: [number, number];
     endM: [number, number]; baseM: number; topM: number; cols: number; rows: number; sunHours: number[]; beamKwhM2: number[]; diffuseKwhM2: number[];
     windows: { id: string; alongM: number; zM: number; widthM: number; heightM: number }[] }[]; }
-export interface RulePreset { id: string; kind: "area" | "window"; summary: string; rule: Record<string, unknown>; }
+export type RulePreset = { id: string; summary: string } & ({ kind: "area"; rule: AreaRuleFile } | { kind: "window"; rule: WindowRuleFile });
 export interface EnvelopeInput { site: SiteText; lot: string; protect?: string[]; date: string; to?: string; window?: string;
   stepMin?: number; cellM?: number; maxHeightM?: number; heightStepM?: number; }
 export interface Envelope { grid: GridGeometry; heightM: Float64Array; steps: number; period: string; stats: MapFigures | null; }
