@@ -23,8 +23,8 @@ for (let run = 0; run < 7; run++) {
   const page = await context.newPage();
   await page.goto(url);
   await page.waitForFunction(() => document.body.dataset.ready === "yes", null, { timeout: 60000 });
-  const t = await page.evaluate(() => ({ ready: window.sunlotReadyMs, draw: window.sunlotFirstDrawMs,
-    scripts: window.sunlotTimes.scripts }));
+  const t = await page.evaluate(() => ({ ready: window.sunlot.measured.readyMs, draw: window.sunlot.measured.firstDrawMs,
+    scripts: window.sunlot.measured.scripts }));
   loads.push(t.ready);
   scripts.push(t.scripts);
   drawing.push(t.draw);
@@ -32,12 +32,12 @@ for (let run = 0; run < 7; run++) {
     await page.click("#play");
     await page.waitForTimeout(2000);
     await page.click("#play");
-    frames.push(median(await page.evaluate(() => window.sunlotFrameTimes)));
+    frames.push(median(await page.evaluate(() => window.sunlot.measured.frameTimes)));
     await page.waitForFunction(() => /cells, mean/.test(document.querySelector("#map-status").textContent));
     await page.selectOption("#layer", "year-hours");
     await page.waitForFunction(() => /over the year: \d+ cells/.test(document.querySelector("#map-status").textContent),
       null, { timeout: 120000 });
-    year.push(await page.evaluate(() => window.sunlotLastMapMs));
+    year.push(await page.evaluate(() => window.sunlot.measured.lastMapMs));
   }
   await context.close();
 }

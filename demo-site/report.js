@@ -24,7 +24,7 @@
       b.addEventListener("click", async () => {
         const name = `hollin-vale-${stem}.${kind}`;
         if (target instanceof HTMLTableElement) {
-          window.sunlotDownload(name, new Blob([tableCsv(target)], { type: "text/csv" }));
+          window.sunlot.download(name, new Blob([tableCsv(target)], { type: "text/csv" }));
         } else await target.save(kind, name);
       });
       span.append(" ", b);
@@ -218,8 +218,8 @@
       r = m.drawRuleCheck(canvas, input);
       const target = {
         save: async (kind, name) => {
-          if (kind === "png") window.sunlotDownload(name, await new Promise(res => canvas.toBlob(res, "image/png")));
-          else window.sunlotDownload(name, new Blob([m.ruleCheckSvg(input)], { type: "image/svg+xml" }));
+          if (kind === "png") window.sunlot.download(name, await new Promise(res => canvas.toBlob(res, "image/png")));
+          else window.sunlot.download(name, new Blob([m.ruleCheckSvg(input)], { type: "image/svg+xml" }));
         },
       };
       const caption = `The gardens by their verdict (${r.areas.filter(a => a.passes).length} of ${r.areas.length} pass), each labelled with its margin in share points`;
@@ -287,9 +287,9 @@
       save: async (kind, name) => {
         if (kind === "png") {
           const blob = await new Promise(res => canvas.toBlob(res, "image/png"));
-          window.sunlotDownload(name, blob);
+          window.sunlot.download(name, blob);
         } else if (kind === "svg") {
-          window.sunlotDownload(name, new Blob([m.facadeSvg(input)], { type: "image/svg+xml" }));
+          window.sunlot.download(name, new Blob([m.facadeSvg(input)], { type: "image/svg+xml" }));
         } else {
           const lost = show === "lost";
           const rows = [`face,facing_deg,col,row,sun_hours,beam_kwh_m2${lost ? ",sun_hours_existing,lost_h" : ""}`];
@@ -302,7 +302,7 @@
               rows.push(cells.join(","));
             }
           });
-          window.sunlotDownload(name, new Blob([rows.join("\n") + "\n"], { type: "text/csv" }));
+          window.sunlot.download(name, new Blob([rows.join("\n") + "\n"], { type: "text/csv" }));
         }
       },
     };
@@ -329,7 +329,7 @@
     parent.append(table("windows", "Direct sun on the neighbours' ground-floor windows (hours in the day with the sun in front of the glazing and unblocked) and the sky-view factor at each (cosine-weighted share of the sky seen)", head, rows));
   }
 
-  window.sunlot.then(async m => {
+  window.sunlot.ready.then(async m => {
     const site = m.demoSiteText();
     const info = m.readSite(site);
     for (const n of document.querySelectorAll("[data-site-name]")) n.textContent = info.name;

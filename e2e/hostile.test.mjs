@@ -29,12 +29,12 @@ const page = await context.newPage();
 const console_errors = [];
 page.on("pageerror", e => console_errors.push(String(e)));
 await page.goto(pathToFileURL(html).href);
-await page.waitForFunction(() => window.sunlot && window.sunlot.then);
+await page.waitForFunction(() => window.sunlot && window.sunlot.ready);
 
 const HANG_MS = 4000;
 
 const report = await page.evaluate(async HANG_MS => {
-  let m = await window.sunlot;
+  let m = await window.sunlot.ready;
   const site = m.demoSiteText();
   // Plain building footprints (no sunlot members): one with a height, one with storeys, one with neither.
   const box = (lon, lat) => [[[lon, lat], [lon + 2e-4, lat], [lon + 2e-4, lat + 1e-4], [lon, lat + 1e-4], [lon, lat]]];
@@ -149,7 +149,7 @@ const report = await page.evaluate(async HANG_MS => {
     } catch (e) {
       if (e instanceof WebAssembly.RuntimeError) {
         results.traps.push(`${c.name} ${c.key}: ${e.message}`);
-        m = await window.sunlotBoot(); // the trapped instance is not to be trusted: start another
+        m = await window.sunlot.boot(); // the trapped instance is not to be trusted: start another
       } else if (e instanceof Error) {
         results.errors++;
         const msg = e.message;

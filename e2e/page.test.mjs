@@ -41,7 +41,7 @@ await page.goto(page_url);
 await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 30000 });
 const ready_ms = Date.now() - t0;
 check(await page.evaluate(() => document.body.dataset.ready) === "yes", "the module starts from file://");
-const draw_ms = await page.evaluate(() => window.sunlotFirstDrawMs);
+const draw_ms = await page.evaluate(() => window.sunlot.measured.firstDrawMs);
 console.log(`     both widgets drawn ${ready_ms} ms after navigation (drawing ${draw_ms.toFixed(0)} ms)`);
 
 // Ink and a fingerprint of a canvas's pixels.
@@ -168,7 +168,7 @@ const time_after_play = await page.inputValue("#time");
 const plan_after_play = await pixels("#plan canvas");
 check(time_after_play !== time_before_play && plan_after_play.hash !== plan_before_play.hash,
   `playing the day moves the time (${time_before_play} → ${time_after_play} min) and the plan`);
-const frames = await page.evaluate(() => window.sunlotFrameTimes.slice().sort((a, b) => a - b));
+const frames = await page.evaluate(() => window.sunlot.measured.frameTimes.slice().sort((a, b) => a - b));
 const median = frames[Math.floor(frames.length / 2)];
 console.log(`     animation: ${frames.length} frames in 1.5 s, median draw ${median.toFixed(1)} ms`);
 check(frames.length >= 30 && median < 33, "the day's animation runs at 30 frames a second or more");
@@ -184,7 +184,7 @@ const during = await pixels("#plan canvas");
 check(during.hash !== plan3.hash, "the plan redraws while the year's map runs in the worker");
 await page.waitForFunction(() => /over the year: \d+ cells/.test(document.querySelector("#map-status").textContent), null, { timeout: 120000 });
 console.log(`     the year's map (1 m cells, 15-min steps) took ${Date.now() - t_year} ms in the browser ` +
-  `(${(await page.evaluate(() => window.sunlotLastMapMs)).toFixed(0)} ms in the worker)`);
+  `(${(await page.evaluate(() => window.sunlot.measured.lastMapMs)).toFixed(0)} ms in the worker)`);
 check((await changed("#map canvas", map_before_year)).ink > 20000, `the year's map is drawn: ${await page.textContent("#map-status")}`);
 await page.screenshot({ path: path.join(shots, "index-year.png"), fullPage: true });
 // Start the envelope and cancel it in one task: the worker's answer cannot be taken in between.

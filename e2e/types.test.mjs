@@ -25,10 +25,10 @@ const browser = await chromium.launch({
 });
 const page = await browser.newPage();
 await page.goto(pathToFileURL(html).href);
-await page.waitForFunction(() => window.sunlot && window.sunlot.then);
+await page.waitForFunction(() => window.sunlot && window.sunlot.ready);
 
 const made = await page.evaluate(async () => {
-  const m = await window.sunlot;
+  const m = await window.sunlot.ready;
   const site = m.demoSiteText();
   const canvas = () => { const c = document.createElement("canvas"); c.width = 400; c.height = 300; return c; };
   const box = (lon, lat) => [[[lon, lat], [lon + 2e-4, lat], [lon + 2e-4, lat + 1e-4], [lon, lat + 1e-4], [lon, lat]]];
@@ -65,6 +65,8 @@ const made = await page.evaluate(async () => {
     ...m.rulePresets().filter(p => p.kind === "window").map(p =>
       ["checkWindows", { site, preset: p.id, year: 2026, stepMin: 60 }, i => m.checkWindows(i)]),
     ["rulePresets", null, () => m.rulePresets()],
+    ["mapKinds", null, () => m.mapKinds()],
+    ...m.mapKinds().map(k => ["mapOfKind", { kind: k.id, site, date: "2026-03-21" }, i => m.mapOfKind(i)]),
     ["facadeMap", { site, volume: "terrace-east", date: "2026-03-21", stepMin: 30, cellM: 2, massing: "existing", show: "lost" },
      i => m.facadeMap(i)],
     ["drawFacade", { site, volume: "house-9", date: "2026-03-21", stepMin: 60, cellM: 3 }, i => m.drawFacade(canvas(), i)],

@@ -64,6 +64,15 @@ pub struct Envelope {
     pub steps: usize,
 }
 
+/// The lot an envelope is for when none is named: the proposal's lot (the first lot marked proposed),
+/// else the first lot, else the first area; `None` for a site without areas.
+pub fn subject_lot(model: &SiteModel) -> Option<&crate::site::Area> {
+    use crate::site::{AreaKind, Status};
+    let mut lots = model.areas.iter().filter(|a| a.kind == AreaKind::Lot);
+    let first = lots.clone().next();
+    lots.find(|a| a.status == Status::Proposed).or(first).or(model.areas.first())
+}
+
 /// The areas an envelope protects by default: every garden, terrace and amenity area other than the
 /// lot `lot_id`.
 pub fn default_protected<'a>(model: &'a SiteModel, lot_id: &str) -> Vec<&'a crate::site::Area> {
@@ -262,6 +271,22 @@ pub fn height_bands(grid: &Grid, env: &Envelope, band_m: f64) -> Vec<HeightBand>
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_subject_lot_is_the_proposals_lot_else_the_first_lot_else_the_first_area() {
+        use crate::site::{AreaKind, Status};
+        let mut model = crate::demo::demo();
+        assert_eq!(subject_lot(&model).map(|a| a.id.as_str()), Some("lot-14"));
+        for a in model.areas.iter_mut() {
+            a.status = Status::Existing;
+        }
+        let first_lot = model.areas.iter().find(|a| a.kind == AreaKind::Lot).unwrap().id.clone();
+        assert_eq!(subject_lot(&model).unwrap().id, first_lot);
+        model.areas.retain(|a| a.kind != AreaKind::Lot);
+        assert_eq!(subject_lot(&model).unwrap().id, model.areas[0].id);
+        model.areas.clear();
+        assert!(subject_lot(&model).is_none());
+    }
 
     #[test]
     fn slide_distance_of_a_unit_square_toward_a_wall() {

@@ -558,3 +558,68 @@ fn compare_map_leaves_the_lot_out() {
     let inside = lost.to_vec().iter().filter(|v| !v.is_nan()).count();
     assert_eq!(inside, g.inside_count());
 }
+
+/// Each map kind computes what the pages asked for by hand before the core owned the table: the same
+/// call with the same cell, step, massing, window and lot gives the same values, bit for bit.
+#[wasm_bindgen_test]
+fn map_kinds_give_the_maps_of_their_explicit_requests() {
+    let site = demo_site_js();
+    let date = "2026-03-21";
+    let same = |kind: &str, explicit: JsValue, key: &str| {
+        let by_kind =
+            sunlot::web::map_of_kind(js(&format!(r#"{{"kind": "{kind}", "site": {site}, "date": "{date}"}}"#)), None)
+                .unwrap_or_else(|e| panic!("{kind}: {:?}", JsValue::from(e)));
+        let (a, b): (js_sys::Float64Array, js_sys::Float64Array) =
+            (get(&by_kind, "values").into(), get(&explicit, key).into());
+        assert_eq!(a.length(), b.length(), "{kind}");
+        assert!(a.length() > 0, "{kind}");
+        for k in 0..a.length() {
+            let (x, y) = (a.get_index(k), b.get_index(k));
+            assert!(x == y || (x.is_nan() && y.is_nan()), "{kind} cell {k}: {x} against {y}");
+        }
+        assert_eq!(JSON::stringify(&get(&by_kind, "grid")).unwrap(), JSON::stringify(&get(&explicit, "grid")).unwrap());
+        by_kind
+    };
+    let map = |json: String| js(&json);
+    let existing = same(
+        "sun-hours-existing",
+        sunlot::web::sun_hours_map(
+            map(format!(r#"{{"site": {site}, "date": "{date}", "cellM": 0.5, "stepMin": 5, "massing": "existing"}}"#)),
+            None,
+        )
+        .unwrap(),
+        "hours",
+    );
+    assert!(get(&existing, "caption").as_string().unwrap().ends_with(", 0.5 m cells"));
+    let lost = sunlot::web::compare_map(
+        map(format!(r#"{{"site": {site}, "date": "{date}", "cellM": 0.5, "stepMin": 5}}"#)),
+        None,
+    )
+    .unwrap();
+    let by_kind = same("lost", lost, "lostH");
+    assert!(num(&by_kind, "rangeTop") >= 0.5);
+    let insolation = sunlot::web::insolation_map(
+        map(format!(r#"{{"site": {site}, "date": "{date}", "cellM": 1, "stepMin": 10}}"#)),
+        None,
+    )
+    .unwrap();
+    let by_kind = same("insolation", insolation.clone(), "totalKwhM2");
+    assert_eq!(num(&by_kind, "rangeTop"), num(&get(&insolation, "open"), "totalKwhM2"));
+    let year = sunlot::web::sun_hours_map(
+        map(format!(r#"{{"site": {site}, "date": "2026-01-01", "to": "2026-12-31", "cellM": 1, "stepMin": 15}}"#)),
+        None,
+    )
+    .unwrap();
+    same("year-hours", year, "hours");
+    let envelope = sunlot::web::solar_envelope_js(
+        map(format!(
+            r#"{{"site": {site}, "lot": "lot-14", "date": "{date}", "window": "09:00-15:00", "stepMin": 15}}"#
+        )),
+        None,
+    )
+    .unwrap();
+    same("envelope", envelope, "heightM");
+    let unknown =
+        sunlot::web::map_of_kind(js(&format!(r#"{{"kind": "shade", "site": {site}, "date": "{date}"}}"#)), None);
+    assert!(error_message(unknown).starts_with("kind: \"shade\" is not one of sun-hours"));
+}

@@ -8,6 +8,7 @@ mod facade;
 mod geojson_out;
 mod grid;
 mod insolation;
+mod map_kind;
 mod period;
 mod raster;
 mod shade;
@@ -27,6 +28,7 @@ pub use facade::{
 pub use geojson_out::{map_geojson, MapColumn};
 pub use grid::{ExposureError, Grid, DEFAULT_MAX_CELLS};
 pub use insolation::{insolation, Insolation, InsolationRequest, OpenSky};
+pub use map_kind::{map_kind, MapCall, MapKind, MapSpan, RangeTop, MAP_KINDS};
 pub use period::{Period, Step, Window, WindowError, DEFAULT_CELL_M, DEFAULT_LONG_STEP_MIN, DEFAULT_STEP_MIN};
 pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;

@@ -13,7 +13,9 @@ use super::outputs::{
 };
 use super::{err, read, read_split, site, write};
 use crate::envelope::{solar_envelope, EnvelopeRequest};
-use crate::exposure::{before_after, day_timeline, sun_hours, Grid, Massing, Period, SunHoursRequest, Window};
+use crate::exposure::{
+    before_after, day_timeline, sun_hours, Grid, MapCall, MapKind, Massing, Period, SunHoursRequest, Window,
+};
 use crate::shadow::ViewPoint;
 use crate::site::SiteModel;
 use crate::time::DeltaT;
@@ -30,7 +32,7 @@ pub(crate) fn date(text: &str, field: &str) -> Result<chrono::NaiveDate, JsError
 /// What every map call takes.
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct MapIn {
+pub(super) struct MapIn {
     /// The site as text.
     site: String,
     /// Area ids (default: all).
@@ -60,6 +62,27 @@ pub(crate) fn massing_of(text: Option<&str>) -> Result<Massing, JsError> {
 }
 
 impl MapIn {
+    /// The input of a map of `kind` ([`crate::exposure::MAP_KINDS`]) over all of the site's areas
+    /// (for the lost hours, all but the lots), the page showing `date`.
+    pub(super) fn of_kind(kind: &MapKind, site: String, period: &Period) -> Self {
+        let massing = match kind.call {
+            MapCall::SunHours(Massing::Existing) => Some("existing".to_string()),
+            _ => None,
+        };
+        MapIn {
+            site,
+            areas: Vec::new(),
+            cell_m: kind.cell_m,
+            date: period.first.to_string(),
+            to: Some(period.last.to_string()),
+            window: kind.window.map(str::to_string),
+            step_min: kind.step_min,
+            plane_m: 0.0,
+            massing,
+            max_cells: None,
+        }
+    }
+
     fn parts(&self) -> Result<(SiteModel, Grid, Period, Massing), JsError> {
         self.parts_over(false)
     }
@@ -112,6 +135,51 @@ impl MapIn {
     }
 }
 
+/// Hours of direct sun an input asks for, on its grid, over its period.
+pub(super) fn sun_hours_of(
+    i: &MapIn,
+    progress: impl FnMut(f64) -> bool,
+) -> Result<(Grid, Period, crate::exposure::SunHours), JsError> {
+    let (model, grid, period, massing) = i.parts()?;
+    let map = sun_hours(&i.request(&model, &grid, period, massing), progress).map_err(err)?;
+    Ok((grid, period, map))
+}
+
+/// Before and after the proposal; without areas named, over every area but the lots.
+pub(super) fn compare_of(
+    i: &MapIn,
+    progress: impl FnMut(f64) -> bool,
+) -> Result<(Grid, Period, crate::exposure::BeforeAfter), JsError> {
+    let (model, grid, period, _) = i.parts_over(true)?;
+    let ba = before_after(&i.request(&model, &grid, period, Massing::WithProposed), progress).map_err(err)?;
+    Ok((grid, period, ba))
+}
+
+/// Clear-sky insolation an input asks for, on its grid, over its period.
+pub(super) fn insolation_of(
+    map: &MapIn,
+    i: &InsolationIn,
+    progress: impl FnMut(f64) -> bool,
+) -> Result<(Grid, Period, crate::exposure::Insolation), JsError> {
+    let (model, grid, period, massing) = map.parts()?;
+    let mut atmosphere = crate::sky::BirdAtmosphere::default();
+    if let Some(a) = i.aod500 {
+        atmosphere.aod_500 = a;
+    }
+    let req = crate::exposure::InsolationRequest {
+        model: &model,
+        grid: &grid,
+        period,
+        plane_m: map.plane_m,
+        delta_t: DeltaT::EspenakMeeus,
+        massing,
+        atmosphere,
+        sky_step_deg: i.sky_step_deg.unwrap_or(crate::exposure::DEFAULT_SKY_STEP_DEG),
+    };
+    let m = crate::exposure::insolation(&req, progress).map_err(err)?;
+    Ok((grid, period, m))
+}
+
 pub(crate) fn progress(callback: &Option<js_sys::Function>) -> impl FnMut(f64) -> bool + '_ {
     move |f| match callback {
         Some(cb) => cb.call1(&JsValue::NULL, &JsValue::from_f64(f)).map_or(true, |r| r.as_bool() != Some(false)),
@@ -127,9 +195,7 @@ pub fn sun_hours_map(
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "sunHoursMap")?;
-    let (model, grid, period, massing) = i.parts()?;
-    let req = i.request(&model, &grid, period, massing);
-    let map = sun_hours(&req, progress(&on_progress)).map_err(err)?;
+    let (grid, period, map) = sun_hours_of(&i, progress(&on_progress))?;
     write(&SunHoursMap {
         grid: (&grid).into(),
         hours: (&map.hours).into(),
@@ -148,9 +214,7 @@ pub fn compare_map(
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
     let i: MapIn = read(input, "compareMap")?;
-    let (model, grid, period, _) = i.parts_over(true)?;
-    let req = i.request(&model, &grid, period, Massing::WithProposed);
-    let ba = before_after(&req, progress(&on_progress)).map_err(err)?;
+    let (grid, period, ba) = compare_of(&i, progress(&on_progress))?;
     write(&CompareMap {
         grid: (&grid).into(),
         open_hours: ba.before.open_hours,
@@ -163,9 +227,9 @@ pub fn compare_map(
     })
 }
 
-#[derive(Deserialize)]
+#[derive(Deserialize, Default)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct InsolationIn {
+pub(super) struct InsolationIn {
     /// Aerosol optical depth at 500 nm of the Bird clear sky (default 0.1).
     aod500: Option<f64>,
     /// Sky patch size for the sky-view factor, degrees (default 5).
@@ -181,22 +245,7 @@ pub fn insolation_map(
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
     let (map, i): (MapIn, InsolationIn) = read_split(input, "insolationMap", &["aod500", "skyStepDeg"])?;
-    let (model, grid, period, massing) = map.parts()?;
-    let mut atmosphere = crate::sky::BirdAtmosphere::default();
-    if let Some(a) = i.aod500 {
-        atmosphere.aod_500 = a;
-    }
-    let req = crate::exposure::InsolationRequest {
-        model: &model,
-        grid: &grid,
-        period,
-        plane_m: map.plane_m,
-        delta_t: DeltaT::EspenakMeeus,
-        massing,
-        atmosphere,
-        sky_step_deg: i.sky_step_deg.unwrap_or(crate::exposure::DEFAULT_SKY_STEP_DEG),
-    };
-    let m = crate::exposure::insolation(&req, progress(&on_progress)).map_err(err)?;
+    let (grid, period, m) = insolation_of(&map, &i, progress(&on_progress))?;
     let o = m.open;
     write(&InsolationMap {
         grid: (&grid).into(),
@@ -218,7 +267,7 @@ pub fn insolation_map(
 
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
-struct EnvelopeIn {
+pub(super) struct EnvelopeIn {
     site: String,
     lot: String,
     #[serde(default)]
@@ -243,6 +292,39 @@ pub fn solar_envelope_js(
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
     let i: EnvelopeIn = read(input, "solarEnvelope")?;
+    let (grid, period, env) = envelope_of(&i, progress(&on_progress))?;
+    write(&Envelope {
+        grid: (&grid).into(),
+        height_m: (&env.height_m).into(),
+        steps: env.steps,
+        period: period.describe(),
+        stats: MapFigures::of(&grid, &env.height_m),
+    })
+}
+
+impl EnvelopeIn {
+    /// The input of the envelope of `lot` for a map of `kind`, protecting the default areas.
+    pub(super) fn of_kind(kind: &MapKind, site: String, lot: String, period: &Period) -> Self {
+        EnvelopeIn {
+            site,
+            lot,
+            protect: Vec::new(),
+            date: period.first.to_string(),
+            to: Some(period.last.to_string()),
+            window: kind.window.map(str::to_string),
+            step_min: kind.step_min,
+            cell_m: kind.cell_m,
+            max_height_m: crate::envelope::DEFAULT_MAX_HEIGHT_M,
+            height_step_m: crate::envelope::DEFAULT_HEIGHT_STEP_M,
+        }
+    }
+}
+
+/// The envelope an input asks for, on its grid, over its period.
+pub(super) fn envelope_of(
+    i: &EnvelopeIn,
+    progress: impl FnMut(f64) -> bool,
+) -> Result<(Grid, Period, crate::envelope::Envelope), JsError> {
     let model = site(&i.site)?;
     let lot = model
         .areas
@@ -264,23 +346,18 @@ pub fn solar_envelope_js(
     let first = date(&i.date, "date")?;
     let last = i.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
     let window = window(Some(i.window.as_deref().unwrap_or(crate::envelope::DEFAULT_ENVELOPE_WINDOW)))?;
+    let period = Period { first, last, window, step_min: i.step_min };
     let req = EnvelopeRequest {
         model: &model,
         grid: &grid,
         protected: &protected,
-        period: Period { first, last, window, step_min: i.step_min },
+        period,
         max_height_m: i.max_height_m,
         height_step_m: i.height_step_m,
         delta_t: DeltaT::EspenakMeeus,
     };
-    let env = solar_envelope(&req, progress(&on_progress)).map_err(err)?;
-    write(&Envelope {
-        grid: (&grid).into(),
-        height_m: (&env.height_m).into(),
-        steps: env.steps,
-        period: req.period.describe(),
-        stats: MapFigures::of(&grid, &env.height_m),
-    })
+    let env = solar_envelope(&req, progress).map_err(err)?;
+    Ok((grid, period, env))
 }
 
 #[derive(Deserialize)]

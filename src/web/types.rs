@@ -70,6 +70,11 @@ export interface CheckReport { rule: AreaRuleFile; date: string; cellM: number; 
 export interface WindowReport { rule: WindowRuleFile; year: number; stepMin: number; sharePassing: number | null; passes: boolean;
   cautions: string[]; windows: { id: string; name: string; status: Status; facingDeg: number;
     figures: { name: string; before: number | null; after: number }[]; passes: boolean | null; reason: string }[]; }
+export interface MapKindInfo { id: string; title: string; label: string; unit: string; column: string; menu: string | null;
+  span: "day" | "year"; cellM: number; stepMin: number; }
+export interface KindInput { kind: string; site: SiteText; date: string; }
+export interface KindMap { kind: string; title: string; label: string; unit: string; column: string; caption: string;
+  grid: GridGeometry; values: Float64Array; rangeTop: number; stats: MapFigures | null; }
 export interface FacadeInput { site: SiteText; volume: string; date: string; to?: string; window?: string; stepMin?: number;
   cellM?: number; massing?: Massing; show?: "hours" | "beam" | "insolation" | "lost"; }
 export interface FacadeMap { caution: string; faces: { number: number; facingDeg: number; compass: string; startM: [number, number];
