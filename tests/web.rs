@@ -429,16 +429,9 @@ fn window_light_through_the_facade_equals_the_core() {
     .unwrap();
     let date = chrono::NaiveDate::from_ymd_opt(2026, 6, 21).unwrap();
     let period = sunlot::exposure::Period::day(date, 5);
-    let sun = sunlot::exposure::window_sun_hours(
-        &m,
-        w.view_point(),
-        0.0,
-        &period,
-        massing,
-        sunlot::time::DeltaT::EspenakMeeus,
-        |_| true,
-    )
-    .unwrap();
+    let aim = sunlot::exposure::WindowAim { massing, ..sunlot::exposure::WindowAim::at(w.view_point(), 0.0) };
+    let sun =
+        sunlot::exposure::window_sun_hours(&m, &aim, &period, sunlot::time::DeltaT::EspenakMeeus, |_| true).unwrap();
     for out in [&by_id, &by_point] {
         let after = get(out, "withProposed");
         assert_eq!(num(&after, "vscPct"), vsc);

@@ -411,16 +411,8 @@ mod tests {
         let steps = SunSteps::of(&open, &period, DeltaT::EspenakMeeus, |_| true).unwrap();
         let maps = facade_map(&request(&open, "house", 1.0), &steps, |_| true).unwrap();
         let p = maps[0].sample(4, 3);
-        let want = crate::exposure::window_sun_hours(
-            &open,
-            p,
-            180.0,
-            &period,
-            Massing::WithProposed,
-            DeltaT::EspenakMeeus,
-            |_| true,
-        )
-        .unwrap();
+        let aim = crate::exposure::WindowAim::at(p, 180.0);
+        let want = crate::exposure::window_sun_hours(&open, &aim, &period, DeltaT::EspenakMeeus, |_| true).unwrap();
         assert!(maps[0].sun_hours.iter().all(|h| (h - want.sun_hours).abs() < 1e-9), "{:?}", maps[0].sun_hours);
         assert!(maps[0].beam_kwh_m2.iter().all(|&k| k > 1.0 && k < 8.0), "{:?}", maps[0].beam_kwh_m2[0]);
         // An open face sees half the isotropic sky: half the day's diffuse horizontal.
@@ -444,8 +436,18 @@ mod tests {
     fn windows_on_a_face_are_found_and_oversized_requests_refused() {
         let mut m = flat_site(vec![block("house", 0.0, 0.0, 10.0, 6.0, 7.5)], 52.0);
         m.windows.push(
-            crate::site::WindowPoint::new("w", "w", Status::Existing, Coord { x: 3.0, y: -0.05 }, 1.2, 180.0, 1.0, 1.2)
-                .unwrap(),
+            crate::site::WindowPoint {
+                id: "w".into(),
+                name: "w".into(),
+                status: Status::Existing,
+                at: Coord { x: 3.0, y: -0.05 },
+                z_m: 1.2,
+                facing_deg: 180.0,
+                opening_width_m: 1.0,
+                opening_height_m: 1.2,
+            }
+            .checked()
+            .unwrap(),
         );
         let faces = faces_of(&m, "house").unwrap();
         let on: Vec<usize> = faces.iter().map(|f| windows_on(&m, f).len()).collect();

@@ -163,6 +163,21 @@ pub const MAP_KINDS: &[MapKind] = &[
 
 /// The kind called `id`.
 ///
+/// # Examples
+/// ```
+/// use sunlot::exposure::map_kind;
+/// // The hours of sun the proposal takes from the neighbours on the equinox, at the core's default
+/// // cell and step.
+/// let lost = map_kind("lost")?;
+/// assert_eq!((lost.cell_m, lost.step_min, lost.column), (0.5, 5, "lost_h"));
+/// let day = chrono::NaiveDate::from_ymd_opt(2026, 3, 21).unwrap();
+/// assert_eq!(lost.caption(&lost.period(day)?), "2026-03-21, sunrise to sunset, 5-minute steps, 0.5 m cells");
+/// // The year's kind covers the calendar year of the date shown.
+/// let year = map_kind("year-hours")?.period(day)?;
+/// assert_eq!((year.first.to_string(), year.last.to_string()), ("2026-01-01".into(), "2026-12-31".into()));
+/// # Ok::<(), Box<dyn std::error::Error>>(())
+/// ```
+///
 /// # Errors
 /// An unknown name, with the names there are.
 pub fn map_kind(id: &str) -> Result<&'static MapKind, String> {

@@ -37,5 +37,5 @@ pub(crate) use sun_hours::step_offset;
 pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};
 pub use tiles::{massing_near, shadow_halo_m};
 pub use timeline::{day_timeline, Interval, Timeline};
-pub use window_sun::{in_front_of_wall, window_sun_hours, window_sun_hours_above, SunSteps, WindowSun};
-pub use year_profile::{year_profile, MonthProfile, YearProfile};
+pub use window_sun::{in_front_of_wall, window_sun_hours, SunSteps, WindowAim, WindowSun};
+pub use year_profile::{year_profile, MonthProfile, YearProfile, YearProfileRequest};

@@ -130,18 +130,16 @@ mod tests {
         let p = crate::shadow::ViewPoint { x_m: 31.0, y_m: 25.0, z_m: 0.0 };
         let e = sky_view_at(&m, p, Massing::WithProposed, 0.5).unwrap_err().to_string();
         assert!(e.starts_with("sky_step_deg: 260,496,000 ray tests is more than the limit of 200,000,000"), "{e}");
-        let e = crate::exposure::year_profile(
-            &m,
-            p,
-            2026,
-            1,
-            Massing::WithProposed,
-            &Default::default(),
-            crate::time::DeltaT::EspenakMeeus,
-            |_| true,
-        )
-        .unwrap_err()
-        .to_string();
+        let req = crate::exposure::YearProfileRequest {
+            model: &m,
+            point: p,
+            year: 2026,
+            step_min: 1,
+            massing: Massing::WithProposed,
+            atmosphere: Default::default(),
+            delta_t: crate::time::DeltaT::EspenakMeeus,
+        };
+        let e = crate::exposure::year_profile(&req, |_| true).unwrap_err().to_string();
         assert!(e.starts_with("step_min: ") && e.contains("ray tests is more than the limit"), "{e}");
     }
 

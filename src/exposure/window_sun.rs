@@ -45,53 +45,52 @@ pub fn in_front_of_wall(azimuth_deg: f64, facing_deg: f64) -> bool {
     (azimuth_deg - facing_deg).to_radians().cos() > 0.0
 }
 
-/// The hours of direct sun on the window at `point` (on the outside face of its wall) facing the true
-/// azimuth `facing_deg`, over `period`, past `massing`. `progress` as for the maps.
-///
-/// # Errors
-/// [`ExposureError`] for a bad period or facing, a non-finite point, more ray tests than
-/// [`crate::limits::MAX_RAY_TESTS`], or a cancelled run.
-pub fn window_sun_hours(
-    model: &SiteModel,
-    point: ViewPoint,
-    facing_deg: f64,
-    period: &Period,
-    massing: Massing,
-    delta_t: DeltaT,
-    progress: impl FnMut(f64) -> bool,
-) -> Result<WindowSun, ExposureError> {
-    window_sun_hours_above(model, point, facing_deg, period, massing, delta_t, 0.0, progress)
+/// A window as the sun tests see it: its point, the way it faces, the massing, and the lowest sun
+/// that counts.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct WindowAim {
+    /// The reference point on the outside face of its wall, plan metres and height.
+    pub point: ViewPoint,
+    /// The way the window faces (its wall's outward normal), degrees clockwise from true north.
+    pub facing_deg: f64,
+    /// Which volumes stand.
+    pub massing: Massing,
+    /// The sun counts (in `sun_hours` and `front_hours`) only at an apparent altitude of at least this,
+    /// degrees (0: whenever it is up), as tests that ignore a sun too low to matter require.
+    pub min_altitude_deg: f64,
 }
 
-/// As [`window_sun_hours`], but the sun counts (in `sun_hours` and `front_hours`) only at an apparent
-/// altitude of at least `min_altitude_deg`, as tests that ignore a sun too low to matter require.
+impl WindowAim {
+    /// The window at `point` facing `facing_deg`, with the proposal, the sun counting whenever it is up.
+    pub fn at(point: ViewPoint, facing_deg: f64) -> Self {
+        WindowAim { point, facing_deg, massing: Massing::WithProposed, min_altitude_deg: 0.0 }
+    }
+}
+
+/// The hours of direct sun on the window `aim` over `period`. `progress` as for the maps.
 ///
 /// # Errors
-/// As [`window_sun_hours`], and for a `min_altitude_deg` outside 0–90.
-#[allow(clippy::too_many_arguments)]
-pub fn window_sun_hours_above(
+/// [`ExposureError`] for a bad period, facing or lowest altitude (outside 0–90°), a non-finite point,
+/// more ray tests than [`crate::limits::MAX_RAY_TESTS`], or a cancelled run.
+pub fn window_sun_hours(
     model: &SiteModel,
-    point: ViewPoint,
-    facing_deg: f64,
+    aim: &WindowAim,
     period: &Period,
-    massing: Massing,
     delta_t: DeltaT,
-    min_altitude_deg: f64,
     mut progress: impl FnMut(f64) -> bool,
 ) -> Result<WindowSun, ExposureError> {
-    check_window(facing_deg, min_altitude_deg)?;
+    check_window(aim)?;
     period.check(model, delta_t)?;
     let casters = model.volumes.len() + model.walls.len();
     crate::limits::ray_tests("step_min", period.max_steps(), casters, "use a longer step or a shorter period")?;
-    let sky = PointSky::new(model, point, massing, delta_t);
+    let sky = PointSky::new(model, aim.point, aim.massing, delta_t);
     let mut out = WindowSun::default();
-    for_each_day(model, period, delta_t, &mut progress, |_, steps| {
-        add_steps(model, &sky, facing_deg, min_altitude_deg, &steps, &mut out)
-    })?;
+    for_each_day(model, period, delta_t, &mut progress, |_, steps| add_steps(model, &sky, aim, &steps, &mut out))?;
     Ok(out)
 }
 
-fn check_window(facing_deg: f64, min_altitude_deg: f64) -> Result<(), ExposureError> {
+fn check_window(aim: &WindowAim) -> Result<(), ExposureError> {
+    let (facing_deg, min_altitude_deg) = (aim.facing_deg, aim.min_altitude_deg);
     if !(0.0..=90.0).contains(&min_altitude_deg) {
         return Err(ExposureError::Period(format!("min_altitude_deg must be 0 to 90, got {min_altitude_deg}")));
     }
@@ -105,11 +104,11 @@ fn check_window(facing_deg: f64, min_altitude_deg: f64) -> Result<(), ExposureEr
 fn add_steps(
     model: &SiteModel,
     sky: &PointSky,
-    facing_deg: f64,
-    min_altitude_deg: f64,
+    aim: &WindowAim,
     steps: &[Step],
     out: &mut WindowSun,
 ) -> Result<(), ExposureError> {
+    let (facing_deg, min_altitude_deg) = (aim.facing_deg, aim.min_altitude_deg);
     for s in steps {
         let h = s.dt_s / 3600.0;
         out.day_hours += h;
@@ -170,30 +169,26 @@ impl SunSteps {
         self.max_steps
     }
 
-    /// The hours of direct sun on a window (as [`window_sun_hours_above`]) over every day, and over
+    /// The hours of direct sun on the window `aim` (as [`window_sun_hours`]) over every day, and over
     /// the days for which `on` holds, in one pass over the steps.
     ///
     /// # Errors
-    /// As [`window_sun_hours_above`].
-    #[allow(clippy::too_many_arguments)]
+    /// As [`window_sun_hours`].
     pub fn window(
         &self,
         model: &SiteModel,
-        point: ViewPoint,
-        facing_deg: f64,
-        massing: Massing,
+        aim: &WindowAim,
         delta_t: DeltaT,
-        min_altitude_deg: f64,
         on: impl Fn(NaiveDate) -> bool,
     ) -> Result<(WindowSun, WindowSun), ExposureError> {
-        check_window(facing_deg, min_altitude_deg)?;
+        check_window(aim)?;
         let casters = model.volumes.len() + model.walls.len();
         crate::limits::ray_tests("step_min", self.max_steps, casters, "use a longer step or a shorter period")?;
-        let sky = PointSky::new(model, point, massing, delta_t);
+        let sky = PointSky::new(model, aim.point, aim.massing, delta_t);
         let (mut all, mut picked) = (WindowSun::default(), WindowSun::default());
         for (date, steps) in &self.days {
             let mut day = WindowSun::default();
-            add_steps(model, &sky, facing_deg, min_altitude_deg, steps, &mut day)?;
+            add_steps(model, &sky, aim, steps, &mut day)?;
             all.add(&day);
             if on(*date) {
                 picked.add(&day);
@@ -229,8 +224,7 @@ mod tests {
             .to_degrees();
         let period = Period { first: date, last: date, window: Window::Daylight, step_min: 1 };
         let south = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 1.5 };
-        let s =
-            window_sun_hours(&m, south, 180.0, &period, Massing::WithProposed, DeltaT::EspenakMeeus, |_| true).unwrap();
+        let s = window_sun_hours(&m, &WindowAim::at(south, 180.0), &period, DeltaT::EspenakMeeus, |_| true).unwrap();
         assert!(
             (s.sun_hours - 2.0 * h0 / 15.0).abs() < 2.0 / 60.0,
             "south {} against {}",
@@ -240,8 +234,7 @@ mod tests {
         assert_eq!(s.sun_hours, s.front_hours);
         // The north face of the second house: nothing to its north.
         let north = ViewPoint { x_m: 0.0, y_m: 28.0, z_m: 1.5 };
-        let n =
-            window_sun_hours(&m, north, 0.0, &period, Massing::WithProposed, DeltaT::EspenakMeeus, |_| true).unwrap();
+        let n = window_sun_hours(&m, &WindowAim::at(north, 0.0), &period, DeltaT::EspenakMeeus, |_| true).unwrap();
         let want = 2.0 * (hs - h0) / 15.0;
         assert!((n.sun_hours - want).abs() < 4.0 / 60.0, "north {} against {want}", n.sun_hours);
         assert!((s.day_hours - 2.0 * hs / 15.0).abs() < 2.0 / 60.0, "day {} against {}", s.day_hours, 2.0 * hs / 15.0);
@@ -256,14 +249,16 @@ mod tests {
             site(vec![block("house", -5.0, 0.0, 5.0, 8.0, 7.0), block("block", -8.0, -25.0, 2.0, -15.0, 14.0)], 52.0);
         let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 1.5 };
         let period = Period { first: date, last: date, window: Window::Daylight, step_min: 1 };
-        let w = window_sun_hours(&m, p, 180.0, &period, Massing::WithProposed, DeltaT::EspenakMeeus, |_| true).unwrap();
+        let w = window_sun_hours(&m, &WindowAim::at(p, 180.0), &period, DeltaT::EspenakMeeus, |_| true).unwrap();
         let t = day_timeline(&m, p, date, Massing::WithProposed, DeltaT::EspenakMeeus).unwrap();
         assert!(w.sun_hours < w.front_hours - 0.5, "{w:?}");
         // The sun rises a little north of due east at the equinox: minutes outside the window's half-space.
         assert!((w.sun_hours - t.sun_hours).abs() < 12.0 / 60.0, "{} against {}", w.sun_hours, t.sun_hours);
         assert!(w.sun_hours <= t.sun_hours + 2.0 / 60.0);
-        let e = window_sun_hours(&m, p, f64::NAN, &period, Massing::WithProposed, DeltaT::EspenakMeeus, |_| true)
-            .unwrap_err();
+        let e = window_sun_hours(&m, &WindowAim::at(p, f64::NAN), &period, DeltaT::EspenakMeeus, |_| true).unwrap_err();
         assert!(e.to_string().contains("facing_deg"), "{e}");
+        let low = WindowAim { min_altitude_deg: 91.0, ..WindowAim::at(p, 180.0) };
+        let e = window_sun_hours(&m, &low, &period, DeltaT::EspenakMeeus, |_| true).unwrap_err();
+        assert!(e.to_string().contains("min_altitude_deg"), "{e}");
     }
 }

@@ -47,22 +47,35 @@ pub struct YearProfile {
     pub months: Vec<MonthProfile>,
 }
 
-/// The year profile of `point`.
+/// What a year profile is of.
+#[derive(Debug, Clone)]
+pub struct YearProfileRequest<'a> {
+    /// The site.
+    pub model: &'a SiteModel,
+    /// The point, plan metres and height.
+    pub point: ViewPoint,
+    /// The calendar year.
+    pub year: i32,
+    /// Time step, minutes.
+    pub step_min: u32,
+    /// Which volumes stand.
+    pub massing: Massing,
+    /// The clear sky (Bird) of the insolation.
+    pub atmosphere: BirdAtmosphere,
+    /// ΔT model.
+    pub delta_t: DeltaT,
+}
+
+/// The year profile of the request's point.
 ///
 /// # Errors
 /// [`ExposureError`] for a bad step, a year the solar engine refuses, a bad atmosphere, a non-finite
 /// point, or a cancelled run.
-#[allow(clippy::too_many_arguments)]
 pub fn year_profile(
-    model: &SiteModel,
-    point: ViewPoint,
-    year: i32,
-    step_min: u32,
-    massing: Massing,
-    atmosphere: &BirdAtmosphere,
-    delta_t: DeltaT,
+    req: &YearProfileRequest,
     mut progress: impl FnMut(f64) -> bool,
 ) -> Result<YearProfile, ExposureError> {
+    let YearProfileRequest { model, point, year, step_min, massing, ref atmosphere, delta_t } = *req;
     let bad_year = || ExposureError::Period(format!("year {year} is out of range"));
     let first = NaiveDate::from_ymd_opt(year, 1, 1).ok_or_else(bad_year)?;
     let last = NaiveDate::from_ymd_opt(year, 12, 31).ok_or_else(bad_year)?;
@@ -111,17 +124,16 @@ mod tests {
         m.walls.clear();
         m.ground = crate::site::Ground::flat();
         let p = ViewPoint { x_m: 0.0, y_m: 0.0, z_m: 0.0 };
-        let y = year_profile(
-            &m,
-            p,
-            2026,
-            30,
-            Massing::WithProposed,
-            &BirdAtmosphere::default(),
-            DeltaT::EspenakMeeus,
-            |_| true,
-        )
-        .unwrap();
+        let req = YearProfileRequest {
+            model: &m,
+            point: p,
+            year: 2026,
+            step_min: 30,
+            massing: Massing::WithProposed,
+            atmosphere: BirdAtmosphere::default(),
+            delta_t: DeltaT::EspenakMeeus,
+        };
+        let y = year_profile(&req, |_| true).unwrap();
         assert_eq!(y.sky_view, 1.0);
         for mp in &y.months {
             assert!((mp.sun_hours - mp.open_hours).abs() < 1e-9);

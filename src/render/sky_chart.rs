@@ -382,54 +382,91 @@ fn draw_hour_lines(d: &mut dyn Draw, frame: &Frame, chart: &SkyChart, eph: &mut 
     Ok(())
 }
 
+/// A label's box on the chart: left, top, right, bottom, pixels.
+type LabelBox = (f64, f64, f64, f64);
+/// A row of the day paths' key: colour index, the dates' labels.
+type KeyRow = (usize, String);
+/// A colour's highest point on its path: colour index, (azimuth, altitude) in degrees.
+type PathTop = (usize, (f64, f64));
+
+/// The colours of the day paths and their key's rows.
+struct PathKey {
+    /// Every date is a 21st: the 21st of month m and of month 12 − m follow nearly the same path
+    /// (a month either side of a solstice) and share a colour and one row of the key.
+    paired: bool,
+    /// The key's rows: colour index, the dates' labels.
+    rows: Vec<KeyRow>,
+}
+
+impl PathKey {
+    fn of(chart: &SkyChart) -> Self {
+        let paired = chart.dates.iter().all(|(d, _)| chrono::Datelike::day(d) == 21);
+        let mut key = PathKey { paired, rows: Vec::new() };
+        for (k, (date, label)) in chart.dates.iter().enumerate() {
+            let c = key.colour(k, date);
+            match key.rows.iter_mut().find(|(j, _)| *j == c) {
+                Some((_, text)) => *text = format!("{text}, {label}"),
+                None => key.rows.push((c, label.clone())),
+            }
+        }
+        if paired {
+            key.rows.sort_by_key(|(c, _)| *c);
+        }
+        key
+    }
+
+    /// The colour index of the `k`th date, `date`.
+    fn colour(&self, k: usize, date: &NaiveDate) -> usize {
+        if !self.paired {
+            return k % PATH_COLOURS.len();
+        }
+        let m = chrono::Datelike::month(date) as usize;
+        if m == 12 {
+            0
+        } else {
+            m.min(12 - m)
+        }
+    }
+}
+
 /// The day paths, their key and their labels on the chart; returns the key's rows (colour, label) and
 /// the boxes of the labels drawn on the chart.
-#[allow(clippy::type_complexity)]
 fn draw_day_paths(
     d: &mut dyn Draw,
     layout: &SkyLayout,
     chart: &SkyChart,
     eph: &mut Ephemeris,
-) -> Result<(Vec<(usize, String)>, Vec<(f64, f64, f64, f64)>), InputError> {
-    let (frame, key_x, top) = (&layout.frame, layout.key_x, layout.top);
-    // Day paths.
-    // Dates a month either side of a solstice follow nearly the same path: the 21st of month m and of
-    // month 12 − m share a colour when every date is a 21st, and one legend line.
-    let paired = chart.dates.iter().all(|(d, _)| chrono::Datelike::day(d) == 21);
-    let key = |k: usize, d: &NaiveDate| {
-        if paired {
-            let m = chrono::Datelike::month(d) as usize;
-            if m == 12 {
-                0
-            } else {
-                m.min(12 - m)
-            }
-        } else {
-            k % PATH_COLOURS.len()
-        }
-    };
-    let mut legend: Vec<(usize, String)> = Vec::new();
-    for (k, (date, label)) in chart.dates.iter().enumerate() {
-        let c = key(k, date);
-        match legend.iter_mut().find(|(j, _)| *j == c) {
-            Some((_, text)) => *text = format!("{text}, {label}"),
-            None => legend.push((c, label.clone())),
-        }
-    }
-    if paired {
-        legend.sort_by_key(|(c, _)| *c);
-    }
+) -> Result<(Vec<KeyRow>, Vec<LabelBox>), InputError> {
+    let key = PathKey::of(chart);
+    draw_path_key(d, layout, &key.rows);
+    let tops = draw_paths(d, &layout.frame, chart, eph, &key)?;
+    let boxes = draw_path_labels(d, &layout.frame, &key, tops);
+    Ok((key.rows, boxes))
+}
+
+/// The key of the day paths in the key column.
+fn draw_path_key(d: &mut dyn Draw, layout: &SkyLayout, rows: &[KeyRow]) {
+    let (key_x, top) = (layout.key_x, layout.top);
     d.text(key_x, top + 10.0, TEXT_PX, "Day paths", INK, Anchor::Start);
-    for (row, (c, label)) in legend.iter().enumerate() {
+    for (row, (c, label)) in rows.iter().enumerate() {
         let ly = top + 36.0 + 22.0 * row as f64;
         d.stroke(&[(key_x, ly - 5.0), (key_x + 26.0, ly - 5.0)], path_width(*c), PATH_COLOURS[*c], false);
         d.text(key_x + 34.0, ly, LABEL_PX, label, INK, Anchor::Start);
     }
-    // Each colour's path is labelled on the chart at its highest point (its label, the day dropped
-    // when every date is a 21st).
-    let mut tags: Vec<(usize, (f64, f64))> = Vec::new();
+}
+
+/// Each date's path (the sun every 5 minutes while it is up); returns each colour's highest point
+/// (azimuth, altitude, degrees), where its label goes.
+fn draw_paths(
+    d: &mut dyn Draw,
+    frame: &Frame,
+    chart: &SkyChart,
+    eph: &mut Ephemeris,
+    key: &PathKey,
+) -> Result<Vec<PathTop>, InputError> {
+    let mut tops: Vec<PathTop> = Vec::new();
     for (k, (date, _)) in chart.dates.iter().enumerate() {
-        let c = key(k, date);
+        let c = key.colour(k, date);
         let start = chart.zone.start_of_day(*date);
         let mut pts = Vec::new();
         for m in (0..=24 * 60).step_by(5) {
@@ -442,18 +479,28 @@ fn draw_day_paths(
             d.stroke(&line, path_width(c), PATH_COLOURS[c], false);
         }
         if let Some(high) = pts.iter().copied().max_by(|a, b| a.1.total_cmp(&b.1)) {
-            if !tags.iter().any(|(j, _)| *j == c) {
-                tags.push((c, high));
+            if !tops.iter().any(|(j, _)| *j == c) {
+                tops.push((c, high));
             }
         }
     }
-    // Neighbouring paths' labels on alternate sides of their highest points; their boxes are kept so
-    // the sun's label can keep off them.
-    let mut boxes: Vec<(f64, f64, f64, f64)> = Vec::new();
-    tags.sort_by(|a, b| a.1 .1.total_cmp(&b.1 .1));
-    for (n, (c, (az, alt))) in tags.into_iter().enumerate() {
-        let Some((_, text)) = legend.iter().find(|(j, _)| *j == c) else { continue };
-        let text = if paired { text.replace("21 ", "") } else { text.clone() };
+    Ok(tops)
+}
+
+/// Each colour's label at its path's highest point (the day dropped when every date is a 21st),
+/// neighbouring paths' labels on alternate sides; returns their boxes, which the sun's label keeps
+/// off.
+fn draw_path_labels(
+    d: &mut dyn Draw,
+    frame: &Frame,
+    key: &PathKey,
+    mut tops: Vec<(usize, (f64, f64))>,
+) -> Vec<LabelBox> {
+    let mut boxes: Vec<LabelBox> = Vec::new();
+    tops.sort_by(|a, b| a.1 .1.total_cmp(&b.1 .1));
+    for (n, (c, (az, alt))) in tops.into_iter().enumerate() {
+        let Some((_, text)) = key.rows.iter().find(|(j, _)| *j == c) else { continue };
+        let text = if key.paired { text.replace("21 ", "") } else { text.clone() };
         let (x, y) = frame.at(az, alt);
         let tw = d.measure_px(LABEL_PX, &text);
         let (left, anchor, tx) =
@@ -462,8 +509,7 @@ fn draw_day_paths(
         d.text(tx, y - 4.0, LABEL_PX, &text, PATH_COLOURS[c], anchor);
         boxes.push((left, y - 16.0, left + tw + 6.0, y));
     }
-
-    Ok((legend, boxes))
+    boxes
 }
 
 /// The sun at the chart's moment, if it is up, labelled clear of `boxes`.
@@ -472,7 +518,7 @@ fn draw_sun(
     frame: &Frame,
     chart: &SkyChart,
     eph: &mut Ephemeris,
-    boxes: &[(f64, f64, f64, f64)],
+    boxes: &[LabelBox],
 ) -> Result<(), InputError> {
     if let Some(t) = chart.now {
         let (az, alt) = sun(eph, &chart.site, t, chart.delta_t)?;

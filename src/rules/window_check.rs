@@ -6,7 +6,7 @@ use serde::Serialize;
 use super::rule::{clock_window, RuleError};
 use super::window_rule::{SkyTest, SunDayTest, SunYearTest, WindowRule, WindowTest};
 use crate::daylight::{sky_component_pct, SkyPlane};
-use crate::exposure::{window_sun_hours_above, Massing, Period, SunSteps, Window};
+use crate::exposure::{window_sun_hours, Massing, Period, SunSteps, Window, WindowAim};
 use crate::site::{SiteModel, Status, WindowPoint};
 use crate::time::DeltaT;
 
@@ -256,10 +256,13 @@ fn sun_day(
     };
     let period = Period { first: d, last: d, window, step_min: req.step_min };
     let (before, after) = before_after(w, |m| {
-        let (p, dt) = (w.view_point(), req.delta_t);
-        window_sun_hours_above(req.model, p, w.facing_deg, &period, m, dt, t.min_altitude_deg, |_| true)
-            .map(|s| s.sun_hours)
-            .map_err(RuleError::from)
+        let aim = WindowAim {
+            point: w.view_point(),
+            facing_deg: w.facing_deg,
+            massing: m,
+            min_altitude_deg: t.min_altitude_deg,
+        };
+        window_sun_hours(req.model, &aim, &period, req.delta_t, |_| true).map(|s| s.sun_hours).map_err(RuleError::from)
     })?;
     let passes = after >= t.min_hours - 1e-9;
     let reason = format!("{after:.2} h on {d} {} {} h", if passes { "≥" } else { "<" }, t.min_hours);
@@ -303,7 +306,12 @@ fn sun_year(
     };
     let shares = |m: Massing| -> Result<(f64, f64), RuleError> {
         let (all, cold) = year
-            .window(req.model, w.view_point(), w.facing_deg, m, req.delta_t, 0.0, winter)
+            .window(
+                req.model,
+                &WindowAim { massing: m, ..WindowAim::at(w.view_point(), w.facing_deg) },
+                req.delta_t,
+                winter,
+            )
             .map_err(RuleError::from)?;
         let possible = all.day_hours.max(1e-9);
         Ok((all.sun_hours / possible, cold.sun_hours / possible))
@@ -359,7 +367,18 @@ mod tests {
     use geo::Coord;
 
     fn window(id: &str, at: (f64, f64, f64), facing_deg: f64) -> WindowPoint {
-        WindowPoint::new(id, id, Status::Existing, Coord { x: at.0, y: at.1 }, at.2, facing_deg, 1.0, 1.2).unwrap()
+        WindowPoint {
+            id: id.into(),
+            name: id.into(),
+            status: Status::Existing,
+            at: Coord { x: at.0, y: at.1 },
+            z_m: at.2,
+            facing_deg,
+            opening_width_m: 1.0,
+            opening_height_m: 1.2,
+        }
+        .checked()
+        .unwrap()
     }
 
     fn rule(test: WindowTest) -> WindowRule {

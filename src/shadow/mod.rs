@@ -20,4 +20,4 @@ pub use geojson_out::study_geojson;
 pub use ground::{volume_faces_on, volume_levels_m, volume_shadow_on, wall_faces_on, wall_shadow_on, Receiver};
 pub use ray::{exposure, skyline, Exposure, ViewPoint};
 pub use study::{analysis_extent, shadow_study, AreaShade, Study, StudyError, EXTENT_HEIGHTS, MIN_MARGIN_M};
-pub use table::{shadow_table, ShadowRow};
+pub use table::{shadow_table, ShadowRow, DEFAULT_TABLE_STEP_MIN};

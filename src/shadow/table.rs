@@ -27,6 +27,10 @@ pub struct ShadowRow {
     pub tips_m: Vec<(String, f64)>,
 }
 
+/// Step of a day's shadow table (and of the CLI's hourly day tables), minutes: on the hour, as
+/// shadow studies are read (common practice).
+pub const DEFAULT_TABLE_STEP_MIN: u32 = 60;
+
 /// The table for local `date` at `step_min` minutes from local midnight, the steps from sunrise to
 /// sunset (an empty table when the sun does not rise; every step on a polar day).
 ///

@@ -349,17 +349,17 @@ impl SiteFile {
             .windows
             .iter()
             .map(|w| {
-                let at = Coord { x: w.at[0], y: w.at[1] };
-                WindowPoint::new(
-                    &w.id,
-                    &w.name,
-                    w.status,
-                    at,
-                    w.at[2],
-                    w.facing_deg,
-                    w.opening_width_m,
-                    w.opening_height_m,
-                )
+                WindowPoint {
+                    id: w.id.clone(),
+                    name: w.name.clone(),
+                    status: w.status,
+                    at: Coord { x: w.at[0], y: w.at[1] },
+                    z_m: w.at[2],
+                    facing_deg: w.facing_deg,
+                    opening_width_m: w.opening_width_m,
+                    opening_height_m: w.opening_height_m,
+                }
+                .checked()
                 .map_err(SiteFileError::Feature)
             })
             .collect::<Result<Vec<_>, _>>()?;

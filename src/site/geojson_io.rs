@@ -269,50 +269,25 @@ fn read_feature(
             problem: "is missing: say whether the feature is a \"volume\", an \"area\" or a \"wall\"".into(),
         });
     };
-    let base_id = props
-        .get("id")
-        .and_then(Value::as_str)
-        .map(str::to_string)
-        .or_else(|| {
-            f.id.as_ref().map(|i| match i {
-                geojson::feature::Id::String(s) => s.clone(),
-                geojson::feature::Id::Number(n) => n.to_string(),
-            })
-        })
-        .unwrap_or_else(|| format!("feature-{index}"));
+    let base_id = feature_id(f, &props, index);
     let label = format!("{base_id:?} (#{index})");
     let prop = Props { props: &props, feature: &label };
     let status = prop.status()?;
     let geom = f.geometry.as_ref().map(|g| &g.value);
-    if what == "window" {
-        let Some(GeometryValue::Point { coordinates }) = geom else {
-            return Err(GeoJsonError::UnsupportedGeometry {
+    let mut claim = |id: &str| {
+        if ids.insert(id.to_string()) {
+            Ok(())
+        } else {
+            Err(GeoJsonError::Property {
                 feature: label.clone(),
-                what: what.clone(),
-                expected: "a Point",
-                found: geom.map_or("no geometry".to_string(), geometry_name),
-            });
-        };
-        let (lon, lat) = lon_lat(coordinates, &label, "")?;
-        let (e, n) = frame.to_local(lon, lat);
-        if !ids.insert(base_id.clone()) {
-            return Err(GeoJsonError::Property {
-                feature: label,
                 property: "id",
-                problem: format!("{base_id:?} is used by more than one feature"),
-            });
+                problem: format!("{id:?} is used by more than one feature"),
+            })
         }
-        let need = |key: &'static str| prop.number(key)?.ok_or_else(|| prop.missing(key));
-        model.windows.push(WindowPoint::new(
-            &base_id,
-            &prop.text("name")?,
-            status,
-            Coord { x: e, y: n },
-            need("z_m")?,
-            need("facing_deg")?,
-            need("opening_width_m")?,
-            need("opening_height_m")?,
-        )?);
+    };
+    if what == "window" {
+        claim(&base_id)?;
+        model.windows.push(read_window(&prop, geom, frame, base_id, status)?);
         return Ok(());
     }
     let parts = match what.as_str() {
@@ -327,14 +302,9 @@ fn read_feature(
         }
     };
     for (k, rings) in parts.into_iter().enumerate() {
+        // A multi-part feature gives one feature a part: `id`, `id#2`, `id#3`, …
         let id = if k == 0 { base_id.clone() } else { format!("{base_id}#{}", k + 1) };
-        if !ids.insert(id.clone()) {
-            return Err(GeoJsonError::Property {
-                feature: label,
-                property: "id",
-                problem: format!("{id:?} is used by more than one feature"),
-            });
-        }
+        claim(&id)?;
         let polygon = || {
             let mut it = rings.iter().map(|r| LineString::from(r.clone()));
             let outer = it.next().unwrap_or_else(|| LineString::new(vec![]));
@@ -357,6 +327,53 @@ fn read_feature(
         }
     }
     Ok(())
+}
+
+/// A feature's id: its `id` property, else the Feature's own id, else `feature-<index>`.
+fn feature_id(f: &Feature, props: &JsonObject, index: usize) -> String {
+    props
+        .get("id")
+        .and_then(Value::as_str)
+        .map(str::to_string)
+        .or_else(|| {
+            f.id.as_ref().map(|i| match i {
+                geojson::feature::Id::String(s) => s.clone(),
+                geojson::feature::Id::Number(n) => n.to_string(),
+            })
+        })
+        .unwrap_or_else(|| format!("feature-{index}"))
+}
+
+/// A window feature (a Point with `z_m`, `facing_deg` and the opening's size), checked.
+fn read_window(
+    prop: &Props,
+    geom: Option<&GeometryValue>,
+    frame: &LocalFrame,
+    id: String,
+    status: Status,
+) -> Result<WindowPoint, GeoJsonError> {
+    let Some(GeometryValue::Point { coordinates }) = geom else {
+        return Err(GeoJsonError::UnsupportedGeometry {
+            feature: prop.feature.to_string(),
+            what: "window".into(),
+            expected: "a Point",
+            found: geom.map_or("no geometry".to_string(), geometry_name),
+        });
+    };
+    let (lon, lat) = lon_lat(coordinates, prop.feature, "")?;
+    let (e, n) = frame.to_local(lon, lat);
+    let need = |key: &'static str| prop.number(key)?.ok_or_else(|| prop.missing(key));
+    let window = WindowPoint {
+        id,
+        name: prop.text("name")?,
+        status,
+        at: Coord { x: e, y: n },
+        z_m: need("z_m")?,
+        facing_deg: need("facing_deg")?,
+        opening_width_m: need("opening_width_m")?,
+        opening_height_m: need("opening_height_m")?,
+    };
+    Ok(window.checked()?)
 }
 
 /// A feature's geometry as parts of rings in the local frame: polygons (outer ring, then holes) when

@@ -31,59 +31,44 @@ pub struct WindowPoint {
 }
 
 impl WindowPoint {
-    /// A checked window: finite numbers, the point within the plan's extent and above the ground, the
-    /// facing 0–360° (360 read as 0), an opening of 0.05 to 50 m a side.
+    /// The window checked: finite numbers, the point within the plan's extent and above the ground,
+    /// the facing 0–360° (360 read as 0), an opening of 0.05 to 50 m a side. Build the struct, then
+    /// check it: `WindowPoint { id, name, …, opening_height_m }.checked()?`.
     ///
     /// # Errors
     /// [`SiteError`] naming the window and the field.
-    #[allow(clippy::too_many_arguments)]
-    pub fn new(
-        id: &str,
-        name: &str,
-        status: Status,
-        at: Coord<f64>,
-        z_m: f64,
-        facing_deg: f64,
-        opening_width_m: f64,
-        opening_height_m: f64,
-    ) -> Result<Self, SiteError> {
-        let bad = |field: &'static str, reason: String| SiteError::BadWindow { feature: id.to_string(), field, reason };
+    pub fn checked(self) -> Result<Self, SiteError> {
+        let feature = || self.id.clone();
+        let bad = |field: &'static str, reason: String| SiteError::BadWindow { feature: feature(), field, reason };
+        let at = self.at;
         if !(at.x.is_finite() && at.y.is_finite()) {
-            return Err(SiteError::NotFinite { feature: id.to_string(), ring: "the window's point".into(), index: 0 });
+            return Err(SiteError::NotFinite { feature: feature(), ring: "the window's point".into(), index: 0 });
         }
         if at.x.abs() > MAX_PLAN_EXTENT_M + 1e-3 || at.y.abs() > MAX_PLAN_EXTENT_M + 1e-3 {
             return Err(SiteError::TooFar {
-                feature: id.to_string(),
+                feature: feature(),
                 ring: "the window's point".into(),
                 index: 0,
                 x: at.x,
                 y: at.y,
             });
         }
-        if !(z_m.is_finite() && (0.0..=MAX_HEIGHT_M).contains(&z_m)) {
-            return Err(SiteError::BadHeight { feature: id.to_string(), field: "z_m", value: z_m });
+        if !(self.z_m.is_finite() && (0.0..=MAX_HEIGHT_M).contains(&self.z_m)) {
+            return Err(SiteError::BadHeight { feature: feature(), field: "z_m", value: self.z_m });
         }
+        let facing_deg = self.facing_deg;
         if !(facing_deg.is_finite() && (0.0..=360.0).contains(&facing_deg)) {
             return Err(bad(
                 "facing_deg",
                 format!("must be 0 to 360 degrees clockwise from true north, got {facing_deg}"),
             ));
         }
-        for (field, v) in [("opening_width_m", opening_width_m), ("opening_height_m", opening_height_m)] {
+        for (field, v) in [("opening_width_m", self.opening_width_m), ("opening_height_m", self.opening_height_m)] {
             if !(v.is_finite() && (0.05..=50.0).contains(&v)) {
                 return Err(bad(field, format!("must be 0.05 to 50 m, got {v}")));
             }
         }
-        Ok(WindowPoint {
-            id: id.to_string(),
-            name: name.to_string(),
-            status,
-            at,
-            z_m,
-            facing_deg: facing_deg % 360.0,
-            opening_width_m,
-            opening_height_m,
-        })
+        Ok(WindowPoint { facing_deg: facing_deg % 360.0, ..self })
     }
 
     /// The reference point as a view point for the ray tests and the sky component.

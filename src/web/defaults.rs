@@ -19,6 +19,11 @@ pub(super) fn long_step_min() -> u32 {
     DEFAULT_LONG_STEP_MIN
 }
 
+/// [`crate::shadow::DEFAULT_TABLE_STEP_MIN`]: a day's shadow table.
+pub(super) fn table_step_min() -> u32 {
+    crate::shadow::DEFAULT_TABLE_STEP_MIN
+}
+
 /// [`DEFAULT_FACADE_CELL_M`].
 pub(super) fn facade_cell_m() -> f64 {
     DEFAULT_FACADE_CELL_M

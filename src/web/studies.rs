@@ -16,12 +16,8 @@ use crate::time::DeltaT;
 struct TableIn {
     site: String,
     date: String,
-    #[serde(default = "sixty")]
+    #[serde(default = "defaults::table_step_min")]
     step_min: u32,
-}
-
-fn sixty() -> u32 {
-    60
 }
 
 /// The shadow-length table of a day: `[{time, altitudeDeg, azimuthDeg, shadowLengthMPerM, shadowAzimuthDeg,
@@ -86,17 +82,16 @@ pub fn year_profile_js(
     let i: YearIn = read(input, "yearProfile")?;
     let model = site(&i.site)?;
     let year = i.year.ok_or_else(|| JsError::new("year: missing"))?;
-    let p = crate::exposure::year_profile(
-        &model,
-        ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
+    let req = crate::exposure::YearProfileRequest {
+        model: &model,
+        point: ViewPoint { x_m: i.x_m, y_m: i.y_m, z_m: i.z_m },
         year,
-        i.step_min,
-        massing_of(i.massing.as_deref())?,
-        &crate::sky::BirdAtmosphere::default(),
-        DeltaT::EspenakMeeus,
-        super::maps::progress(&on_progress),
-    )
-    .map_err(err)?;
+        step_min: i.step_min,
+        massing: massing_of(i.massing.as_deref())?,
+        atmosphere: crate::sky::BirdAtmosphere::default(),
+        delta_t: DeltaT::EspenakMeeus,
+    };
+    let p = crate::exposure::year_profile(&req, super::maps::progress(&on_progress)).map_err(err)?;
     let months = p
         .months
         .iter()

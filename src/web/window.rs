@@ -8,7 +8,7 @@ use super::defaults;
 use super::maps::date;
 use super::{err, read, site, write};
 use crate::daylight::{sky_component_pct, SkyPlane, DEFAULT_AZIMUTH_STEP_DEG};
-use crate::exposure::{window_sun_hours, Massing, Period, Window};
+use crate::exposure::{window_sun_hours, Massing, Period, Window, WindowAim};
 use crate::time::DeltaT;
 
 #[derive(Deserialize)]
@@ -60,16 +60,17 @@ pub fn window_light(
         (None, Some(x_m), Some(y_m), Some(f)) => {
             // Checked as a window of the site would be (extent, height, facing 0–360°).
             let at = geo::Coord { x: x_m, y: y_m };
-            let w = crate::site::WindowPoint::new(
-                "xM, yM, zM, facingDeg",
-                "",
-                crate::site::Status::Existing,
+            let w = crate::site::WindowPoint {
+                id: "xM, yM, zM, facingDeg".into(),
+                name: String::new(),
+                status: crate::site::Status::Existing,
                 at,
-                i.z_m.unwrap_or(0.0),
-                f,
-                1.0,
-                1.0,
-            )
+                z_m: i.z_m.unwrap_or(0.0),
+                facing_deg: f,
+                opening_width_m: 1.0,
+                opening_height_m: 1.0,
+            }
+            .checked()
             .map_err(err)?;
             (w.view_point(), w.facing_deg)
         }
@@ -81,8 +82,8 @@ pub fn window_light(
     let step = i.azimuth_step_deg.unwrap_or(DEFAULT_AZIMUTH_STEP_DEG);
     let light = |massing| -> Result<LightOut, JsError> {
         let vsc = sky_component_pct(&model, point, SkyPlane::Vertical { facing_deg }, massing, step).map_err(err)?;
-        let sun = window_sun_hours(&model, point, facing_deg, &period, massing, DeltaT::EspenakMeeus, |_| true)
-            .map_err(err)?;
+        let aim = WindowAim { massing, ..WindowAim::at(point, facing_deg) };
+        let sun = window_sun_hours(&model, &aim, &period, DeltaT::EspenakMeeus, |_| true).map_err(err)?;
         Ok(LightOut { vsc_pct: vsc, sun_h: sun.sun_hours, open_sun_h: sun.front_hours, day_h: sun.day_hours })
     };
     #[derive(Serialize)]

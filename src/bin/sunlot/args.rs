@@ -178,7 +178,7 @@ pub struct WhenArgs {
     #[arg(long)]
     pub date: Option<String>,
     /// Step of the day table, minutes (1 to 720), counted from local midnight.
-    #[arg(long, default_value_t = 60)]
+    #[arg(long, default_value_t = sunlot::shadow::DEFAULT_TABLE_STEP_MIN)]
     pub step_min: u32,
 }
 

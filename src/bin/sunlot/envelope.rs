@@ -5,7 +5,7 @@ use clap::Args;
 use geo::MapCoords;
 use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
 use serde_json::json;
-use sunlot::envelope::{height_bands, solar_envelope, EnvelopeRequest};
+use sunlot::envelope::{height_bands, solar_envelope, Envelope, EnvelopeRequest};
 use sunlot::exposure::{map_stats, Grid, Period, Window, DEFAULT_MAX_CELLS};
 use sunlot::rules::CAUTION;
 
@@ -13,7 +13,8 @@ use crate::args::{self, DeltaTArgs};
 use crate::maps::{self, Layer, MapFiles, Picture};
 use crate::output::{Cell, Format, Table};
 use crate::progress::Bar;
-use crate::shadows::SiteFileArgs;
+use crate::shadows::{Loaded, SiteFileArgs};
+use sunlot::site::{Area, SiteModel};
 
 #[derive(Debug, Args)]
 pub struct EnvelopeArgs {
@@ -64,15 +65,7 @@ pub struct EnvelopeArgs {
 pub fn run(a: &EnvelopeArgs) -> Result<String, String> {
     let loaded = a.site.load()?;
     let model = &loaded.model;
-    let lot = maps::pick_areas(model, std::slice::from_ref(&a.lot), "--lot")?[0];
-    let protected: Vec<_> = if a.protect.is_empty() {
-        sunlot::envelope::default_protected(model, &lot.id)
-    } else {
-        maps::pick_areas(model, &a.protect, "--protect")?
-    };
-    if protected.is_empty() {
-        return Err("--protect: the site has no gardens, terraces or amenity areas to protect; name some".into());
-    }
+    let (lot, protected) = lot_and_protected(a, model)?;
     let first = args::date(&a.date, "--date")?;
     let last = a.to.as_deref().map_or(Ok(first), |t| args::date(t, "--to"))?;
     let window = if a.window == "daylight" { Window::Daylight } else { maps::window(&a.window, "--window")? };
@@ -90,17 +83,47 @@ pub fn run(a: &EnvelopeArgs) -> Result<String, String> {
     let mut bar = Bar::new("solar envelope", a.files.quiet);
     let env = solar_envelope(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
     drop(bar);
-    let stats = map_stats(&grid, &env.height_m, None, a.max_height_m).ok_or("the lot is smaller than one cell")?;
+    let period = req.period.describe();
     let names: Vec<&str> = protected.iter().map(|x| x.id.as_str()).collect();
-    let period = format!(
-        "{}{}, {}, {}-minute steps",
-        a.date,
-        a.to.as_deref().map_or(String::new(), |t| format!(" to {t}")),
-        a.window,
-        a.step_min
-    );
+    let title = format!("Solar envelope of {} keeping shadows off {} ({period})", lot.id, names.join(", "));
+    let mut t = summary(a, title, lot, &grid, &env)?;
+    let picture = Picture {
+        layer: 0,
+        unit: "height, m",
+        range: (0.0, maps::top_of(&env.height_m, a.height_step_m)),
+        title: sunlot::render::titled("Solar envelope", &model.name),
+        subtitle: period.clone(),
+    };
+    let cells_only = MapFiles { geojson: None, ..a.files.clone() };
+    let layers = [Layer { name: "height_m", values: &env.height_m }];
+    t.notes.extend(maps::write_files(&cells_only, &loaded, &grid, &layers, &picture)?);
+    if let Some(path) = &a.files.geojson {
+        write_bands(path, a, &loaded, &lot.id, &grid, &env, &period)?;
+        t.notes.push(format!("height bands written to {} (GeoJSON)", path.display()));
+    }
+    t.notes.push(CAUTION.into());
+    Ok(t.render(a.format))
+}
+
+/// The lot (`--lot`) and the areas its envelope keeps shadows off (`--protect`, else the default).
+fn lot_and_protected<'m>(a: &EnvelopeArgs, model: &'m SiteModel) -> Result<(&'m Area, Vec<&'m Area>), String> {
+    let lot = maps::pick_areas(model, std::slice::from_ref(&a.lot), "--lot")?[0];
+    let protected: Vec<_> = if a.protect.is_empty() {
+        sunlot::envelope::default_protected(model, &lot.id)
+    } else {
+        maps::pick_areas(model, &a.protect, "--protect")?
+    };
+    if protected.is_empty() {
+        return Err("--protect: the site has no gardens, terraces or amenity areas to protect; name some".into());
+    }
+    Ok((lot, protected))
+}
+
+/// The one-row summary of the envelope: cells, area, heights, volume, share at the cap, steps.
+fn summary(a: &EnvelopeArgs, title: String, lot: &Area, grid: &Grid, env: &Envelope) -> Result<Table, String> {
+    let stats = map_stats(grid, &env.height_m, None, a.max_height_m).ok_or("the lot is smaller than one cell")?;
     let mut t = Table::new(
-        format!("Solar envelope of {} keeping shadows off {} ({period})", lot.id, names.join(", ")),
+        title,
         vec![
             "lot",
             "cells",
@@ -130,50 +153,41 @@ pub fn run(a: &EnvelopeArgs) -> Result<String, String> {
         "Each {} m cell is a prism from the ground; heights rounded down to {} m, capped at {} m. Existing buildings' shade is not credited.",
         a.cell_m, a.height_step_m, a.max_height_m
     ));
-    let picture = Picture {
-        layer: 0,
-        unit: "height, m",
-        range: (0.0, maps::top_of(&env.height_m, a.height_step_m)),
-        title: sunlot::render::titled("Solar envelope", &model.name),
-        subtitle: period.clone(),
-    };
-    let cells_only = MapFiles { geojson: None, ..a.files.clone() };
-    t.notes.extend(maps::write_files(
-        &cells_only,
-        &loaded,
-        &grid,
-        &[Layer { name: "height_m", values: &env.height_m }],
-        &picture,
-    )?);
-    if let Some(path) = &a.files.geojson {
-        let frame = model.frame();
-        let features: Vec<Feature> = height_bands(&grid, &env, a.band_m)
-            .into_iter()
-            .map(|b| {
-                let outline = if loaded.from_geojson {
-                    b.outline.map_coords(|c| model.plan_to_wgs84(&frame, c))
-                } else {
-                    b.outline
-                };
-                let props = json!({"from_m": b.from_m, "to_m": b.to_m.min(a.max_height_m)});
-                Feature {
-                    geometry: Some(Geometry::new(GeometryValue::from(&outline))),
-                    properties: props.as_object().cloned(),
-                    ..Default::default()
-                }
-            })
-            .collect();
-        let mut fc = FeatureCollection::new(features);
-        let mut members = JsonObject::new();
-        members.insert(
-            "sunlot".into(),
-            json!({"map": "solar envelope height bands", "lot": lot.id, "period": period, "caution": CAUTION}),
-        );
-        fc.foreign_members = Some(members);
-        std::fs::write(path, serde_json::to_string(&fc).unwrap_or_default())
-            .map_err(|e| format!("{}: {e}", path.display()))?;
-        t.notes.push(format!("height bands written to {} (GeoJSON)", path.display()));
-    }
-    t.notes.push(CAUTION.into());
-    Ok(t.render(a.format))
+    Ok(t)
+}
+
+/// Writes the envelope's height bands (every `--band-m`) to `path` as GeoJSON: WGS 84 when the site
+/// came as GeoJSON, else plan metres.
+fn write_bands(
+    path: &std::path::Path,
+    a: &EnvelopeArgs,
+    loaded: &Loaded,
+    lot_id: &str,
+    grid: &Grid,
+    env: &Envelope,
+    period: &str,
+) -> Result<(), String> {
+    let model = &loaded.model;
+    let frame = model.frame();
+    let features: Vec<Feature> = height_bands(grid, env, a.band_m)
+        .into_iter()
+        .map(|b| {
+            let outline =
+                if loaded.from_geojson { b.outline.map_coords(|c| model.plan_to_wgs84(&frame, c)) } else { b.outline };
+            let props = json!({"from_m": b.from_m, "to_m": b.to_m.min(a.max_height_m)});
+            Feature {
+                geometry: Some(Geometry::new(GeometryValue::from(&outline))),
+                properties: props.as_object().cloned(),
+                ..Default::default()
+            }
+        })
+        .collect();
+    let mut fc = FeatureCollection::new(features);
+    let mut members = JsonObject::new();
+    members.insert(
+        "sunlot".into(),
+        json!({"map": "solar envelope height bands", "lot": lot_id, "period": period, "caution": CAUTION}),
+    );
+    fc.foreign_members = Some(members);
+    std::fs::write(path, serde_json::to_string(&fc).unwrap_or_default()).map_err(|e| format!("{}: {e}", path.display()))
 }

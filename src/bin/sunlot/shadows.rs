@@ -207,7 +207,7 @@ pub struct ShadowTableArgs {
     #[arg(long)]
     pub date: String,
     /// Step, minutes from local midnight (1 to 720).
-    #[arg(long, default_value_t = 60)]
+    #[arg(long, default_value_t = sunlot::shadow::DEFAULT_TABLE_STEP_MIN)]
     pub step_min: u32,
     #[command(flatten)]
     pub delta_t: DeltaTArgs,

@@ -1,7 +1,7 @@
 //! `sunlot timeline` and `sunlot year`: a point's day of sun and shade, and its months.
 
 use clap::Args;
-use sunlot::exposure::{day_timeline, year_profile};
+use sunlot::exposure::{day_timeline, year_profile, YearProfileRequest};
 
 use crate::args::{self, AirArgs, ClearSkyArgs, DeltaTArgs};
 use crate::output::{Cell, Format, Table};
@@ -91,17 +91,16 @@ pub fn run_year(a: &YearArgs) -> Result<String, String> {
     let year = a.year.unwrap_or_else(|| chrono::Datelike::year(&chrono::Utc::now()));
     let atm = a.sky.bird(a.air.pressure_hpa)?;
     let mut bar = Bar::new("year profile", a.quiet);
-    let y = year_profile(
-        &model,
-        p,
+    let req = YearProfileRequest {
+        model: &model,
+        point: p,
         year,
-        a.step_min,
-        crate::maps::massing(a.existing_only),
-        &atm,
-        a.delta_t.delta_t()?,
-        |f| bar.update(f),
-    )
-    .map_err(|e| e.to_string())?;
+        step_min: a.step_min,
+        massing: crate::maps::massing(a.existing_only),
+        atmosphere: atm,
+        delta_t: a.delta_t.delta_t()?,
+    };
+    let y = year_profile(&req, |f| bar.update(f)).map_err(|e| e.to_string())?;
     drop(bar);
     let mut t = Table::new(
         format!(

@@ -3,7 +3,7 @@
 
 use clap::Args;
 use sunlot::daylight::{sky_component_pct, SkyPlane, DEFAULT_AZIMUTH_STEP_DEG, UNOBSTRUCTED_VERTICAL_PCT};
-use sunlot::exposure::{window_sun_hours, Massing};
+use sunlot::exposure::{window_sun_hours, Massing, WindowAim};
 use sunlot::rules::CAUTION;
 
 use crate::args::DeltaTArgs;
@@ -68,8 +68,8 @@ pub fn run(a: &WindowArgs) -> Result<String, String> {
     let mut rows = Vec::new();
     for (name, massing) in [("existing", Massing::Existing), ("with proposal", Massing::WithProposed)] {
         let vsc = sky_component_pct(&model, p, plane, massing, a.azimuth_step_deg).map_err(|e| e.to_string())?;
-        let sun =
-            window_sun_hours(&model, p, facing_deg, &period, massing, delta_t, |_| true).map_err(|e| e.to_string())?;
+        let aim = WindowAim { massing, ..WindowAim::at(p, facing_deg) };
+        let sun = window_sun_hours(&model, &aim, &period, delta_t, |_| true).map_err(|e| e.to_string())?;
         out.rows.push(vec![
             Cell::text(name),
             Cell::num(vsc, 2),
