@@ -4,7 +4,7 @@
 // sun-hours map of the demo site (1 m cells, 15-minute steps, every area) in the page's Web Worker
 // against the same computation natively (`sunlot hours`, process start included), as a ratio.
 // Run from the repository root after ./dev wasm and cargo build --release: node benches/page_speed.mjs
-import { chromium } from "../e2e/node_modules/playwright-core/index.mjs";
+import { launch } from "../e2e/chromium.mjs";
 import { execFileSync } from "node:child_process";
 import { pathToFileURL } from "node:url";
 import path from "node:path";
@@ -13,9 +13,7 @@ const root = path.resolve(path.dirname(new URL(import.meta.url).pathname), "..")
 const url = pathToFileURL(path.join(root, "www", "index.html")).href;
 const median = v => { const s = [...v].sort((a, b) => a - b); return s[Math.floor(s.length / 2)]; };
 
-const browser = await chromium.launch({ executablePath: "/usr/bin/chromium",
-  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
-    "--disable-component-update", "--disable-sync", "--no-first-run"] });
+const browser = await launch();
 const loads = [], drawing = [], scripts = [], frames = [], year = [];
 for (let run = 0; run < 7; run++) {
   const context = await browser.newContext({ viewport: { width: 1400, height: 1000 } });

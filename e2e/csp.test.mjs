@@ -6,7 +6,7 @@
 // (securitypolicyviolation events and console reports), and on www/index.html the year's map must run
 // in its worker (served: the worker script file; from disk: a Blob URL). Run: node e2e/csp.test.mjs
 // (after ./dev wasm).
-import { chromium } from "playwright-core";
+import { launch } from "./chromium.mjs";
 import { createServer } from "node:http";
 import { readFile } from "node:fs/promises";
 import { readdirSync } from "node:fs";
@@ -32,11 +32,7 @@ const server = createServer(async (req, res) => {
 await new Promise(r => server.listen(0, "127.0.0.1", r));
 const base = `http://127.0.0.1:${server.address().port}`;
 
-const browser = await chromium.launch({
-  executablePath: "/usr/bin/chromium",
-  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
-         "--disable-component-update", "--disable-sync", "--no-first-run"],
-});
+const browser = await launch();
 const context = await browser.newContext({ viewport: { width: 1366, height: 768 } });
 await context.route("**/*", route => {
   const url = route.request().url();

@@ -4,7 +4,7 @@
 // that parses, and the rule-check table shows the figures of the CLI's `check` on the same site file.
 // A screenshot of each page goes to target/e2e/ as a test artefact.
 // Run: node e2e/demo_site.test.mjs (after ./dev wasm and a cargo build of the CLI).
-import { chromium } from "playwright-core";
+import { launch } from "./chromium.mjs";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { execFileSync, spawn } from "node:child_process";
 import { fileURLToPath, pathToFileURL } from "node:url";
@@ -16,11 +16,7 @@ mkdirSync(shots, { recursive: true });
 const failures = [];
 const check = (ok, what) => { console.log(`${ok ? "ok  " : "FAIL"} ${what}`); if (!ok) failures.push(what); };
 
-const browser = await chromium.launch({
-  executablePath: "/usr/bin/chromium",
-  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
-         "--disable-component-update", "--disable-sync", "--no-first-run"],
-});
+const browser = await launch();
 const context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1400, height: 1000 } });
 const blocked = [];
 await context.route("**/*", route => {

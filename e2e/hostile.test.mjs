@@ -6,29 +6,15 @@
 // message names the member mutated; it must never trap (`WebAssembly.RuntimeError`), never take more
 // than the hang limit, and the module must still give the right answer to a valid call afterwards.
 // Run: node e2e/hostile.test.mjs (after ./dev wasm). Prints the counts; exits 1 on any failure.
-import { chromium } from "playwright-core";
-import { fileURLToPath, pathToFileURL } from "node:url";
-import { mkdirSync, writeFileSync } from "node:fs";
-import path from "node:path";
+import { bundlePage, launch } from "./chromium.mjs";
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
-const out = path.join(root, "target", "e2e");
-mkdirSync(out, { recursive: true });
-const html = path.join(out, "hostile.html");
-writeFileSync(html, `<!doctype html><meta charset="utf-8"><title>hostile</title>
-<script src="${pathToFileURL(path.join(root, "www", "build", "sunlot.bundle.js")).href}"></script>`);
-
-const browser = await chromium.launch({
-  executablePath: "/usr/bin/chromium",
-  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
-         "--disable-component-update", "--disable-sync", "--no-first-run"],
-});
+const browser = await launch();
 const context = await browser.newContext();
 await context.route("**/*", route => route.request().url().startsWith("file:") ? route.continue() : route.abort());
 const page = await context.newPage();
 const console_errors = [];
 page.on("pageerror", e => console_errors.push(String(e)));
-await page.goto(pathToFileURL(html).href);
+await page.goto(bundlePage("hostile"));
 await page.waitForFunction(() => window.sunlot && window.sunlot.ready);
 
 const HANG_MS = 4000;

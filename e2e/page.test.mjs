@@ -5,7 +5,7 @@
 // produce files that parse (and the SVG renders like the canvas), import errors, restore on reload,
 // print, an embedding page, high-DPI, no network and no console errors. Screenshots go to
 // target/e2e/ as test artefacts. Run: node e2e/page.test.mjs (after ./dev wasm).
-import { chromium } from "playwright-core";
+import { launch } from "./chromium.mjs";
 import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import path from "node:path";
@@ -18,11 +18,7 @@ mkdirSync(shots, { recursive: true });
 const failures = [];
 const check = (ok, what) => { console.log(`${ok ? "ok  " : "FAIL"} ${what}`); if (!ok) failures.push(what); };
 
-const browser = await chromium.launch({
-  executablePath: "/usr/bin/chromium",
-  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
-         "--disable-component-update", "--disable-sync", "--no-first-run"],
-});
+const browser = await launch();
 const context = await browser.newContext({ acceptDownloads: true, viewport: { width: 1400, height: 1000 } });
 const blocked = [];
 await context.route("**/*", route => {

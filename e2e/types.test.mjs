@@ -5,26 +5,14 @@
 // www/pkg/sunlot.d.ts), and `tsc --strict` compiles the file. A member the result has and the
 // declaration lacks (excess property), a member declared and missing, or a wrong type fails the test.
 // Run: node e2e/types.test.mjs (after ./dev wasm). Exits 1 on any failure.
-import { chromium } from "playwright-core";
-import { fileURLToPath, pathToFileURL } from "node:url";
-import { mkdirSync, writeFileSync } from "node:fs";
+import { bundlePage, launch, out, root } from "./chromium.mjs";
+import { writeFileSync } from "node:fs";
 import { spawnSync } from "node:child_process";
 import path from "node:path";
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
-const out = path.join(root, "target", "e2e");
-mkdirSync(out, { recursive: true });
-const html = path.join(out, "types.html");
-writeFileSync(html, `<!doctype html><meta charset="utf-8"><title>types</title>
-<script src="${pathToFileURL(path.join(root, "www", "build", "sunlot.bundle.js")).href}"></script>`);
-
-const browser = await chromium.launch({
-  executablePath: "/usr/bin/chromium",
-  args: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-background-networking",
-         "--disable-component-update", "--disable-sync", "--no-first-run"],
-});
+const browser = await launch();
 const page = await browser.newPage();
-await page.goto(pathToFileURL(html).href);
+await page.goto(bundlePage("types"));
 await page.waitForFunction(() => window.sunlot && window.sunlot.ready);
 
 const made = await page.evaluate(async () => {

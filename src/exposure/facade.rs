@@ -69,8 +69,10 @@ impl Face {
     }
 }
 
-/// A site window drawn on a face: where along and up the face, and its opening.
-#[derive(Debug, Clone, PartialEq)]
+/// A site window drawn on a face: where along and up the face, and its opening. Serialized with
+/// snake_case keys and, in the wasm build, camelCase keys (the JavaScript facade's naming).
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
+#[cfg_attr(target_arch = "wasm32", serde(rename_all = "camelCase"))]
 pub struct FaceWindow {
     /// Window id.
     pub id: String,

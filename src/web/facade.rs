@@ -6,7 +6,7 @@ use wasm_bindgen::prelude::*;
 
 use super::defaults;
 use super::maps::{date, massing_of, window};
-use super::outputs::{FacadeMap, FaceCells, FaceWindow, FigureSize};
+use super::outputs::{FacadeMap, FaceCells, FigureSize};
 use super::{err, read, site, write};
 use crate::exposure::{facade_map, FacadeLayer, FacadeRequest, FaceMap, Massing, Period, SunSteps};
 use crate::render::{draw_elevation, elevation_size, Elevation};
@@ -97,8 +97,8 @@ fn figure<D: crate::render::Draw>(
 #[wasm_bindgen(js_name = facadeMap, unchecked_return_type = "FacadeMap")]
 pub fn facade_map_js(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input: JsValue) -> Result<JsValue, JsError> {
     let i: FacadeIn = read(input, "facadeMap")?;
-    let faces = compute(&i, false)?.faces;
-    let faces = faces
+    let maps = compute(&i, false)?.faces;
+    let faces = maps
         .iter()
         .map(|f| FaceCells {
             number: f.face.number,
@@ -110,20 +110,10 @@ pub fn facade_map_js(#[wasm_bindgen(unchecked_param_type = "FacadeInput")] input
             top_m: f.face.top_m,
             cols: f.cols,
             rows: f.rows,
-            sun_hours: f.sun_hours.clone(),
-            beam_kwh_m2: f.beam_kwh_m2.clone(),
-            diffuse_kwh_m2: f.diffuse_kwh_m2.clone(),
-            windows: f
-                .windows
-                .iter()
-                .map(|w| FaceWindow {
-                    id: w.id.clone(),
-                    along_m: w.along_m,
-                    z_m: w.z_m,
-                    width_m: w.width_m,
-                    height_m: w.height_m,
-                })
-                .collect(),
+            sun_hours: &f.sun_hours,
+            beam_kwh_m2: &f.beam_kwh_m2,
+            diffuse_kwh_m2: &f.diffuse_kwh_m2,
+            windows: &f.windows,
         })
         .collect();
     write(&FacadeMap { faces, caution: crate::rules::CAUTION })

@@ -229,22 +229,11 @@ pub(super) struct SiteSummary {
     pub site_json: String,
 }
 
-/// A window on a face, metres along the face from its left end seen from outside and up from the ground.
-#[derive(Serialize)]
-#[serde(rename_all = "camelCase")]
-pub(super) struct FaceWindow {
-    pub id: String,
-    pub along_m: f64,
-    pub z_m: f64,
-    pub width_m: f64,
-    pub height_m: f64,
-}
-
 /// One face of a facade map with its cells, row-major from the bottom row, columns from the face's left
 /// end seen from outside.
 #[derive(Serialize)]
 #[serde(rename_all = "camelCase")]
-pub(super) struct FaceCells {
+pub(super) struct FaceCells<'a> {
     pub number: usize,
     pub facing_deg: f64,
     pub compass: &'static str,
@@ -254,16 +243,17 @@ pub(super) struct FaceCells {
     pub top_m: f64,
     pub cols: usize,
     pub rows: usize,
-    pub sun_hours: Vec<f64>,
-    pub beam_kwh_m2: Vec<f64>,
-    pub diffuse_kwh_m2: Vec<f64>,
-    pub windows: Vec<FaceWindow>,
+    pub sun_hours: &'a [f64],
+    pub beam_kwh_m2: &'a [f64],
+    pub diffuse_kwh_m2: &'a [f64],
+    /// The site's windows on the face (the core's [`crate::exposure::FaceWindow`]).
+    pub windows: &'a [crate::exposure::FaceWindow],
 }
 
 /// `facadeMap`: a building's faces with their cells, and the caution.
 #[derive(Serialize)]
-pub(super) struct FacadeMap {
-    pub faces: Vec<FaceCells>,
+pub(super) struct FacadeMap<'a> {
+    pub faces: Vec<FaceCells<'a>>,
     pub caution: &'static str,
 }
 
