@@ -38,6 +38,7 @@ pub mod site;
 pub mod sky;
 pub mod solar;
 pub mod time;
+pub mod view3d;
 
 #[cfg(target_arch = "wasm32")]
 pub mod web;
