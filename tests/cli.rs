@@ -780,3 +780,43 @@ fn too_many_sky_dates_name_the_dates_flag() {
     let e = stderr(&o);
     assert!(e.contains("--dates: 70 day paths is more than the limit of 64") && !e.contains("--at"), "{e}");
 }
+
+/// `sunlot view` writes the 3-D view as PNG and SVG, says how many faces it drew, and refuses a view
+/// without a file, a camera out of range, and a sloping site, naming the option.
+#[test]
+fn view_writes_the_3d_view_and_names_bad_options() {
+    let dir = std::env::temp_dir().join(format!("sunlot-view-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let (png, svg) = (dir.join("v.png"), dir.join("v.svg"));
+    let o = sunlot(
+        &[
+            "view",
+            "--demo",
+            "--local",
+            "2026-06-21T09:00",
+            "--png",
+            png.to_str().unwrap(),
+            "--svg",
+            svg.to_str().unwrap(),
+        ],
+        None,
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    assert!(stdout(&o).contains("faces drawn as"), "{}", stdout(&o));
+    assert_eq!(&std::fs::read(&png).unwrap()[1..4], b"PNG");
+    let text = std::fs::read_to_string(&svg).unwrap();
+    assert!(text.starts_with("<svg") && text.contains("Massing and shadows at 2026-06-21 09:00"), "{}", &text[..200]);
+    let o = sunlot(&["view", "--demo", "--local", "2026-06-21T09:00"], None);
+    assert!(!o.status.success() && stderr(&o).contains("--png FILE or --svg FILE"), "{}", stderr(&o));
+    let o = sunlot(
+        &["view", "--demo", "--local", "2026-06-21T09:00", "--view-elevation-deg", "2", "--svg", svg.to_str().unwrap()],
+        None,
+    );
+    assert!(stderr(&o).contains("--view-elevation-deg: must be 5 to 90 degrees, got 2"), "{}", stderr(&o));
+    let o = sunlot(
+        &["view", "--demo", "--local", "2026-06-21T09:00", "--perspective-m", "0.1", "--svg", svg.to_str().unwrap()],
+        None,
+    );
+    assert!(stderr(&o).contains("--perspective-m: must be 1 m to 100 km"), "{}", stderr(&o));
+    let _ = std::fs::remove_dir_all(&dir);
+}

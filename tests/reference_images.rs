@@ -67,6 +67,23 @@ const FIGURES: &[(&str, &[&str])] = &[
             "tests/fixtures/strict_garden_rule.json",
         ],
     ),
+    // The 3-D view: a parallel view from the south-west and a perspective from the north-east.
+    ("massing-view", &["view", "--demo", "--local", "2026-03-21T15:00"]),
+    (
+        "massing-view-perspective",
+        &[
+            "view",
+            "--demo",
+            "--local",
+            "2026-03-21T10:00",
+            "--view-from-deg",
+            "40",
+            "--view-elevation-deg",
+            "30",
+            "--perspective-m",
+            "120",
+        ],
+    ),
     (
         "envelope",
         &[

@@ -21,6 +21,7 @@ mod seasons;
 mod shadows;
 mod sky;
 mod timeline;
+mod view;
 mod window;
 
 use std::io::Write;
@@ -72,6 +73,9 @@ enum Command {
     Facade(facade::FacadeArgs),
     /// The sun-path diagram of a site (PNG or SVG), with the skyline seen from a point.
     Sky(sky::SkyArgs),
+    /// A 3-D view of a site's massing at a moment (PNG or SVG): faces shaded by the sun, exact shadows
+    /// on the ground, roofs and walls.
+    View(view::ViewArgs),
     /// Convert a site between sunlot's site file and GeoJSON.
     Convert(shadows::ConvertArgs),
     /// Whether a point of a site (a window, a balcony) is in direct sun, and the skyline it sees.
@@ -111,6 +115,7 @@ fn main() -> ExitCode {
         Command::Window(a) => window::run(a),
         Command::Facade(a) => facade::run(a),
         Command::Sky(a) => sky::run(a),
+        Command::View(a) => view::run(a),
         Command::Convert(a) => shadows::run_convert(a),
         Command::Point(a) => point::run(a),
         Command::Demo(a) => demo::run(a),

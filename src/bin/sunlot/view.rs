@@ -1,0 +1,96 @@
+//! `sunlot view`: the 3-D view of a site's massing at a moment, faces shaded by the sun and the
+//! shadows exact on the ground, roofs and walls, written as PNG or SVG.
+
+use std::path::PathBuf;
+
+use clap::Args;
+use sunlot::render::{draw_massing_view, MassingView, VIEW_PX};
+use sunlot::view3d::{check_camera, Camera, MassingScene, Projection, V3};
+
+use crate::args::{self, DeltaTArgs, Fold};
+use crate::shadows::{Loaded, SiteFileArgs};
+
+/// Where the viewer stands by default, degrees clockwise from the plan's north, and how high.
+const FROM_DEG: f64 = 210.0;
+const ELEVATION_DEG: f64 = 35.0;
+
+#[derive(Debug, Args)]
+pub struct ViewArgs {
+    #[command(flatten)]
+    pub site: SiteFileArgs,
+    /// The moment, RFC 3339 with an offset.
+    #[arg(long, conflicts_with = "local")]
+    pub time: Option<String>,
+    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in the site's zone.
+    #[arg(long, required_unless_present = "time")]
+    pub local: Option<String>,
+    /// For a local time that occurs twice (clocks going back): which one is meant.
+    #[arg(long, value_enum)]
+    pub fold: Option<Fold>,
+    #[command(flatten)]
+    pub delta_t: DeltaTArgs,
+    /// Where the viewer stands, degrees clockwise from the plan's north (180: looking north).
+    #[arg(long, default_value_t = FROM_DEG, allow_negative_numbers = true)]
+    pub view_from_deg: f64,
+    /// How far above the horizon the viewer looks down from, degrees (5 to 90).
+    #[arg(long, default_value_t = ELEVATION_DEG)]
+    pub view_elevation_deg: f64,
+    /// A perspective from this many metres from the site's centre (default: a parallel, axonometric
+    /// view).
+    #[arg(long, value_name = "METRES")]
+    pub perspective_m: Option<f64>,
+    /// Write the view as PNG here.
+    #[arg(long, value_name = "FILE")]
+    pub png: Option<PathBuf>,
+    /// Write the view as SVG here.
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<PathBuf>,
+}
+
+pub fn run(a: &ViewArgs) -> Result<String, String> {
+    if a.png.is_none() && a.svg.is_none() {
+        return Err("give --png FILE or --svg FILE for the view".into());
+    }
+    let Loaded { model, .. } = a.site.load()?;
+    let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: a.fold };
+    let (t, zone) =
+        args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
+    let scene = MassingScene::of(&model).map_err(|e| e.to_string())?;
+    let centre = sunlot::view3d::scene::extent(&model).map_or(V3::new(0.0, 0.0, 0.0), |r| {
+        let c = r.center();
+        V3::new(c.x, c.y, 0.0)
+    });
+    let projection = a.perspective_m.map_or(Projection::Parallel, |distance_m| Projection::Perspective { distance_m });
+    let camera =
+        Camera { azimuth_deg: a.view_from_deg, elevation_deg: a.view_elevation_deg, projection, target: centre };
+    check_camera(&camera).map_err(|e| match e {
+        sunlot::view3d::ViewError::Camera { field, range, value } => {
+            let option = match field {
+                "azimuth_deg" => "--view-from-deg",
+                "elevation_deg" => "--view-elevation-deg",
+                _ => "--perspective-m",
+            };
+            format!("{option}: must be {range}, got {value}")
+        }
+        other => other.to_string(),
+    })?;
+    let sun = sunlot::solar_position(&model.location, t, &Default::default(), a.delta_t.delta_t()?)
+        .map_err(|e| e.to_string())?;
+    let view = MassingView::at(&model, &scene, Some((sun.azimuth_deg, sun.altitude_deg)), camera, &zone.label(t));
+    let mut notes = crate::figure::write_figure(VIEW_PX, a.png.as_deref(), a.svg.as_deref(), "3-D view", |d| {
+        draw_massing_view(d, &view);
+        Ok(())
+    })?;
+    let mut out = format!("3-D view of {} at {}\n", model.name, args::rfc3339(t, &zone));
+    out.push_str(&format!("  {}\n", view.subtitle));
+    out.push_str(&format!(
+        "  {} faces drawn as {} fragments (split where they cross, for the order of drawing)\n",
+        scene.faces.len(),
+        scene.bsp.fragments()
+    ));
+    notes.push(sunlot::rules::CAUTION.into());
+    for n in notes {
+        out.push_str(&format!("{n}\n"));
+    }
+    Ok(out)
+}
