@@ -137,6 +137,13 @@
             `${d.name} (${d.date}), ${time}`, ["png", "svg", "geojson"], site).drawn);
         }
       }
+      // A row in 3-D: the same days at 15:00, seen from the south-west, the shadows on the neighbours'
+      // walls and roofs as well as on the ground.
+      const views = $("views");
+      for (const d of days) {
+        drawn.push(figure(views, "sunlot-massing", { id: `massing-${d.date}`, date: d.date, time: "15:00" },
+          `${d.name} (${d.date}), 15:00, in 3-D (drag to walk round)`, ["png", "svg"], site).drawn);
+      }
       for (const d of days) {
         const rows = m.shadowTable({ site, date: d.date, stepMin: 60 }).map(r => [hhmm(r.time), fixed(r.altitudeDeg),
           fixed(r.azimuthDeg), fixed(r.shadowLengthMPerM, 2), fixed(r.shadowAzimuthDeg), fixed(r.tipsM["proposal-upper"], 1),
@@ -187,23 +194,35 @@
     },
 
     async interactive(m, site) {
-      const plan = $("plan"), sky = $("sky");
+      const plan = $("plan"), sky = $("sky"), massing = $("massing");
       const moment = () => {
         const t = Number($("time").value);
         return [$("date").value, `${String(Math.floor(t / 60)).padStart(2, "0")}:${String(t % 60).padStart(2, "0")}`];
       };
-      const redraw = () => { const [d, t] = moment(); $("time-label").textContent = t; plan.setMoment(d, t); sky.setMoment(d, t); };
+      const redraw = () => {
+        const [d, t] = moment();
+        $("time-label").textContent = t;
+        for (const w of [plan, sky, massing]) w.setMoment(d, t);
+      };
       for (const id of ["date", "time"]) $(id).addEventListener("input", redraw);
-      plan.addEventListener("sunlot-edit", e => { sky.setSite(e.detail.site); $("undo").disabled = !plan.canUndo; $("redo").disabled = !plan.canRedo; });
+      plan.addEventListener("sunlot-edit", e => {
+        sky.setSite(e.detail.site);
+        massing.setSite(e.detail.site);
+        $("undo").disabled = !plan.canUndo;
+        $("redo").disabled = !plan.canRedo;
+      });
+      massing.addEventListener("sunlot-error", e => showError(e.detail.message));
       plan.addEventListener("sunlot-point", e => { sky.setPoint(Number(e.detail.xM.toFixed(1)), Number(e.detail.yM.toFixed(1)), 1.5); });
       plan.addEventListener("sunlot-error", e => showError(e.detail.message));
       $("undo").addEventListener("click", () => plan.undo());
       $("redo").addEventListener("click", () => plan.redo());
       $("draw").addEventListener("click", () => { plan.startDrawing("volumes"); plan.canvas.focus(); });
       $("raise").addEventListener("click", () => { plan.select("volumes", "proposal-upper"); plan.setFields({ top_m: Number($("top").value) }); });
-      for (const [w, kinds] of [[plan, ["png", "svg", "geojson"]], [sky, ["png", "svg"]]]) w.parentElement.querySelector("figcaption").append(exports(w, w.id, kinds));
-      await Promise.all([plan.ready, sky.ready]);
-      await Promise.all([plan.setSite(site, false), sky.setSite(site, false)]);
+      for (const [w, kinds] of [[plan, ["png", "svg", "geojson"]], [sky, ["png", "svg"]], [massing, ["png", "svg"]]]) {
+        w.parentElement.querySelector("figcaption").append(exports(w, w.id, kinds));
+      }
+      await Promise.all([plan.ready, sky.ready, massing.ready]);
+      await Promise.all([plan.setSite(site, false), sky.setSite(site, false), massing.setSite(site, false)]);
       redraw();
     },
   };

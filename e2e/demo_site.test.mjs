@@ -52,7 +52,7 @@ for (const name of pages) {
   await page.waitForFunction(() => document.body.dataset.ready, null, { timeout: 120000 });
   check(await page.evaluate(() => document.body.dataset.ready) === "yes" && await page.isHidden("#error"),
     `${name}: loads from file:// and starts`);
-  const inks = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map, canvas.facade, canvas.rule-plan")).map(w => {
+  const inks = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map, sunlot-massing, canvas.facade, canvas.rule-plan")).map(w => {
     const c = w.canvas || w, d = c.getContext("2d").getImageData(0, 0, c.width, c.height).data;
     let ink = 0;
     for (let i = 0; i < d.length; i += 4) if (d[i] < 200 || d[i + 1] < 200 || d[i + 2] < 200) ink++;
@@ -61,7 +61,7 @@ for (const name of pages) {
   check(inks.length > 0 && inks.every(([, ink]) => ink > 20000),
     `${name}: every widget draws (${inks.map(([id, ink]) => `${id} ${ink}`).join(", ")})`);
   // Each widget laid out for the width it is shown at: its 13-px labels show at 9.5 CSS px or more.
-  const small = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map"))
+  const small = await page.evaluate(() => Array.from(document.querySelectorAll("sunlot-sky, sunlot-plan, sunlot-map, sunlot-massing"))
     .map(w => [w.id, 13 * w.canvas.getBoundingClientRect().width / w.size.width]).filter(([, px]) => px < 9.5));
   check(small.length === 0, `${name}: figure text readable as shown (${small.map(([id, px]) => `${id} ${px.toFixed(1)} px`).join(", ") || "all ≥ 9.5 px"})`);
   const buttons = await page.$$eval("[data-export]", bs => bs.map(b => b.dataset.export));

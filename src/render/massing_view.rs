@@ -27,16 +27,42 @@ const FENCE: Colour = Colour::rgb(196, 170, 140);
 const EDGE: Colour = Colour { r: 30, g: 30, b: 30, a: 150 };
 const SUN: Colour = Colour::rgb(214, 140, 0);
 
+/// The sun on a scene at a moment: each face's light, and the sun (plan azimuth, altitude, degrees;
+/// `None` when it is down and everything is in shade). Computed once per moment, drawn from any camera.
+#[derive(Debug, Clone)]
+pub struct MassingLight {
+    pub faces: Vec<FaceLight>,
+    pub sun: Option<(f64, f64)>,
+    /// The sun in words, true azimuth and altitude.
+    pub sun_words: String,
+}
+
+impl MassingLight {
+    /// The light on `scene` (of `model`) with the sun at true azimuth and apparent altitude `sun_deg`.
+    pub fn at(model: &SiteModel, scene: &MassingScene, (azimuth_deg, altitude_deg): (f64, f64)) -> Self {
+        if altitude_deg > 0.0 {
+            let az = model.plan_azimuth_deg(azimuth_deg);
+            MassingLight {
+                faces: crate::view3d::light_faces(model, &scene.faces, az, altitude_deg),
+                sun: Some((az, altitude_deg)),
+                sun_words: format!("sun at azimuth {azimuth_deg:.1}°, altitude {altitude_deg:.1}°"),
+            }
+        } else {
+            MassingLight {
+                faces: scene.faces.iter().map(|f| FaceLight { lambert: 0.0, shadow: f.shape.clone() }).collect(),
+                sun: None,
+                sun_words: "the sun is below the horizon: no direct sun".into(),
+            }
+        }
+    }
+}
+
 /// A view to draw: the scene, the light on its faces at the moment, the viewer, and the words.
 #[derive(Debug)]
 pub struct MassingView<'a> {
     pub model: &'a SiteModel,
     pub scene: &'a MassingScene,
-    /// The light on each face of the scene (from [`crate::view3d::light_faces`]), or none when the
-    /// sun is down (everything in shade).
-    pub light: Vec<FaceLight>,
-    /// The sun, plan azimuth and altitude, degrees; `None` when it is down.
-    pub sun: Option<(f64, f64)>,
+    pub light: &'a MassingLight,
     pub camera: Camera,
     pub title: String,
     pub subtitle: String,
@@ -44,33 +70,24 @@ pub struct MassingView<'a> {
 }
 
 impl<'a> MassingView<'a> {
-    /// The view of `scene` (of `model`) with the sun at true azimuth and apparent altitude `sun_deg`
-    /// (`None`: below the horizon), from `camera`, at the moment called `when`.
+    /// The view of `scene` (of `model`) in `light`, from `camera`, at the moment called `when`.
     pub fn at(
         model: &'a SiteModel,
         scene: &'a MassingScene,
-        sun_deg: Option<(f64, f64)>,
+        light: &'a MassingLight,
         camera: Camera,
         when: &str,
     ) -> Self {
-        let up = sun_deg.filter(|&(_, alt)| alt > 0.0).map(|(az, alt)| (model.plan_azimuth_deg(az), alt));
-        let light = match up {
-            Some((az, alt)) => crate::view3d::light_faces(model, &scene.faces, az, alt),
-            None => scene.faces.iter().map(|f| FaceLight { lambert: 0.0, shadow: f.shape.clone() }).collect(),
-        };
-        let subtitle = match sun_deg {
-            Some((az, alt)) if alt > 0.0 => format!(
-                "sun at azimuth {az:.1}°, altitude {alt:.1}°; seen from {:.0}°, {:.0}° above the horizon",
-                camera.azimuth_deg.rem_euclid(360.0),
-                camera.elevation_deg
-            ),
-            _ => "the sun is below the horizon: no direct sun".to_string(),
-        };
+        let subtitle = format!(
+            "{}; seen from {:.0}°, {:.0}° above the horizon",
+            light.sun_words,
+            camera.azimuth_deg.rem_euclid(360.0),
+            camera.elevation_deg
+        );
         MassingView {
             model,
             scene,
             light,
-            sun: up,
             camera,
             title: super::titled(&format!("Massing and shadows at {when}"), &model.name),
             subtitle,
@@ -158,7 +175,7 @@ pub fn draw_massing_view(d: &mut dyn Draw, v: &MassingView) {
     let fit = fit(v, (24.0, top + 8.0, key_x - 48.0, (bottom - top - 16.0).max(10.0)));
     draw_faces(d, v, &fit);
     draw_north(d, v, &fit);
-    if let Some(sun) = v.sun {
+    if let Some(sun) = v.light.sun {
         draw_sun(d, v, &fit, sun);
     }
     draw_key(d, v, key_x, top);
@@ -171,7 +188,7 @@ fn draw_faces(d: &mut dyn Draw, v: &MassingView, fit: &Fit) {
     for frag in v.scene.bsp.back_to_front(v.camera.eye()) {
         let face = &v.scene.faces[frag.face];
         let base = base_colour(v.model, face.kind, &face.owner, face.status);
-        let light = &v.light[frag.face];
+        let light = &v.light.faces[frag.face];
         let lit = times(base, LIT_FLOOR + (1.0 - LIT_FLOOR) * light.lambert);
         let dark = times(base, IN_SHADOW);
         let rings = rings_px(v, fit, frag.face, &frag.shape);
@@ -329,7 +346,7 @@ fn draw_key(d: &mut dyn Draw, v: &MassingView, x: f64, top: f64) {
         }
         y += 6.0;
     }
-    if v.sun.is_some() {
+    if v.light.sun.is_some() {
         d.stroke(&[(x, y), (x + 22.0, y)], 1.6, SUN, false);
         d.text(x + 30.0, y + 4.0, LABEL_PX, "sunlight", INK, Anchor::Start);
     }

@@ -35,7 +35,7 @@ pub use hatch::hatch_segments;
 pub use heat_map::{draw_heat_map, HeatMap, FIGURE_PX};
 pub use labels::LabelPlacer;
 pub use layer::{draw_cells, draw_legend, MapLayer, LEGEND_PX};
-pub use massing_view::{draw_massing_view, MassingView, VIEW_PX};
+pub use massing_view::{draw_massing_view, MassingLight, MassingView, VIEW_PX};
 #[cfg(not(target_arch = "wasm32"))]
 pub use pixmap::{rasterise_svg, Pixmap, Raster, RasterError};
 pub use plan::{site_bounds, site_outlines, Outline, OutlineKind, PlanFrame};

@@ -266,7 +266,7 @@ fn browser_png(image: &Image) -> Option<String> {
 }
 
 /// A local wall time `YYYY-MM-DDTHH:MM` in the site's zone (the earlier of a repeated time).
-fn local_instant(model: &crate::site::SiteModel, t: &str) -> Result<chrono::DateTime<chrono::Utc>, JsError> {
+pub(crate) fn local_instant(model: &crate::site::SiteModel, t: &str) -> Result<chrono::DateTime<chrono::Utc>, JsError> {
     let bad = |e: String| JsError::new(&format!("localTime: {e}"));
     let wall = chrono::NaiveDateTime::parse_from_str(t, "%Y-%m-%dT%H:%M")
         .map_err(|_| bad(format!("{t:?} is not YYYY-MM-DDTHH:MM")))?;

@@ -14,6 +14,7 @@ mod facade;
 mod kinds;
 mod layer;
 mod maps;
+mod massing;
 mod outputs;
 mod rules;
 mod studies;
@@ -26,6 +27,7 @@ pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
     compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js, sun_hours_map,
 };
+pub use massing::MassingViewer;
 pub use rules::{check_rule_js, check_windows_js, rule_presets};
 pub use studies::{shadow_table_js, sky_view_js, year_profile_js};
 pub use window::window_light;

@@ -96,6 +96,8 @@ export interface ShadowTableRow { time: string; altitudeDeg: number; azimuthDeg:
   shadowAzimuthDeg: number; tipsM: Record<string, number>; }
 /** CSS hex colours #rrggbb. */
 export interface Palette { ink?: string; paper?: string; proposed?: string; }
+export interface MassingViewInput { localTime: string; fromDeg: number; elevationDeg: number; perspectiveM?: number;
+  palette?: Palette; }
 export interface PlanInput { site: SiteText; localTime: string; view?: { xM: number; yM: number; widthM: number }; palette?: Palette; }
 export interface PlanFrame { xAtLeftM: number; yAtTopM: number; pxPerM: number; box: [number, number, number, number]; }
 export interface SkyInput { site: SiteText; year: number; localTime?: string; dates?: string[]; xM?: number; yM?: number;

@@ -7,6 +7,7 @@ import { fittedSize, printedSize } from "./helpers.mjs";
 /** Design sizes, pixels: exports are drawn at them. */
 export const FIGURE = { width: 960, height: 760 };
 export const SKY = { width: 900, height: 720 };
+export const MASSING = { width: 960, height: 720 };
 
 /** Hands `blob` to the browser as a download called `name`. */
 export function download(name, blob) {

@@ -19,8 +19,8 @@ const hideError = () => { $("error").hidden = true; };
 
 sunlot.ready.then(async module => {
   measured.module = performance.now();
-  const plan = $("plan"), sky = $("sky"), mapEl = $("map");
-  await Promise.all([plan, sky, mapEl].map(el => el.ready));
+  const plan = $("plan"), sky = $("sky"), mapEl = $("map"), massing = $("massing");
+  await Promise.all([plan, sky, mapEl, massing].map(el => el.ready));
   // The menu of maps: the core's kinds that offer themselves there.
   const kinds = new Map(module.mapKinds().map(k => [k.id, k]));
   $("layer").replaceChildren(...[...kinds.values()].filter(k => k.menu)
@@ -77,7 +77,7 @@ sunlot.ready.then(async module => {
     const said = $("assumptions");
     said.replaceChildren(...next.assumptions.map(a => Object.assign(document.createElement("li"), { textContent: a })));
     said.hidden = next.assumptions.length === 0;
-    await Promise.all([plan.setSite(site), sky.setSite(site), mapEl.setSite(site)]);
+    await Promise.all([plan.setSite(site), sky.setSite(site), mapEl.setSite(site), massing.setSite(site)]);
     refreshMap();
   }
 
@@ -123,6 +123,7 @@ sunlot.ready.then(async module => {
       sky.setProjection($("projection").value, false);
       plan.setMoment(date, time);
       sky.setMoment(date, time);
+      massing.setMoment(date, time);
       summary();
       titleBlock(date, time);
     } catch (e) { showError(e); }
@@ -185,11 +186,15 @@ sunlot.ready.then(async module => {
     $("point").value = `${e.detail.xM.toFixed(1)},${e.detail.yM.toFixed(1)},${z}`;
     redraw();
   });
-  plan.addEventListener("sunlot-time", e => {
-    $("time").value = String(Number(e.detail.time.slice(0, 2)) * 60 + Number(e.detail.time.slice(3, 5)));
-    redraw();
-  });
-  for (const el of [plan, sky, mapEl]) el.addEventListener("sunlot-error", e => showError(e.detail.message));
+  for (const el of [plan, massing]) {
+    el.addEventListener("sunlot-time", e => {
+      $("time").value = String(Number(e.detail.time.slice(0, 2)) * 60 + Number(e.detail.time.slice(3, 5)));
+      redraw();
+    });
+  }
+  $("massing-perspective").addEventListener("change", () =>
+    massing.setView({ perspectiveM: $("massing-perspective").checked ? 120 : null }));
+  for (const el of [plan, sky, mapEl, massing]) el.addEventListener("sunlot-error", e => showError(e.detail.message));
 
   document.querySelectorAll("[data-export]").forEach(b => b.addEventListener("click", async () => {
     const [which, kind] = b.dataset.export.split("-");
@@ -256,7 +261,7 @@ sunlot.ready.then(async module => {
     site = e.detail.site;
     info = module.readSite(site);
     keep(site);
-    await Promise.all([sky.setSite(site), mapEl.setSite(site)]);
+    await Promise.all([sky.setSite(site), mapEl.setSite(site), massing.setSite(site)]);
     showFeature();
     updateEditButtons();
     try { summary(); } catch (err) { showError(err); }
@@ -354,6 +359,9 @@ sunlot.ready.then(async module => {
     const t0 = performance.now();
     plan.setMoment(date, time);
     measured.frameTimes.push(performance.now() - t0);
+    const t1 = performance.now();
+    massing.setMoment(date, time);
+    (measured.massingFrameTimes ||= []).push(performance.now() - t1);
     requestAnimationFrame(frame);
   };
   $("play").addEventListener("click", () => {
@@ -365,7 +373,8 @@ sunlot.ready.then(async module => {
 
   showSiteName("");
   const t0 = performance.now();
-  await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false)]);
+  await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false),
+    massing.setSite(site, false)]);
   redraw();
   measured.firstDrawMs = performance.now() - t0;
   measured.readyMs = performance.now(); // since navigation began

@@ -4,7 +4,7 @@
 use std::path::PathBuf;
 
 use clap::Args;
-use sunlot::render::{draw_massing_view, MassingView, VIEW_PX};
+use sunlot::render::{draw_massing_view, MassingLight, MassingView, VIEW_PX};
 use sunlot::view3d::{check_camera, Camera, MassingScene, Projection, V3};
 
 use crate::args::{self, DeltaTArgs, Fold};
@@ -76,7 +76,8 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
     })?;
     let sun = sunlot::solar_position(&model.location, t, &Default::default(), a.delta_t.delta_t()?)
         .map_err(|e| e.to_string())?;
-    let view = MassingView::at(&model, &scene, Some((sun.azimuth_deg, sun.altitude_deg)), camera, &zone.label(t));
+    let light = MassingLight::at(&model, &scene, (sun.azimuth_deg, sun.altitude_deg));
+    let view = MassingView::at(&model, &scene, &light, camera, &zone.label(t));
     let mut notes = crate::figure::write_figure(VIEW_PX, a.png.as_deref(), a.svg.as_deref(), "3-D view", |d| {
         draw_massing_view(d, &view);
         Ok(())

@@ -1,0 +1,119 @@
+//! The 3-D view for pages (wasm32 only): a site's scene built once (its faces and their partition),
+//! the light kept for the last moment drawn, so orbiting redraws without recomputing the shadows and
+//! stepping the time recomputes only them.
+
+use serde::Deserialize;
+use wasm_bindgen::prelude::*;
+
+use super::canvas::{local_instant, svg_surface};
+use super::{err, read};
+use crate::render::{draw_massing_view, MassingLight, MassingView, Restyle};
+use crate::site::SiteModel;
+use crate::time::DeltaT;
+use crate::view3d::{check_camera, Camera, MassingScene, Projection, V3};
+
+/// What a view draws.
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct ViewIn {
+    /// Local wall time `YYYY-MM-DDTHH:MM` in the site's zone.
+    local_time: String,
+    /// Where the viewer stands, degrees clockwise from the plan's north.
+    from_deg: f64,
+    /// How far above the horizon the viewer looks down from, degrees (5–90).
+    elevation_deg: f64,
+    /// A perspective from this many metres (default: parallel).
+    perspective_m: Option<f64>,
+    #[serde(default)]
+    palette: super::layer::PaletteIn,
+}
+
+/// A site's 3-D view: `new MassingViewer(siteText)`, then `draw(canvas, input)` as often as the
+/// viewer moves or the time changes.
+#[wasm_bindgen]
+pub struct MassingViewer {
+    model: SiteModel,
+    scene: MassingScene,
+    centre: V3,
+    /// The last moment's local time and its light.
+    lit: Option<(String, String, MassingLight)>,
+}
+
+#[wasm_bindgen]
+impl MassingViewer {
+    /// The viewer of a site (site file or GeoJSON text); throws an `Error` naming what is wrong (a
+    /// sloping ground is refused).
+    #[wasm_bindgen(constructor)]
+    pub fn new(#[wasm_bindgen(unchecked_param_type = "string")] site: JsValue) -> Result<MassingViewer, JsError> {
+        let text = super::text_arg(&site, "site")?;
+        let model = super::site(&text)?;
+        let scene = MassingScene::of(&model).map_err(err)?;
+        let centre = crate::view3d::scene::extent(&model).map_or(V3::new(0.0, 0.0, 0.0), |r| {
+            let c = r.center();
+            V3::new(c.x, c.y, 0.0)
+        });
+        Ok(MassingViewer { model, scene, centre, lit: None })
+    }
+
+    /// Faces after the partition's splits (what each frame draws).
+    #[wasm_bindgen(getter)]
+    pub fn fragments(&self) -> usize {
+        self.scene.bsp.fragments()
+    }
+
+    /// Draws the view onto `canvas` (its size as set); the light is reused while `localTime` stays.
+    pub fn draw(
+        &mut self,
+        canvas: &web_sys::HtmlCanvasElement,
+        #[wasm_bindgen(unchecked_param_type = "MassingViewInput")] input: JsValue,
+    ) -> Result<(), JsError> {
+        let mut surface = super::Canvas::new(canvas)?;
+        let i: ViewIn = read(input, "MassingViewer.draw")?;
+        self.render(&mut surface, &i)
+    }
+
+    /// The view as an SVG document, `width` × `height` pixels.
+    pub fn svg(
+        &mut self,
+        #[wasm_bindgen(unchecked_param_type = "MassingViewInput")] input: JsValue,
+        width: u32,
+        height: u32,
+    ) -> Result<String, JsError> {
+        let mut svg = svg_surface(width, height)?;
+        let i: ViewIn = read(input, "MassingViewer.svg")?;
+        self.render(&mut svg, &i)?;
+        Ok(svg.finish())
+    }
+}
+
+impl MassingViewer {
+    fn render(&mut self, d: &mut dyn crate::render::Draw, i: &ViewIn) -> Result<(), JsError> {
+        let projection =
+            i.perspective_m.map_or(Projection::Parallel, |distance_m| Projection::Perspective { distance_m });
+        let camera =
+            Camera { azimuth_deg: i.from_deg, elevation_deg: i.elevation_deg, projection, target: self.centre };
+        check_camera(&camera).map_err(|e| match e {
+            crate::view3d::ViewError::Camera { field, range, value } => {
+                let name = match field {
+                    "azimuth_deg" => "fromDeg",
+                    "elevation_deg" => "elevationDeg",
+                    _ => "perspectiveM",
+                };
+                JsError::new(&format!("{name}: must be {range}, got {value}"))
+            }
+            other => err(other),
+        })?;
+        let palette = i.palette.palette()?;
+        if self.lit.as_ref().map(|(t, _, _)| t.as_str()) != Some(i.local_time.as_str()) {
+            let t = local_instant(&self.model, &i.local_time)?;
+            let sun = crate::solar_position(&self.model.location, t, &Default::default(), DeltaT::EspenakMeeus)
+                .map_err(err)?;
+            let light = MassingLight::at(&self.model, &self.scene, (sun.azimuth_deg, sun.altitude_deg));
+            self.lit = Some((i.local_time.clone(), self.model.zone.label(t), light));
+        }
+        let Some((_, when, light)) = &self.lit else { return Err(JsError::new("localTime: no light")) };
+        let view = MassingView::at(&self.model, &self.scene, light, camera, when);
+        draw_massing_view(&mut Restyle { inner: d, palette }, &view);
+        Ok(())
+    }
+}
