@@ -373,11 +373,14 @@ sunlot.ready.then(async module => {
 
   showSiteName("");
   const t0 = performance.now();
-  await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false),
-    massing.setSite(site, false)]);
+  await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false)]);
   redraw();
   measured.firstDrawMs = performance.now() - t0;
   measured.readyMs = performance.now(); // since navigation began
+  // The 3-D view (below the plan) after the first drawing: its scene is built once per site.
+  await massing.setSite(site, false);
+  const now = moment();
+  massing.setMoment(now.date, now.time);
   refreshMap();
   document.body.dataset.ready = "yes";
 }).catch(e => {
