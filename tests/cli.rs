@@ -818,5 +818,19 @@ fn view_writes_the_3d_view_and_names_bad_options() {
         None,
     );
     assert!(stderr(&o).contains("--perspective-m: must be 1 m to 100 km"), "{}", stderr(&o));
+    let o = sunlot(
+        &["view", "--demo", "--local", "2026-03-21T11:00", "--envelope-lot", "lot-14", "--svg", svg.to_str().unwrap()],
+        None,
+    );
+    assert!(
+        o.status.success() && std::fs::read_to_string(&svg).unwrap().contains("solar envelope (steps)"),
+        "{}",
+        stderr(&o)
+    );
+    let o = sunlot(
+        &["view", "--demo", "--local", "2026-03-21T11:00", "--envelope-lot", "nowhere", "--svg", svg.to_str().unwrap()],
+        None,
+    );
+    assert!(stderr(&o).contains("--envelope-lot"), "{}", stderr(&o));
     let _ = std::fs::remove_dir_all(&dir);
 }

@@ -84,6 +84,11 @@ const FIGURES: &[(&str, &[&str])] = &[
             "120",
         ],
     ),
+    // With the lot's solar envelope as translucent steps.
+    (
+        "massing-view-envelope",
+        &["view", "--demo", "--local", "2026-03-21T11:00", "--view-from-deg", "160", "--envelope-lot", "lot-14"],
+    ),
     (
         "envelope",
         &[

@@ -26,6 +26,8 @@ const PROPOSED: Colour = Colour::rgb(178, 188, 238);
 const FENCE: Colour = Colour::rgb(196, 170, 140);
 const EDGE: Colour = Colour { r: 30, g: 30, b: 30, a: 150 };
 const SUN: Colour = Colour::rgb(214, 140, 0);
+const ENVELOPE: Colour = Colour { r: 0, g: 128, b: 118, a: 72 };
+const ENVELOPE_EDGE: Colour = Colour { r: 0, g: 110, b: 100, a: 200 };
 
 /// The sun on a scene at a moment: each face's light, and the sun (plan azimuth, altitude, degrees;
 /// `None` when it is down and everything is in shade). Computed once per moment, drawn from any camera.
@@ -106,6 +108,7 @@ fn base_colour(model: &SiteModel, kind: FaceKind, owner: &str, status: Status) -
             _ => PAVED,
         },
         FaceKind::Fence => FENCE,
+        FaceKind::Envelope => ENVELOPE,
         FaceKind::Roof | FaceKind::Wall if status == Status::Proposed => PROPOSED,
         FaceKind::Roof | FaceKind::Wall => EXISTING,
     }
@@ -192,7 +195,11 @@ fn draw_faces(d: &mut dyn Draw, v: &MassingView, fit: &Fit) {
         let lit = times(base, LIT_FLOOR + (1.0 - LIT_FLOOR) * light.lambert);
         let dark = times(base, IN_SHADOW);
         let rings = rings_px(v, fit, frag.face, &frag.shape);
-        if light.lambert <= 0.0 {
+        if face.kind == FaceKind::Envelope {
+            // Translucent: what stands behind it shows through; no seam strokes (they would double
+            // the tint).
+            d.fill_polygon(&rings, ENVELOPE);
+        } else if light.lambert <= 0.0 {
             fill(d, &rings, dark);
         } else {
             fill(d, &rings, lit);
@@ -208,9 +215,10 @@ fn draw_faces(d: &mut dyn Draw, v: &MassingView, fit: &Fit) {
                 if on_outline(&outline, edge.start) && on_outline(&outline, edge.end) && same_side(&outline, edge) {
                     let pts = [face.frame.at(edge.start), face.frame.at(edge.end)];
                     if let (Some(a), Some(b)) = (fit.px(&v.camera, pts[0]), fit.px(&v.camera, pts[1])) {
-                        let width = if face.kind == FaceKind::Ground { 0.0 } else { 0.8 };
-                        if width > 0.0 {
-                            d.stroke(&[a, b], width, EDGE, false);
+                        match face.kind {
+                            FaceKind::Ground => {}
+                            FaceKind::Envelope => d.stroke(&[a, b], 0.8, ENVELOPE_EDGE, false),
+                            _ => d.stroke(&[a, b], 0.8, EDGE, false),
                         }
                     }
                 }
@@ -327,6 +335,9 @@ fn draw_key(d: &mut dyn Draw, v: &MassingView, x: f64, top: f64) {
     }
     rows.push((times(GROUND, 1.0), "ground, in sun"));
     rows.push((times(GROUND, IN_SHADOW), "ground, in shadow"));
+    if v.scene.faces.iter().any(|f| f.kind == FaceKind::Envelope) {
+        rows.push((ENVELOPE, "solar envelope (steps)"));
+    }
     let mut y = top + 30.0;
     for (colour, label) in rows {
         d.fill_rect(x, y - 11.0, 22.0, 14.0, colour);

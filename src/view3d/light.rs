@@ -46,13 +46,18 @@ pub fn light_faces(model: &SiteModel, faces: &[Face3], azimuth_deg: f64, altitud
     faces
         .iter()
         .map(|f| {
+            if f.kind == FaceKind::Envelope {
+                return FaceLight { lambert: 1.0, shadow: MultiPolygon::new(vec![]) };
+            }
             let facing = f.frame.normal.dot(s);
             let lambert = if f.two_sided { facing.abs() } else { facing.max(0.0) };
             let (Some(o), true) = (offset, lambert > 1e-12) else {
                 return FaceLight { lambert: 0.0, shadow: f.shape.clone() };
             };
             let cast = match f.kind {
-                FaceKind::Ground | FaceKind::Area | FaceKind::Roof => horizontal_shadow(model, o, f.frame.origin.z),
+                FaceKind::Ground | FaceKind::Area | FaceKind::Roof | FaceKind::Envelope => {
+                    horizontal_shadow(model, o, f.frame.origin.z)
+                }
                 FaceKind::Wall | FaceKind::Fence => {
                     // A fence lit from its back is seen through its other side: flip the frame's normal.
                     let n = if facing < 0.0 { f.frame.normal.scale(-1.0) } else { f.frame.normal };

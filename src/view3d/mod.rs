@@ -51,13 +51,22 @@ impl MassingScene {
     /// # Errors
     /// [`ViewError`] for a sloping ground or a site with nothing to draw.
     pub fn of(model: &SiteModel) -> Result<Self, ViewError> {
+        Self::with(model, Vec::new())
+    }
+
+    /// The scene of `model` with `extra` faces (a solar envelope's treads, [`scene::envelope_faces`]).
+    ///
+    /// # Errors
+    /// As [`MassingScene::of`].
+    pub fn with(model: &SiteModel, extra: Vec<Face3>) -> Result<Self, ViewError> {
         if model.ground.slope_deg.abs() > 1e-9 {
             return Err(ViewError::SlopedGround);
         }
-        let faces = site_faces(model, GROUND_MARGIN_M);
+        let mut faces = site_faces(model, GROUND_MARGIN_M);
         if faces.len() <= 1 {
             return Err(ViewError::Empty);
         }
+        faces.extend(extra);
         let bsp = Bsp::build(&faces);
         Ok(MassingScene { faces, bsp })
     }

@@ -109,6 +109,9 @@ pub enum FaceKind {
     Wall,
     /// A site wall or fence (two-sided).
     Fence,
+    /// A tread of a lot's solar envelope: the band of cells allowed at least this high (drawn
+    /// translucent, neither lit nor shaded).
+    Envelope,
 }
 
 /// A planar face of the site.
@@ -206,6 +209,26 @@ pub fn site_faces(model: &SiteModel, margin_m: f64) -> Vec<Face3> {
         }
     }
     faces
+}
+
+/// Lowest height an envelope tread is drawn at, metres (a tread at the ground would lie in it).
+const ENVELOPE_LIFT_M: f64 = 0.05;
+
+/// The treads of the solar envelope of lot `lot_id` from its height bands (each band's cells at the
+/// band's lowest height: what the envelope allows there at least).
+pub fn envelope_faces(lot_id: &str, bands: &[crate::envelope::HeightBand]) -> Vec<Face3> {
+    bands
+        .iter()
+        .filter(|b| !b.outline.0.is_empty())
+        .map(|b| Face3 {
+            kind: FaceKind::Envelope,
+            owner: lot_id.to_string(),
+            status: Status::Proposed,
+            frame: Frame3::horizontal(b.from_m.max(ENVELOPE_LIFT_M)),
+            shape: b.outline.orient(Direction::Default),
+            two_sided: true,
+        })
+        .collect()
 }
 
 /// The axis-aligned rectangle from (x0, y0) to (x1, y1), counter-clockwise.

@@ -203,3 +203,33 @@ fn sloped_sites_and_bad_cameras_are_refused_by_name() {
     };
     assert!(check_camera(&cam).unwrap_err().to_string().starts_with("elevation_deg: must be 5 to 90"));
 }
+
+/// The envelope's treads stand at their bands' lowest heights over the lot, cast no shade and take
+/// none, and join the partition after the site's faces.
+#[test]
+fn envelope_treads_sit_at_their_band_heights_over_the_lot() {
+    use geo::{Coord, LineString, Polygon};
+    let m = crate::demo::demo();
+    let band = |from_m: f64, x0: f64| crate::envelope::HeightBand {
+        from_m,
+        to_m: from_m + 3.0,
+        outline: MultiPolygon::new(vec![Polygon::new(
+            LineString::from(vec![
+                Coord { x: x0, y: 8.0 },
+                Coord { x: x0 + 4.0, y: 8.0 },
+                Coord { x: x0 + 4.0, y: 12.0 },
+                Coord { x: x0, y: 12.0 },
+            ]),
+            vec![],
+        )]),
+    };
+    let treads = scene::envelope_faces("lot-14", &[band(0.0, 4.0), band(6.0, 10.0)]);
+    assert_eq!(treads.iter().map(|f| f.frame.origin.z).collect::<Vec<_>>(), vec![0.05, 6.0]);
+    let plain = MassingScene::of(&m).unwrap();
+    let scene = MassingScene::with(&m, treads).unwrap();
+    assert_eq!(scene.faces.len(), plain.faces.len() + 2);
+    let light = light_faces(&m, &scene.faces, 200.0, 30.0);
+    let tread = light.last().unwrap();
+    assert_eq!((tread.lambert, tread.shadow.0.len()), (1.0, 0));
+    assert!(scene.bsp.back_to_front(V3::new(0.0, -1e6, 1e6)).iter().any(|f| f.face == scene.faces.len() - 1));
+}

@@ -39,6 +39,16 @@ pub struct ViewArgs {
     /// view).
     #[arg(long, value_name = "METRES")]
     pub perspective_m: Option<f64>,
+    /// Also draw the solar envelope of this lot (translucent steps every --envelope-band-m), keeping
+    /// shadows off the site's gardens, terraces and amenity areas in --envelope-window on the view's date.
+    #[arg(long, value_name = "LOT")]
+    pub envelope_lot: Option<String>,
+    /// The envelope's daily window, HH:MM-HH:MM.
+    #[arg(long, default_value = sunlot::envelope::DEFAULT_ENVELOPE_WINDOW)]
+    pub envelope_window: String,
+    /// Height of the envelope's steps, metres.
+    #[arg(long, default_value_t = sunlot::envelope::DEFAULT_BAND_M)]
+    pub envelope_band_m: f64,
     /// Write the view as PNG here.
     #[arg(long, value_name = "FILE")]
     pub png: Option<PathBuf>,
@@ -55,7 +65,11 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
     let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: a.fold };
     let (t, zone) =
         args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
-    let scene = MassingScene::of(&model).map_err(|e| e.to_string())?;
+    let extra = match &a.envelope_lot {
+        Some(lot) => envelope_treads(a, &model, lot, model.zone.local_date(t))?,
+        None => Vec::new(),
+    };
+    let scene = MassingScene::with(&model, extra).map_err(|e| e.to_string())?;
     let centre = sunlot::view3d::scene::extent(&model).map_or(V3::new(0.0, 0.0, 0.0), |r| {
         let c = r.center();
         V3::new(c.x, c.y, 0.0)
@@ -94,4 +108,34 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
         out.push_str(&format!("{n}\n"));
     }
     Ok(out)
+}
+
+/// The treads of the envelope of `lot` on `date` (the envelope command's defaults otherwise).
+fn envelope_treads(
+    a: &ViewArgs,
+    model: &sunlot::site::SiteModel,
+    lot: &str,
+    date: chrono::NaiveDate,
+) -> Result<Vec<sunlot::view3d::Face3>, String> {
+    use sunlot::envelope::{default_protected, height_bands, solar_envelope, EnvelopeRequest};
+    use sunlot::exposure::{Grid, Period, DEFAULT_LONG_STEP_MIN, DEFAULT_MAX_CELLS};
+    let area = crate::maps::pick_areas(model, std::slice::from_ref(&lot.to_string()), "--envelope-lot")?[0];
+    let protected: Vec<_> = default_protected(model, &area.id).iter().map(|x| x.polygon.clone()).collect();
+    if protected.is_empty() {
+        return Err("--envelope-lot: the site has no gardens, terraces or amenity areas to keep shadows off".into());
+    }
+    let grid = Grid::over_polygon(&area.polygon, sunlot::envelope::DEFAULT_ENVELOPE_CELL_M, DEFAULT_MAX_CELLS)
+        .map_err(|e| format!("--envelope-lot: {e}"))?;
+    let window = crate::maps::window(&a.envelope_window, "--envelope-window")?;
+    let req = EnvelopeRequest {
+        model,
+        grid: &grid,
+        protected: &protected,
+        period: Period { first: date, last: date, window, step_min: DEFAULT_LONG_STEP_MIN },
+        max_height_m: sunlot::envelope::DEFAULT_MAX_HEIGHT_M,
+        height_step_m: sunlot::envelope::DEFAULT_HEIGHT_STEP_M,
+        delta_t: a.delta_t.delta_t()?,
+    };
+    let env = solar_envelope(&req, |_| true).map_err(|e| e.to_string())?;
+    Ok(sunlot::view3d::scene::envelope_faces(&area.id, &height_bands(&grid, &env, a.envelope_band_m)))
 }
