@@ -212,7 +212,7 @@ fn draw_faces(d: &mut dyn Draw, v: &MassingView, fit: &Fit) {
         let outline: Vec<Coord<f64>> = face.shape.iter().flat_map(|p| p.exterior().0.iter().copied()).collect();
         for poly in &frag.shape {
             for edge in poly.exterior().lines() {
-                if on_outline(&outline, edge.start) && on_outline(&outline, edge.end) && same_side(&outline, edge) {
+                if same_side(&outline, edge) {
                     let pts = [face.frame.at(edge.start), face.frame.at(edge.end)];
                     if let (Some(a), Some(b)) = (fit.px(&v.camera, pts[0]), fit.px(&v.camera, pts[1])) {
                         match face.kind {
@@ -235,11 +235,6 @@ fn fill(d: &mut dyn Draw, rings: &[Vec<(f64, f64)>], colour: Colour) {
     }
 }
 
-/// Whether `c` lies on the closed outline (within a micrometre).
-fn on_outline(outline: &[Coord<f64>], c: Coord<f64>) -> bool {
-    outline.windows(2).any(|s| segment_distance(s[0], s[1], c) < 1e-6)
-}
-
 /// Whether the whole edge runs along one segment of the outline.
 fn same_side(outline: &[Coord<f64>], edge: geo::Line<f64>) -> bool {
     outline
@@ -254,6 +249,24 @@ fn segment_distance(a: Coord<f64>, b: Coord<f64>, p: Coord<f64>) -> f64 {
     ((a.x + t * dx - p.x).powi(2) + (a.y + t * dy - p.y).powi(2)).sqrt()
 }
 
+/// The unit vector from pixel `a` to `b`.
+fn unit(a: (f64, f64), b: (f64, f64)) -> (f64, f64) {
+    let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+    let len = (dx * dx + dy * dy).sqrt().max(1e-6);
+    (dx / len, dy / len)
+}
+
+/// The barbs and tip of an arrowhead `size` pixels long at `b` on the line from `a`.
+fn arrow_head(a: (f64, f64), b: (f64, f64), size: f64) -> [(f64, f64); 3] {
+    let (ux, uy) = unit(a, b);
+    let half = size / 2.0;
+    [
+        (b.0 - size * ux + half * uy, b.1 - size * uy - half * ux),
+        b,
+        (b.0 - size * ux - half * uy, b.1 - size * uy + half * ux),
+    ]
+}
+
 /// The sun's direction: a ray of sunlight ending at the view's target, the sun's disc where it comes
 /// from.
 fn draw_sun(d: &mut dyn Draw, v: &MassingView, fit: &Fit, (az, alt): (f64, f64)) {
@@ -264,15 +277,7 @@ fn draw_sun(d: &mut dyn Draw, v: &MassingView, fit: &Fit, (az, alt): (f64, f64))
     let (Some(a), Some(b)) = (fit.px(&v.camera, start), fit.px(&v.camera, end)) else { return };
     d.stroke(&[a, b], 1.6, SUN, false);
     // An arrowhead at the target, pointing along the light.
-    let (dx, dy) = (b.0 - a.0, b.1 - a.1);
-    let len = (dx * dx + dy * dy).sqrt().max(1e-6);
-    let (ux, uy) = (dx / len, dy / len);
-    let head = [
-        (b.0 - 10.0 * ux + 5.0 * uy, b.1 - 10.0 * uy - 5.0 * ux),
-        b,
-        (b.0 - 10.0 * ux - 5.0 * uy, b.1 - 10.0 * uy + 5.0 * ux),
-    ];
-    d.stroke(&head, 1.6, SUN, false);
+    d.stroke(&arrow_head(a, b, 10.0), 1.6, SUN, false);
     let disc: Vec<(f64, f64)> = (0..24)
         .map(|k| {
             let t = f64::from(k) / 24.0 * std::f64::consts::TAU;
@@ -301,15 +306,8 @@ fn draw_north(d: &mut dyn Draw, v: &MassingView, fit: &Fit) {
     let foot = near.plus(v.camera.target.minus(near).unit().scale(0.9 * len));
     let (Some(a), Some(b)) = (fit.px(&v.camera, foot), fit.px(&v.camera, foot.plus(dir.scale(len)))) else { return };
     d.stroke(&[a, b], 1.6, INK, false);
-    let (dx, dy) = (b.0 - a.0, b.1 - a.1);
-    let l = (dx * dx + dy * dy).sqrt().max(1e-6);
-    let (ux, uy) = (dx / l, dy / l);
-    let head = [
-        (b.0 - 8.0 * ux + 4.0 * uy, b.1 - 8.0 * uy - 4.0 * ux),
-        b,
-        (b.0 - 8.0 * ux - 4.0 * uy, b.1 - 8.0 * uy + 4.0 * ux),
-    ];
-    d.fill_polygon(&[head.to_vec()], INK);
+    d.fill_polygon(&[arrow_head(a, b, 8.0).to_vec()], INK);
+    let (ux, uy) = unit(a, b);
     d.text(b.0 + 10.0 * ux, b.1 + 10.0 * uy + 4.0, LABEL_PX, "N", INK, Anchor::Middle);
 }
 

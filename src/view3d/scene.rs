@@ -177,38 +177,35 @@ pub fn site_faces(model: &SiteModel, margin_m: f64) -> Vec<Face3> {
             two_sided: false,
         });
         // Exterior counter-clockwise and holes clockwise: each edge's e1 × up points out of the solid.
-        for edge in std::iter::once(footprint.exterior()).chain(footprint.interiors()).flat_map(|r| r.lines()) {
-            let length = (edge.dx().powi(2) + edge.dy().powi(2)).sqrt();
-            if length < 1e-6 {
-                continue;
-            }
-            faces.push(Face3 {
-                kind: FaceKind::Wall,
-                owner: v.id.clone(),
-                status: v.status,
-                frame: Frame3::vertical(edge.start, edge.end),
-                shape: MultiPolygon::new(vec![rect(0.0, v.base_m, length, v.top_m)]),
-                two_sided: false,
-            });
-        }
+        let rings = std::iter::once(footprint.exterior()).chain(footprint.interiors());
+        let edges = rings.flat_map(|r| r.lines());
+        faces.extend(upright(edges, FaceKind::Wall, &v.id, v.status, (v.base_m, v.top_m)));
     }
     for w in &model.walls {
-        for seg in w.line.lines() {
-            let length = (seg.dx().powi(2) + seg.dy().powi(2)).sqrt();
-            if length < 1e-6 {
-                continue;
-            }
-            faces.push(Face3 {
-                kind: FaceKind::Fence,
-                owner: w.id.clone(),
-                status: w.status,
-                frame: Frame3::vertical(seg.start, seg.end),
-                shape: MultiPolygon::new(vec![rect(0.0, 0.0, length, w.height_m)]),
-                two_sided: true,
-            });
-        }
+        faces.extend(upright(w.line.lines(), FaceKind::Fence, &w.id, w.status, (0.0, w.height_m)));
     }
     faces
+}
+
+/// A vertical face on each plan segment of `edges` from height `from_m` to `to_m` (fences two-sided).
+fn upright<'a>(
+    edges: impl Iterator<Item = geo::Line<f64>> + 'a,
+    kind: FaceKind,
+    owner: &'a str,
+    status: Status,
+    (from_m, to_m): (f64, f64),
+) -> impl Iterator<Item = Face3> + 'a {
+    edges.filter_map(move |edge| {
+        let length = (edge.dx().powi(2) + edge.dy().powi(2)).sqrt();
+        (length >= 1e-6).then(|| Face3 {
+            kind,
+            owner: owner.to_string(),
+            status,
+            frame: Frame3::vertical(edge.start, edge.end),
+            shape: MultiPolygon::new(vec![rect(0.0, from_m, length, to_m)]),
+            two_sided: kind == FaceKind::Fence,
+        })
+    })
 }
 
 /// Lowest height an envelope tread is drawn at, metres (a tread at the ground would lie in it).

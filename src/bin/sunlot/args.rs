@@ -252,3 +252,28 @@ impl ClearSkyArgs {
         .map_err(|e| format!("--{}", input_message(&e).replace('_', "-")))
     }
 }
+
+/// A moment at a site: an instant, or a local time in the site's zone, and the ΔT model.
+#[derive(Debug, Args)]
+pub struct MomentArgs {
+    /// The moment, RFC 3339 with an offset.
+    #[arg(long, conflicts_with = "local")]
+    pub time: Option<String>,
+    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in the site's zone.
+    #[arg(long, required_unless_present = "time")]
+    pub local: Option<String>,
+    /// For a local time that occurs twice (clocks going back): which one is meant.
+    #[arg(long, value_enum)]
+    pub fold: Option<Fold>,
+    #[command(flatten)]
+    pub delta_t: DeltaTArgs,
+}
+
+impl MomentArgs {
+    /// The instant asked for, with the zone to show it in (the site's for a local time).
+    pub fn instant(&self, model: &sunlot::site::SiteModel) -> Result<(DateTime<Utc>, Zone), String> {
+        let zones = ZoneArgs { zone: Some(model.zone.to_string()), fold: self.fold };
+        instant(self.time.as_deref(), self.local.as_deref(), &zones, false)?
+            .ok_or_else(|| "give --time or --local".into())
+    }
+}

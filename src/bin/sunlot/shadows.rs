@@ -7,7 +7,7 @@ use clap::{Args, ValueEnum};
 use sunlot::shadow::{shadow_study, shadow_table, Study};
 use sunlot::site::{FootprintOptions, SiteModel};
 
-use crate::args::{self, input_message, DeltaTArgs, Fold};
+use crate::args::{self, input_message, DeltaTArgs};
 use crate::output::{Cell, Format, Table};
 
 /// The site to study: a file, or the demo.
@@ -100,17 +100,8 @@ pub enum ShadowFormat {
 pub struct ShadowsArgs {
     #[command(flatten)]
     pub site: SiteFileArgs,
-    /// The moment, RFC 3339 with an offset.
-    #[arg(long, conflicts_with = "local")]
-    pub time: Option<String>,
-    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in the site's zone.
-    #[arg(long, required_unless_present = "time")]
-    pub local: Option<String>,
-    /// For a local time that occurs twice (clocks going back): which one is meant.
-    #[arg(long, value_enum)]
-    pub fold: Option<Fold>,
     #[command(flatten)]
-    pub delta_t: DeltaTArgs,
+    pub moment: args::MomentArgs,
     /// Output.
     #[arg(long, value_enum, default_value_t = ShadowFormat::Geojson)]
     pub format: ShadowFormat,
@@ -124,10 +115,8 @@ pub struct ShadowsArgs {
 
 pub fn run_shadows(a: &ShadowsArgs) -> Result<String, String> {
     let Loaded { model, from_geojson } = a.site.load()?;
-    let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: a.fold };
-    let (t, zone) =
-        args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
-    let study = shadow_study(&model, t, a.delta_t.delta_t()?).map_err(|e| e.to_string())?;
+    let (t, zone) = a.moment.instant(&model)?;
+    let study = shadow_study(&model, t, a.moment.delta_t.delta_t()?).map_err(|e| e.to_string())?;
     let when = args::rfc3339(t, &zone);
     if a.png.is_some() || a.svg.is_some() {
         use sunlot::render::{draw_shadow_plan, PlanExtras, ShadowPlan, FIGURE_PX};

@@ -7,7 +7,7 @@ use clap::Args;
 use sunlot::render::{draw_massing_view, MassingLight, MassingView, VIEW_PX};
 use sunlot::view3d::{check_camera, Camera, MassingScene, Projection, V3};
 
-use crate::args::{self, DeltaTArgs, Fold};
+use crate::args;
 use crate::shadows::{Loaded, SiteFileArgs};
 
 /// Where the viewer stands by default, degrees clockwise from the plan's north, and how high.
@@ -18,17 +18,8 @@ const ELEVATION_DEG: f64 = 35.0;
 pub struct ViewArgs {
     #[command(flatten)]
     pub site: SiteFileArgs,
-    /// The moment, RFC 3339 with an offset.
-    #[arg(long, conflicts_with = "local")]
-    pub time: Option<String>,
-    /// The moment as local wall-clock time YYYY-MM-DDTHH:MM[:SS] in the site's zone.
-    #[arg(long, required_unless_present = "time")]
-    pub local: Option<String>,
-    /// For a local time that occurs twice (clocks going back): which one is meant.
-    #[arg(long, value_enum)]
-    pub fold: Option<Fold>,
     #[command(flatten)]
-    pub delta_t: DeltaTArgs,
+    pub moment: args::MomentArgs,
     /// Where the viewer stands, degrees clockwise from the plan's north (180: looking north).
     #[arg(long, default_value_t = FROM_DEG, allow_negative_numbers = true)]
     pub view_from_deg: f64,
@@ -62,9 +53,7 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
         return Err("give --png FILE or --svg FILE for the view".into());
     }
     let Loaded { model, .. } = a.site.load()?;
-    let zones = args::ZoneArgs { zone: Some(model.zone.to_string()), fold: a.fold };
-    let (t, zone) =
-        args::instant(a.time.as_deref(), a.local.as_deref(), &zones, false)?.ok_or("give --time or --local")?;
+    let (t, zone) = a.moment.instant(&model)?;
     let extra = match &a.envelope_lot {
         Some(lot) => envelope_treads(a, &model, lot, model.zone.local_date(t))?,
         None => Vec::new(),
@@ -88,7 +77,7 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
         }
         other => other.to_string(),
     })?;
-    let sun = sunlot::solar_position(&model.location, t, &Default::default(), a.delta_t.delta_t()?)
+    let sun = sunlot::solar_position(&model.location, t, &Default::default(), a.moment.delta_t.delta_t()?)
         .map_err(|e| e.to_string())?;
     let light = MassingLight::at(&model, &scene, (sun.azimuth_deg, sun.altitude_deg));
     let view = MassingView::at(&model, &scene, &light, camera, &zone.label(t));
@@ -134,7 +123,7 @@ fn envelope_treads(
         period: Period { first: date, last: date, window, step_min: DEFAULT_LONG_STEP_MIN },
         max_height_m: sunlot::envelope::DEFAULT_MAX_HEIGHT_M,
         height_step_m: sunlot::envelope::DEFAULT_HEIGHT_STEP_M,
-        delta_t: a.delta_t.delta_t()?,
+        delta_t: a.moment.delta_t.delta_t()?,
     };
     let env = solar_envelope(&req, |_| true).map_err(|e| e.to_string())?;
     Ok(sunlot::view3d::scene::envelope_faces(&area.id, &height_bands(&grid, &env, a.envelope_band_m)))
