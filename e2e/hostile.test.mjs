@@ -88,6 +88,8 @@ const report = await page.evaluate(async HANG_MS => {
     massingDraw: [{ localTime: "2026-03-20T15:00", fromDeg: 210, elevationDeg: 35, perspectiveM: 120,
                     palette: { ink: "#000000", paper: "#ffffff" } },
                   (m, i) => { const v = new m.MassingViewer(site); try { v.draw(normal(), i); } finally { v.free(); } }],
+    massingEnvelope: [{ lot: "lot-14", date: "2026-03-21", window: "09:00-15:00" },
+                      (m, i) => { const v = new m.MassingViewer(site); try { v.setEnvelope(i.lot, i.date, i.window); } finally { v.free(); } }],
     massingSvg: [{ localTime: "2026-03-20T15:00", fromDeg: 210, elevationDeg: 35, w: 400, h: 300 },
                  (m, i) => { const v = new m.MassingViewer(site); try { return v.svg({ localTime: i.localTime, fromDeg: i.fromDeg,
                    elevationDeg: i.elevationDeg }, i.w, i.h); } finally { v.free(); } }],

@@ -122,6 +122,12 @@ check(massing.ink > 20000, `the 3-D view draws (${massing.ink} inked pixels)`);
   await page.keyboard.press("]");
   check(await page.textContent("#time-label") === "10:15", `] on the 3-D view steps the page's time (${await page.textContent("#time-label")})`);
   await page.keyboard.press("[");
+  const bare = await pixels("#massing canvas");
+  await page.check("#massing-envelope");
+  const enveloped = await changed("#massing canvas", bare);
+  check(enveloped.hash !== bare.hash && await page.evaluate(() => document.querySelector("#massing").envelopeLot === "")
+    && !(await page.isVisible("#error")), "the lot's solar envelope shows in the 3-D view");
+  await page.uncheck("#massing-envelope");
   await page.evaluate(() => window.scrollTo(0, 0));
   const label = await page.getAttribute("#massing canvas", "aria-label");
   check(/at \d{4}-\d\d-\d\d 10:00/.test(label), `the 3-D view shows the page's moment (${label.slice(0, 60)}…)`);

@@ -10,11 +10,13 @@
 
 pub mod bsp;
 pub mod camera;
+pub mod envelope;
 pub mod light;
 pub mod scene;
 
 pub use bsp::{Bsp, Fragment};
 pub use camera::{Camera, Projection};
+pub use envelope::{envelope_treads, EnvelopeViewError};
 pub use light::{light_faces, toward_sun, FaceLight};
 pub use scene::{site_faces, Face3, FaceKind, Frame3, V3};
 

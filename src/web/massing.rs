@@ -61,6 +61,49 @@ impl MassingViewer {
         self.scene.bsp.fragments()
     }
 
+    /// Shows the solar envelope of lot `lot` (an area id; `""` for the site's subject lot, the
+    /// proposal's) on `date` (YYYY-MM-DD) in the daily window
+    /// `window` (`HH:MM-HH:MM`, default 09:00-15:00) as translucent steps every 3 m, keeping shadows
+    /// off the site's other gardens, terraces and amenity areas; `null` for `lot` takes it away.
+    #[wasm_bindgen(js_name = setEnvelope)]
+    pub fn set_envelope(
+        &mut self,
+        #[wasm_bindgen(unchecked_param_type = "string | null")] lot: JsValue,
+        #[wasm_bindgen(unchecked_param_type = "string")] date: JsValue,
+        #[wasm_bindgen(unchecked_param_type = "string | undefined")] window: JsValue,
+    ) -> Result<(), JsError> {
+        let treads = if lot.is_null() || lot.is_undefined() {
+            Vec::new()
+        } else {
+            let mut lot = super::text_arg(&lot, "lot")?;
+            if lot.is_empty() {
+                lot = crate::envelope::subject_lot(&self.model)
+                    .ok_or_else(|| JsError::new("lot: the site has no lot"))?
+                    .id
+                    .clone();
+            }
+            let day = super::maps::date(&super::text_arg(&date, "date")?, "date")?;
+            let window = if window.is_undefined() || window.is_null() {
+                crate::envelope::DEFAULT_ENVELOPE_WINDOW.to_string()
+            } else {
+                super::text_arg(&window, "window")?
+            };
+            let window = super::maps::window(Some(&window))?;
+            crate::view3d::envelope_treads(
+                &self.model,
+                &lot,
+                day,
+                window,
+                crate::envelope::DEFAULT_BAND_M,
+                DeltaT::EspenakMeeus,
+            )
+            .map_err(|e| JsError::new(&format!("lot: {e}")))?
+        };
+        self.scene = MassingScene::with(&self.model, treads).map_err(err)?;
+        self.lit = None;
+        Ok(())
+    }
+
     /// Draws the view onto `canvas` (its size as set); the light is reused while `localTime` stays.
     pub fn draw(
         &mut self,

@@ -3,7 +3,8 @@
 // arrow keys to walk round it and look higher or lower; [ and ] step the time by 15 minutes.
 // Attributes: site-src, date, time, view-from (degrees clockwise from the plan's north the viewer
 // stands at, default 210), view-elevation (degrees above the horizon, 5–90, default 35),
-// perspective (metres from the site's centre; absent: a parallel view).
+// perspective (metres from the site's centre; absent: a parallel view), envelope-lot (an area id, or
+// "auto" for the proposal's lot: its solar envelope on the date shown, 09:00–15:00, as translucent steps).
 // Events: sunlot-drawn, sunlot-orbit {fromDeg, elevationDeg}, sunlot-time {date, time}, sunlot-error.
 import { minutesOf, timeOf } from "./helpers.mjs";
 import { MASSING, SunlotFigure } from "./figure.mjs";
@@ -16,6 +17,8 @@ export class SunlotMassing extends SunlotFigure {
   #elevationDeg = 35;
   #perspectiveM = null;
   #frame = 0;
+  #envelopeLot = null;   // an area id, "" for the site's subject lot, or null
+  #envelopeFor = null;   // what the viewer's envelope was made for: "lot/date"
 
   constructor() {
     super(MASSING);
@@ -24,9 +27,11 @@ export class SunlotMassing extends SunlotFigure {
     this.#listen();
   }
 
-  static get observedAttributes() { return [...super.observedAttributes, "view-from", "view-elevation", "perspective"]; }
+  static get observedAttributes() {
+    return [...super.observedAttributes, "view-from", "view-elevation", "perspective", "envelope-lot"];
+  }
   connectedCallback() {
-    for (const name of ["view-from", "view-elevation", "perspective"]) {
+    for (const name of ["view-from", "view-elevation", "perspective", "envelope-lot"]) {
       if (this.hasAttribute(name)) this.#attribute(name, this.getAttribute(name));
     }
     super.connectedCallback();
@@ -36,6 +41,7 @@ export class SunlotMassing extends SunlotFigure {
     this.render();
   }
   #attribute(name, value) {
+    if (name === "envelope-lot") { this.#envelopeLot = value === null ? null : value === "auto" ? "" : value; return; }
     const v = value === null || value === "" ? null : Number(value);
     if (v !== null && !Number.isFinite(v)) { this.fail(`${name}: "${value}" is not a number`); return; }
     if (name === "view-from" && v !== null) this.#fromDeg = v;
@@ -46,8 +52,18 @@ export class SunlotMassing extends SunlotFigure {
   siteChanged() {
     if (this.#viewer) this.#viewer.free();
     this.#viewer = null;
+    this.#envelopeFor = null;
     try { this.#viewer = new this.module.MassingViewer(this.state.site); } catch (e) { this.fail(e.message); }
   }
+
+  /** Shows the solar envelope of lot `lot` (an area id, "" for the proposal's lot) on the date
+   * shown, or none with null. */
+  setEnvelopeLot(lot) {
+    this.#envelopeLot = lot;
+    this.render();
+  }
+  /** The lot whose envelope is shown ("" the proposal's), or null. */
+  get envelopeLot() { return this.#envelopeLot; }
 
   /** The viewer: { fromDeg, elevationDeg, perspectiveM (null: parallel) }. */
   get view() { return { fromDeg: this.#fromDeg, elevationDeg: this.#elevationDeg, perspectiveM: this.#perspectiveM }; }
@@ -70,15 +86,27 @@ export class SunlotMassing extends SunlotFigure {
     if (this.#perspectiveM !== null) o.perspectiveM = this.#perspectiveM;
     return o;
   }
+  /** Makes the viewer's envelope the one asked for, for the date shown. */
+  #envelope() {
+    const want = this.#envelopeLot === null ? "" : `${this.#envelopeLot}/${this.state.date}`;
+    if (want === (this.#envelopeFor || "")) return;
+    this.#envelopeFor = want;
+    this.#viewer.setEnvelope(this.#envelopeLot, this.state.date);
+  }
   draw() {
     if (!this.#viewer) return;
+    this.#envelope();
     this.#viewer.draw(this.canvas, this.input());
     this.canvas.setAttribute("aria-label", `3-D view of the massing and its shadows at ${this.state.date} ` +
       `${this.state.time}, seen from ${Math.round(this.#fromDeg)}° at ${Math.round(this.#elevationDeg)}° above the ` +
       "horizon. Arrow keys walk round and look higher or lower; [ and ] step the time by 15 minutes.");
     this.dispatchEvent(new CustomEvent("sunlot-drawn", { bubbles: true, detail: { figure: "massing" } }));
   }
-  svg(size = this.base) { return this.#viewer ? this.#viewer.svg(this.input(), size.width, size.height) : ""; }
+  svg(size = this.base) {
+    if (!this.#viewer) return "";
+    this.#envelope();
+    return this.#viewer.svg(this.input(), size.width, size.height);
+  }
 
   /** Draws at the next animation frame (a drag moves many times a frame). */
   #soon() {

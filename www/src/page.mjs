@@ -192,6 +192,7 @@ sunlot.ready.then(async module => {
       redraw();
     });
   }
+  $("massing-envelope").addEventListener("change", () => massing.setEnvelopeLot($("massing-envelope").checked ? "" : null));
   $("massing-perspective").addEventListener("change", () =>
     massing.setView({ perspectiveM: $("massing-perspective").checked ? 120 : null }));
   for (const el of [plan, sky, mapEl, massing]) el.addEventListener("sunlot-error", e => showError(e.detail.message));

@@ -55,7 +55,12 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
     let Loaded { model, .. } = a.site.load()?;
     let (t, zone) = a.moment.instant(&model)?;
     let extra = match &a.envelope_lot {
-        Some(lot) => envelope_treads(a, &model, lot, model.zone.local_date(t))?,
+        Some(lot) => {
+            let window = crate::maps::window(&a.envelope_window, "--envelope-window")?;
+            let date = model.zone.local_date(t);
+            sunlot::view3d::envelope_treads(&model, lot, date, window, a.envelope_band_m, a.moment.delta_t.delta_t()?)
+                .map_err(|e| format!("--envelope-lot: {e}"))?
+        }
         None => Vec::new(),
     };
     let scene = MassingScene::with(&model, extra).map_err(|e| e.to_string())?;
@@ -97,34 +102,4 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
         out.push_str(&format!("{n}\n"));
     }
     Ok(out)
-}
-
-/// The treads of the envelope of `lot` on `date` (the envelope command's defaults otherwise).
-fn envelope_treads(
-    a: &ViewArgs,
-    model: &sunlot::site::SiteModel,
-    lot: &str,
-    date: chrono::NaiveDate,
-) -> Result<Vec<sunlot::view3d::Face3>, String> {
-    use sunlot::envelope::{default_protected, height_bands, solar_envelope, EnvelopeRequest};
-    use sunlot::exposure::{Grid, Period, DEFAULT_LONG_STEP_MIN, DEFAULT_MAX_CELLS};
-    let area = crate::maps::pick_areas(model, std::slice::from_ref(&lot.to_string()), "--envelope-lot")?[0];
-    let protected: Vec<_> = default_protected(model, &area.id).iter().map(|x| x.polygon.clone()).collect();
-    if protected.is_empty() {
-        return Err("--envelope-lot: the site has no gardens, terraces or amenity areas to keep shadows off".into());
-    }
-    let grid = Grid::over_polygon(&area.polygon, sunlot::envelope::DEFAULT_ENVELOPE_CELL_M, DEFAULT_MAX_CELLS)
-        .map_err(|e| format!("--envelope-lot: {e}"))?;
-    let window = crate::maps::window(&a.envelope_window, "--envelope-window")?;
-    let req = EnvelopeRequest {
-        model,
-        grid: &grid,
-        protected: &protected,
-        period: Period { first: date, last: date, window, step_min: DEFAULT_LONG_STEP_MIN },
-        max_height_m: sunlot::envelope::DEFAULT_MAX_HEIGHT_M,
-        height_step_m: sunlot::envelope::DEFAULT_HEIGHT_STEP_M,
-        delta_t: a.moment.delta_t.delta_t()?,
-    };
-    let env = solar_envelope(&req, |_| true).map_err(|e| e.to_string())?;
-    Ok(sunlot::view3d::scene::envelope_faces(&area.id, &height_bands(&grid, &env, a.envelope_band_m)))
 }
