@@ -785,8 +785,7 @@ fn too_many_sky_dates_name_the_dates_flag() {
 /// without a file, a camera out of range, and a sloping site, naming the option.
 #[test]
 fn view_writes_the_3d_view_and_names_bad_options() {
-    let dir = std::env::temp_dir().join(format!("sunlot-view-{}", std::process::id()));
-    std::fs::create_dir_all(&dir).unwrap();
+    let dir = out_dir("view");
     let (png, svg) = (dir.join("v.png"), dir.join("v.svg"));
     let o = sunlot(
         &[
@@ -832,5 +831,4 @@ fn view_writes_the_3d_view_and_names_bad_options() {
         None,
     );
     assert!(stderr(&o).contains("--envelope-lot"), "{}", stderr(&o));
-    let _ = std::fs::remove_dir_all(&dir);
 }
