@@ -43,6 +43,9 @@ pub struct FaceLight {
 pub fn light_faces(model: &SiteModel, faces: &[Face3], azimuth_deg: f64, altitude_deg: f64) -> Vec<FaceLight> {
     let s = toward_sun(azimuth_deg, altitude_deg);
     let offset = shadow_offset_per_m(azimuth_deg, altitude_deg);
+    // The shadows on each horizontal plane once: the ground and every area share z = 0, roofs of one
+    // height share theirs.
+    let mut planes: Vec<(f64, MultiPolygon<f64>)> = Vec::new();
     faces
         .iter()
         .map(|f| {
@@ -54,17 +57,27 @@ pub fn light_faces(model: &SiteModel, faces: &[Face3], azimuth_deg: f64, altitud
             let (Some(o), true) = (offset, lambert > 1e-12) else {
                 return FaceLight { lambert: 0.0, shadow: f.shape.clone() };
             };
-            let cast = match f.kind {
-                FaceKind::Ground | FaceKind::Area | FaceKind::Roof | FaceKind::Envelope => {
-                    horizontal_shadow(model, o, f.frame.origin.z)
+            let shadow = match f.kind {
+                FaceKind::Ground | FaceKind::Area | FaceKind::Roof => {
+                    let z = f.frame.origin.z;
+                    let at = match planes.iter().position(|(h, _)| *h == z) {
+                        Some(k) => k,
+                        None => {
+                            planes.push((z, horizontal_shadow(model, o, z)));
+                            planes.len() - 1
+                        }
+                    };
+                    f.shape.intersection(&planes[at].1)
                 }
                 FaceKind::Wall | FaceKind::Fence => {
                     // A fence lit from its back is seen through its other side: flip the frame's normal.
                     let n = if facing < 0.0 { f.frame.normal.scale(-1.0) } else { f.frame.normal };
-                    vertical_shadow(model, f, n, s)
+                    f.shape.intersection(&vertical_shadow(model, f, n, s))
                 }
+                // Answered above: a tread is neither lit nor shaded.
+                FaceKind::Envelope => MultiPolygon::new(vec![]),
             };
-            FaceLight { lambert, shadow: f.shape.intersection(&cast) }
+            FaceLight { lambert, shadow }
         })
         .collect()
 }

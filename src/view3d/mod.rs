@@ -45,6 +45,8 @@ pub enum ViewError {
 pub struct MassingScene {
     pub faces: Vec<Face3>,
     pub bsp: Bsp,
+    /// The middle of the site's plan extent, on the ground: where a viewer looks.
+    pub centre: V3,
 }
 
 impl MassingScene {
@@ -70,7 +72,28 @@ impl MassingScene {
         }
         faces.extend(extra);
         let bsp = Bsp::build(&faces);
-        Ok(MassingScene { faces, bsp })
+        let centre = scene::extent(model).map_or(V3::new(0.0, 0.0, 0.0), |r| V3::new(r.center().x, r.center().y, 0.0));
+        Ok(MassingScene { faces, bsp, centre })
+    }
+}
+
+impl Camera {
+    /// A viewer at `azimuth_deg` (clockwise from the plan's north), `elevation_deg` above the horizon,
+    /// looking at `target`: a perspective from `perspective_m` metres, or parallel with `None`.
+    ///
+    /// # Errors
+    /// As [`check_camera`].
+    pub fn checked(
+        azimuth_deg: f64,
+        elevation_deg: f64,
+        perspective_m: Option<f64>,
+        target: V3,
+    ) -> Result<Self, ViewError> {
+        let projection =
+            perspective_m.map_or(Projection::Parallel, |distance_m| Projection::Perspective { distance_m });
+        let camera = Camera { azimuth_deg, elevation_deg, projection, target };
+        check_camera(&camera)?;
+        Ok(camera)
     }
 }
 

@@ -128,10 +128,6 @@ pub struct Face3 {
     pub two_sided: bool,
 }
 
-/// Height areas are drawn above the ground, metres: enough to keep them in front of it in the
-/// ordering, too little to see.
-pub const AREA_LIFT_M: f64 = 0.0;
-
 /// The faces of `model`: the ground (the site's extent grown by `margin_m`), the areas, every
 /// volume's roof and walls (courtyard walls included), and the site walls.
 pub fn site_faces(model: &SiteModel, margin_m: f64) -> Vec<Face3> {
@@ -161,7 +157,9 @@ pub fn site_faces(model: &SiteModel, margin_m: f64) -> Vec<Face3> {
             kind: FaceKind::Area,
             owner: a.id.clone(),
             status: a.status,
-            frame: Frame3::horizontal(AREA_LIFT_M),
+            // In the ground's plane: the partition keeps a plane's faces in the order given, so the
+            // areas (after the ground) are drawn over it.
+            frame: Frame3::horizontal(0.0),
             shape: MultiPolygon::new(vec![a.polygon.orient(Direction::Default)]),
             two_sided: false,
         });

@@ -10,7 +10,7 @@ use super::{err, read};
 use crate::render::{draw_massing_view, MassingLight, MassingView, Restyle};
 use crate::site::SiteModel;
 use crate::time::DeltaT;
-use crate::view3d::{check_camera, Camera, MassingScene, Projection, V3};
+use crate::view3d::{Camera, MassingScene};
 
 /// What a view draws.
 #[derive(Deserialize)]
@@ -34,7 +34,6 @@ struct ViewIn {
 pub struct MassingViewer {
     model: SiteModel,
     scene: MassingScene,
-    centre: V3,
     /// The last moment's local time and its light.
     lit: Option<(String, String, MassingLight)>,
 }
@@ -48,11 +47,7 @@ impl MassingViewer {
         let text = super::text_arg(&site, "site")?;
         let model = super::site(&text)?;
         let scene = MassingScene::of(&model).map_err(err)?;
-        let centre = crate::view3d::scene::extent(&model).map_or(V3::new(0.0, 0.0, 0.0), |r| {
-            let c = r.center();
-            V3::new(c.x, c.y, 0.0)
-        });
-        Ok(MassingViewer { model, scene, centre, lit: None })
+        Ok(MassingViewer { model, scene, lit: None })
     }
 
     /// Faces after the partition's splits (what each frame draws).
@@ -131,21 +126,18 @@ impl MassingViewer {
 
 impl MassingViewer {
     fn render(&mut self, d: &mut dyn crate::render::Draw, i: &ViewIn) -> Result<(), JsError> {
-        let projection =
-            i.perspective_m.map_or(Projection::Parallel, |distance_m| Projection::Perspective { distance_m });
         let camera =
-            Camera { azimuth_deg: i.from_deg, elevation_deg: i.elevation_deg, projection, target: self.centre };
-        check_camera(&camera).map_err(|e| match e {
-            crate::view3d::ViewError::Camera { field, range, value } => {
-                let name = match field {
-                    "azimuth_deg" => "fromDeg",
-                    "elevation_deg" => "elevationDeg",
-                    _ => "perspectiveM",
-                };
-                JsError::new(&format!("{name}: must be {range}, got {value}"))
-            }
-            other => err(other),
-        })?;
+            Camera::checked(i.from_deg, i.elevation_deg, i.perspective_m, self.scene.centre).map_err(|e| match e {
+                crate::view3d::ViewError::Camera { field, range, value } => {
+                    let name = match field {
+                        "azimuth_deg" => "fromDeg",
+                        "elevation_deg" => "elevationDeg",
+                        _ => "perspectiveM",
+                    };
+                    JsError::new(&format!("{name}: must be {range}, got {value}"))
+                }
+                other => err(other),
+            })?;
         let palette = i.palette.palette()?;
         if self.lit.as_ref().map(|(t, _, _)| t.as_str()) != Some(i.local_time.as_str()) {
             let t = local_instant(&self.model, &i.local_time)?;

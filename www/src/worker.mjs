@@ -21,8 +21,10 @@ export function runInWorker(fn, input, onProgress) {
   // the script file beside the bundle (same origin), so a strict Content-Security-Policy without
   // blob: in worker-src (script-src 'self') allows it.
   const served = location.protocol !== "file:" && WORKER_URL && new URL(WORKER_URL).origin === location.origin;
-  const source = `(${serveWorker.toString()})((${self.sunlot.boot.toString()})());`;
-  const url = served ? WORKER_URL : URL.createObjectURL(new Blob([source], { type: "text/javascript" }));
+  // The Blob worker's source holds the whole module (its bytes inlined): made only when it is needed.
+  const url = served ? WORKER_URL
+    : URL.createObjectURL(new Blob([`(${serveWorker.toString()})((${self.sunlot.boot.toString()})());`],
+      { type: "text/javascript" }));
   const worker = new Worker(url);
   let reject, done = false;
   const end = () => { done = true; worker.terminate(); if (!served) URL.revokeObjectURL(url); };

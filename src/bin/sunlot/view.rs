@@ -5,7 +5,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 use sunlot::render::{draw_massing_view, MassingLight, MassingView, VIEW_PX};
-use sunlot::view3d::{check_camera, Camera, MassingScene, Projection, V3};
+use sunlot::view3d::{Camera, MassingScene};
 
 use crate::args;
 use crate::shadows::{Loaded, SiteFileArgs};
@@ -64,24 +64,18 @@ pub fn run(a: &ViewArgs) -> Result<String, String> {
         None => Vec::new(),
     };
     let scene = MassingScene::with(&model, extra).map_err(|e| e.to_string())?;
-    let centre = sunlot::view3d::scene::extent(&model).map_or(V3::new(0.0, 0.0, 0.0), |r| {
-        let c = r.center();
-        V3::new(c.x, c.y, 0.0)
-    });
-    let projection = a.perspective_m.map_or(Projection::Parallel, |distance_m| Projection::Perspective { distance_m });
     let camera =
-        Camera { azimuth_deg: a.view_from_deg, elevation_deg: a.view_elevation_deg, projection, target: centre };
-    check_camera(&camera).map_err(|e| match e {
-        sunlot::view3d::ViewError::Camera { field, range, value } => {
-            let option = match field {
-                "azimuth_deg" => "--view-from-deg",
-                "elevation_deg" => "--view-elevation-deg",
-                _ => "--perspective-m",
-            };
-            format!("{option}: must be {range}, got {value}")
-        }
-        other => other.to_string(),
-    })?;
+        Camera::checked(a.view_from_deg, a.view_elevation_deg, a.perspective_m, scene.centre).map_err(|e| match e {
+            sunlot::view3d::ViewError::Camera { field, range, value } => {
+                let option = match field {
+                    "azimuth_deg" => "--view-from-deg",
+                    "elevation_deg" => "--view-elevation-deg",
+                    _ => "--perspective-m",
+                };
+                format!("{option}: must be {range}, got {value}")
+            }
+            other => other.to_string(),
+        })?;
     let sun = sunlot::solar_position(&model.location, t, &Default::default(), a.moment.delta_t.delta_t()?)
         .map_err(|e| e.to_string())?;
     let light = MassingLight::at(&model, &scene, (sun.azimuth_deg, sun.altitude_deg));
