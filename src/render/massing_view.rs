@@ -2,7 +2,7 @@
 //! the lit part, one shade for the part in shadow, cast or its own), drawn back to front through the
 //! scene's partition, with the sun's direction, true north on the ground, a key and the caution.
 
-use geo::{BooleanOps, Coord, MultiPolygon};
+use geo::{BooleanOps, Coord, LineString, MultiPolygon};
 
 use super::draw::{footnote, footnote_px, heading, Anchor, Colour, Draw, INK, LABEL_PX, MUTED, PAPER, TEXT_PX};
 use crate::site::{AreaKind, SiteModel, Status};
@@ -208,23 +208,29 @@ fn draw_faces(d: &mut dyn Draw, v: &MassingView, fit: &Fit) {
                 fill(d, &rings_px(v, fit, frag.face, &shade), dark);
             }
         }
-        // The fragment's edges that lie on its face's outline (not the partition's cuts).
-        let outline: Vec<Coord<f64>> = face.shape.iter().flat_map(|p| p.exterior().0.iter().copied()).collect();
-        for poly in &frag.shape {
-            for edge in poly.exterior().lines() {
-                if same_side(&outline, edge) {
-                    let pts = [face.frame.at(edge.start), face.frame.at(edge.end)];
-                    if let (Some(a), Some(b)) = (fit.px(&v.camera, pts[0]), fit.px(&v.camera, pts[1])) {
-                        match face.kind {
-                            FaceKind::Ground => {}
-                            FaceKind::Envelope => d.stroke(&[a, b], 0.8, ENVELOPE_EDGE, false),
-                            _ => d.stroke(&[a, b], 0.8, EDGE, false),
-                        }
-                    }
-                }
+        // The fragment's edges that lie on its face's outline (not the partition's cuts), holes included.
+        let outline: Vec<&LineString<f64>> = rings_of(&face.shape).collect();
+        for edge in rings_of(&frag.shape).flat_map(|r| r.lines()) {
+            if !outline.iter().any(|r| along(r, edge)) {
+                continue;
+            }
+            let (Some(a), Some(b)) =
+                (fit.px(&v.camera, face.frame.at(edge.start)), fit.px(&v.camera, face.frame.at(edge.end)))
+            else {
+                continue;
+            };
+            match face.kind {
+                FaceKind::Ground => {}
+                FaceKind::Envelope => d.stroke(&[a, b], 0.8, ENVELOPE_EDGE, false),
+                _ => d.stroke(&[a, b], 0.8, EDGE, false),
             }
         }
     }
+}
+
+/// Every ring of a shape: each polygon's exterior, then its holes.
+fn rings_of(shape: &MultiPolygon<f64>) -> impl Iterator<Item = &LineString<f64>> {
+    shape.iter().flat_map(|p| std::iter::once(p.exterior()).chain(p.interiors()))
 }
 
 /// Fills `rings` and strokes them in the same colour, so neighbouring fragments meet without a seam.
@@ -235,11 +241,11 @@ fn fill(d: &mut dyn Draw, rings: &[Vec<(f64, f64)>], colour: Colour) {
     }
 }
 
-/// Whether the whole edge runs along one segment of the outline.
-fn same_side(outline: &[Coord<f64>], edge: geo::Line<f64>) -> bool {
-    outline
-        .windows(2)
-        .any(|s| segment_distance(s[0], s[1], edge.start) < 1e-6 && segment_distance(s[0], s[1], edge.end) < 1e-6)
+/// Whether the whole edge runs along one segment of the ring (within a micrometre).
+fn along(ring: &LineString<f64>, edge: geo::Line<f64>) -> bool {
+    ring.lines().any(|s| {
+        segment_distance(s.start, s.end, edge.start) < 1e-6 && segment_distance(s.start, s.end, edge.end) < 1e-6
+    })
 }
 
 fn segment_distance(a: Coord<f64>, b: Coord<f64>, p: Coord<f64>) -> f64 {
