@@ -10,6 +10,9 @@ use wasm_bindgen_test::*;
 
 wasm_bindgen_test_configure!(run_in_browser);
 
+#[path = "common/zone_digest.rs"]
+mod zone_digest;
+
 fn js(text: &str) -> JsValue {
     JSON::parse(text).expect("test input is JSON")
 }
@@ -615,4 +618,20 @@ fn map_kinds_give_the_maps_of_their_explicit_requests() {
     let unknown =
         sunlot::web::map_of_kind(js(&format!(r#"{{"kind": "shade", "site": {site}, "date": "{date}"}}"#)), None);
     assert!(error_message(unknown).starts_with("kind: \"shade\" is not one of sun-hours"));
+}
+
+/// Every IANA zone's transitions over 1970–2037, read from the table by the wasm build, have the
+/// digest chrono-tz's give natively (`tests/zone_table.rs` checks the fixture against chrono-tz).
+#[wasm_bindgen_test]
+fn the_wasm_build_reads_every_zones_transitions_as_native_does() {
+    use sunlot::time::IanaZone;
+    let (from, to) = zone_digest::SPAN_S;
+    let at = |t| chrono::DateTime::from_timestamp(t, 0).unwrap();
+    let ours = zone_digest::digest(IanaZone::all().map(|z| {
+        let t = z.transitions(at(from), at(to));
+        (z.name().to_string(), t.into_iter().map(|(i, o, a)| (i.timestamp(), o, a.to_string())).collect())
+    }));
+    let fixture = include_str!("fixtures/zone_transitions_1970_2037.txt");
+    assert_eq!(zone_digest::line(ours), zone_digest::committed(fixture));
+    assert!(IanaZone::all().count() > 590);
 }

@@ -1,14 +1,16 @@
 //! Time zones and the reading of times typed by a user.
 //!
-//! A [`Zone`] is an IANA zone (with its daylight-saving rules, from `chrono-tz`) or a fixed UTC offset.
+//! A [`Zone`] is an IANA zone (with its daylight-saving history, from the compact table of
+//! [`super::zone_table`], generated from `chrono-tz`) or a fixed UTC offset.
 //! Local wall-clock times are resolved to instants explicitly: a time skipped by a spring-forward change
 //! is an error, and a time repeated by a fall-back change is an error unless the caller picks a [`Fold`].
 
 use std::fmt;
 use std::str::FromStr;
 
-use chrono::{DateTime, FixedOffset, LocalResult, NaiveDate, NaiveDateTime, Offset, TimeZone, Utc};
-use chrono_tz::Tz;
+use chrono::{DateTime, FixedOffset, LocalResult, NaiveDate, NaiveDateTime, TimeZone, Utc};
+
+use super::zone_table::{self, Kind, LocalKinds};
 
 /// Errors in reading times and zones; each names what was wrong with the text given.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -50,11 +52,52 @@ pub enum Fold {
     Later,
 }
 
+/// An IANA zone by name (links included), an index into the compact table.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct IanaZone(u16);
+
+impl IanaZone {
+    /// The zone's name as the database spells it (`Europe/London`).
+    pub fn name(self) -> &'static str {
+        zone_table::table().names[usize::from(self.0)].0
+    }
+
+    /// Every zone of the table (links included), in name order.
+    pub fn all() -> impl Iterator<Item = IanaZone> {
+        (0..zone_table::table().names.len()).filter_map(|i| u16::try_from(i).ok().map(IanaZone))
+    }
+
+    /// Every change of this zone's offset or abbreviation at or after `from` and before `to`: the
+    /// instant, the offset in seconds east of UTC from then on, and its abbreviation.
+    pub fn transitions(self, from: DateTime<Utc>, to: DateTime<Utc>) -> Vec<(DateTime<Utc>, i32, &'static str)> {
+        let r = zone_table::table().record(usize::from(self.0));
+        r.at_s
+            .iter()
+            .zip(&r.kinds)
+            .filter(|(&t, _)| (from.timestamp()..to.timestamp()).contains(&t))
+            .filter_map(|(&t, k)| Some((DateTime::from_timestamp(t, 0)?, k.offset_s, k.abbreviation)))
+            .collect()
+    }
+
+    fn kind_at(self, instant: DateTime<Utc>) -> Kind {
+        zone_table::table().record(usize::from(self.0)).at(instant.timestamp())
+    }
+}
+
+/// The IANA tz release the zone table was made from (e.g. `2025b`).
+pub fn tz_release() -> &'static str {
+    zone_table::table().release
+}
+
+fn fixed(offset_s: i32) -> FixedOffset {
+    FixedOffset::east_opt(offset_s).unwrap_or(FixedOffset::east_opt(0).expect("zero offset is valid"))
+}
+
 /// A time zone for reading and writing local clock times.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Zone {
     /// An IANA zone, with its daylight-saving history.
-    Iana(Tz),
+    Iana(IanaZone),
     /// A fixed offset from UTC.
     Fixed(FixedOffset),
 }
@@ -72,7 +115,17 @@ impl Zone {
     /// overlap when `fold` is [`Fold::Reject`].
     pub fn resolve(&self, wall: NaiveDateTime, fold: Fold) -> Result<DateTime<Utc>, TimeError> {
         match self {
-            Zone::Iana(tz) => pick(tz.from_local_datetime(&wall), wall, fold, self),
+            Zone::Iana(tz) => {
+                let wall_utc = wall.and_utc();
+                // The instant a wall time names under an offset: the wall time read as UTC, less the offset.
+                let at = |k: Kind| wall_utc - chrono::Duration::seconds(i64::from(k.offset_s));
+                let r = match zone_table::table().record(usize::from(tz.0)).local(wall_utc.timestamp()) {
+                    LocalKinds::None => LocalResult::None,
+                    LocalKinds::Single(k) => LocalResult::Single(at(k)),
+                    LocalKinds::Ambiguous(a, b) => LocalResult::Ambiguous(at(a), at(b)),
+                };
+                pick(r, wall, fold, self)
+            }
             Zone::Fixed(off) => pick(off.from_local_datetime(&wall), wall, fold, self),
         }
     }
@@ -80,10 +133,7 @@ impl Zone {
     /// An instant as local time in this zone, with the offset in force then.
     pub fn local(&self, instant: DateTime<Utc>) -> DateTime<FixedOffset> {
         match self {
-            Zone::Iana(tz) => {
-                let l = instant.with_timezone(tz);
-                l.with_timezone(&l.offset().fix())
-            }
+            Zone::Iana(tz) => instant.with_timezone(&fixed(tz.kind_at(instant).offset_s)),
             Zone::Fixed(off) => instant.with_timezone(off),
         }
     }
@@ -97,7 +147,9 @@ impl Zone {
     /// (e.g. `2026-06-21 15:00 BST`), or the offset for a fixed zone.
     pub fn label(&self, instant: DateTime<Utc>) -> String {
         match self {
-            Zone::Iana(tz) => instant.with_timezone(tz).format("%Y-%m-%d %H:%M %Z").to_string(),
+            Zone::Iana(tz) => {
+                format!("{} {}", self.local(instant).format("%Y-%m-%d %H:%M"), tz.kind_at(instant).abbreviation)
+            }
             Zone::Fixed(off) => instant.with_timezone(off).format("%Y-%m-%d %H:%M %:z").to_string(),
         }
     }
@@ -155,8 +207,8 @@ impl FromStr for Zone {
         if t.eq_ignore_ascii_case("utc") || t == "Z" {
             return Ok(Zone::utc());
         }
-        if let Ok(tz) = t.parse::<Tz>() {
-            return Ok(Zone::Iana(tz));
+        if let Some(i) = zone_table::table().find(t).and_then(|i| u16::try_from(i).ok()) {
+            return Ok(Zone::Iana(IanaZone(i)));
         }
         parse_offset(t).map(Zone::Fixed).ok_or_else(|| TimeError::UnknownZone { text: text.to_string() })
     }

@@ -23,3 +23,10 @@ pub fn fixture_rows(name: &str) -> Vec<HashMap<String, String>> {
 pub fn num(row: &HashMap<String, String>, key: &str) -> f64 {
     row[key].parse().unwrap_or_else(|_| panic!("fixture field {key} = {:?}", row[key]))
 }
+
+/// The text of a fixture file in `tests/fixtures/`.
+#[allow(dead_code)]
+pub fn fixture_text(name: &str) -> String {
+    let path: PathBuf = [env!("CARGO_MANIFEST_DIR"), "tests", "fixtures", name].iter().collect();
+    std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("fixture {}: {e}", path.display()))
+}
