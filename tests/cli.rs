@@ -832,3 +832,48 @@ fn view_writes_the_3d_view_and_names_bad_options() {
     );
     assert!(stderr(&o).contains("--envelope-lot"), "{}", stderr(&o));
 }
+
+/// `sunlot tiles` plans, computes and `sunlot stitch` joins tiles equal to the single run, byte for
+/// byte; wrong extents, indices and files are refused by name.
+#[test]
+fn tiles_stitch_into_the_single_run_and_bad_tiles_are_named() {
+    let dir = std::env::temp_dir().join(format!("sunlot-cli-tiles-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let p = |f: &str| dir.join(f).to_string_lossy().to_string();
+    let common =
+        ["tiles", "--demo", "--date", "2026-03-21", "--window", "10:00-14:00", "--cell-m", "1", "--tile-cells", "25"];
+    let plan = sunlot(&[&common[..], &["--format", "json"]].concat(), None);
+    assert!(plan.status.success(), "{}", stderr(&plan));
+    let rows: serde_json::Value = serde_json::from_str(&stdout(&plan)).unwrap();
+    let n = rows.as_array().unwrap().len();
+    assert!(n > 4, "{n} tiles");
+    let text = stdout(&sunlot(&common, None));
+    assert!(text.contains("Halo ") && text.contains("at its lowest"), "{text}");
+    let mut files = Vec::new();
+    for i in 0..n {
+        let f = p(&format!("t{i}.f32"));
+        let o = sunlot(&[&common[..], &["--index", &i.to_string(), "--out", &f]].concat(), None);
+        assert!(o.status.success(), "{}", stderr(&o));
+        files.push(f);
+    }
+    let whole = sunlot(&[&common[..], &["--whole", "--out", &p("whole.f32")]].concat(), None);
+    assert!(whole.status.success(), "{}", stderr(&whole));
+    let refs: Vec<&str> = files.iter().map(String::as_str).collect();
+    let out = p("stitched.f32");
+    let s = sunlot(&[&["stitch"][..], &refs, &["--out", &out, "--cells-csv", &p("cells.csv")]].concat(), None);
+    assert!(s.status.success(), "{}", stderr(&s));
+    assert_eq!(std::fs::read(&out).unwrap(), std::fs::read(p("whole.f32")).unwrap());
+    let csv = std::fs::read_to_string(p("cells.csv")).unwrap();
+    assert!(csv.starts_with("x_m,y_m,sun_hours\n") && csv.lines().count() > 100);
+
+    let o = sunlot(&[&common[..], &["--index", "999", "--out", &p("x.f32")]].concat(), None);
+    assert!(stderr(&o).contains(&format!("--index 999: the plan has tiles 0 to {}", n - 1)), "{}", stderr(&o));
+    let o = sunlot(&[&common[..], &["--bbox", "10,10,5,20"]].concat(), None);
+    assert!(stderr(&o).contains("--bbox takes X0,Y0,X1,Y1"), "{}", stderr(&o));
+    std::fs::write(p("junk.f32"), b"not a tile").unwrap();
+    let o = sunlot(&["stitch", &files[0], &p("junk.f32"), "--out", &p("y.f32")], None);
+    assert!(stderr(&o).contains("junk.f32: not a sunlot tile file"), "{}", stderr(&o));
+    let o = sunlot(&[&["stitch"][..], &refs[1..], &["--out", &p("z.f32")]].concat(), None);
+    assert!(stderr(&o).contains("uncovered"), "{}", stderr(&o));
+    std::fs::remove_dir_all(&dir).ok();
+}

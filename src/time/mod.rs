@@ -12,4 +12,4 @@ mod zone_table;
 pub use delta_t::{delta_t_espenak_meeus_s, DeltaT};
 pub use julian::{instant_from_julian_day, julian_day, year_fraction};
 pub use zone::{parse_instant, tz_release, Fold, IanaZone, TimeError, Zone};
-pub use zone_table::encode as encode_zone_table;
+pub use zone_table::{encode as encode_zone_table, ZoneHistory};

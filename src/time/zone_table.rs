@@ -186,11 +186,15 @@ fn read_record(r: &mut Reader<'static>, abbreviations: &[&'static str]) -> Optio
     Some(Record { initial, at_s, kinds: starts })
 }
 
+/// A zone's history as the generator reads it: name, the kind before the first transition
+/// (offset_s, abbreviation), and the transitions (Unix s, offset_s, abbreviation).
+pub type ZoneHistory = (String, (i32, String), Vec<(i64, i32, String)>);
+
 /// Encodes a table (used by the generator, `examples/zone_table.rs`, and the tests).
 ///
 /// `zones` are (name, initial kind, transitions) with the kinds as (offset_s, abbreviation); names
 /// with the same history share one record.
-pub fn encode(release: &str, zones: &[(String, (i32, String), Vec<(i64, i32, String)>)]) -> Vec<u8> {
+pub fn encode(release: &str, zones: &[ZoneHistory]) -> Vec<u8> {
     use std::collections::BTreeMap;
     let mut abbreviations: Vec<String> = Vec::new();
     let abbr_index = |a: &str, list: &mut Vec<String>| match list.iter().position(|x| x == a) {

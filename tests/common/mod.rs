@@ -1,4 +1,5 @@
 //! Helpers shared by the integration tests: reading the committed fixtures.
+#![allow(dead_code)] // each test uses some of them
 
 use std::collections::HashMap;
 use std::path::PathBuf;
@@ -25,7 +26,6 @@ pub fn num(row: &HashMap<String, String>, key: &str) -> f64 {
 }
 
 /// The text of a fixture file in `tests/fixtures/`.
-#[allow(dead_code)]
 pub fn fixture_text(name: &str) -> String {
     let path: PathBuf = [env!("CARGO_MANIFEST_DIR"), "tests", "fixtures", name].iter().collect();
     std::fs::read_to_string(&path).unwrap_or_else(|e| panic!("fixture {}: {e}", path.display()))

@@ -10,8 +10,7 @@
 use chrono::{DateTime, Offset, TimeZone};
 use chrono_tz::{Tz, TzOffset, TZ_VARIANTS};
 
-/// A zone's (name, kind before the first transition, transitions (Unix s, offset s, abbreviation)).
-pub type ZoneHistory = (String, (i32, String), Vec<(i64, i32, String)>);
+pub use sunlot::time::ZoneHistory;
 
 /// 1800-01-01T00:00Z and 2101-01-01T00:00Z: chrono-tz's transitions run from 1845 to 2099.
 pub const SCAN_FROM_S: i64 = -5_364_662_400;

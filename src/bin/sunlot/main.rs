@@ -20,6 +20,7 @@ mod progress;
 mod seasons;
 mod shadows;
 mod sky;
+mod tiles;
 mod timeline;
 mod view;
 mod window;
@@ -55,6 +56,11 @@ enum Command {
     ShadowTable(shadows::ShadowTableArgs),
     /// Hours of direct sun per cell over a site's areas, for a date or a range, in a daily window.
     Hours(hours::HoursArgs),
+    /// A sun-hours map cut into tiles for separate processes or machines: the plan, one tile, or the
+    /// whole extent, each as a file of 32-bit floats.
+    Tiles(tiles::TilesArgs),
+    /// Stitches tile files from `sunlot tiles --index` into one map (refusing gaps and disagreements).
+    Stitch(tiles::StitchArgs),
     /// Clear-sky energy per cell (kWh/m²): beam in direct sun plus diffuse by each cell's sky view.
     Insolation(insolation::InsolationArgs),
     /// Sun before and after the proposal, area by area, with maps of the hours lost and the ratio.
@@ -106,6 +112,8 @@ fn main() -> ExitCode {
         Command::Shadows(a) => shadows::run_shadows(a),
         Command::ShadowTable(a) => shadows::run_shadow_table(a),
         Command::Hours(a) => hours::run(a),
+        Command::Tiles(a) => tiles::run_tiles(a),
+        Command::Stitch(a) => tiles::run_stitch(a),
         Command::Insolation(a) => insolation::run(a),
         Command::Compare(a) => compare::run(a),
         Command::Check(a) => check::run(a),
