@@ -12,9 +12,9 @@
 //!
 //! ```text
 //! "SLTZ1\n" · tz release (len, bytes) · abbreviations: n, then (len, bytes) each
-//! records: n, then each: types n, (offset_s signed, abbreviation index) each; initial type;
-//!          transitions n, (seconds since the previous transition signed — the first since
-//!          1970-01-01T00:00Z —, type) each
+//! records: n, then each: its length in bytes, then types n, (offset_s signed, abbreviation
+//!          index) each; initial type; transitions n, (seconds since the previous transition
+//!          signed — the first since 1970-01-01T00:00Z —, type) each
 //! names:   n, sorted, then each: (len, bytes, record index)
 //! ```
 
@@ -39,12 +39,15 @@ pub(crate) struct Record {
     pub kinds: Vec<Kind>,
 }
 
-/// The decoded table: the tz release, records, and the zone names (sorted) with their record.
+/// The table: the tz release, the zone names (sorted) with their record, and the records, each
+/// decoded when a zone first needs it (a page or a worker that uses one zone decodes one record).
 #[derive(Debug)]
 pub(crate) struct Table {
     pub release: &'static str,
-    pub records: Vec<Record>,
     pub names: Vec<(&'static str, usize)>,
+    abbreviations: Vec<&'static str>,
+    /// Each record's bytes, and the record once decoded.
+    records: Vec<(&'static [u8], OnceLock<Record>)>,
 }
 
 /// What a wall-clock time in a zone names: the kinds of offset under which it occurs (none in a gap,
@@ -102,8 +105,18 @@ impl Table {
         self.names.binary_search_by(|(n, _)| (*n).cmp(name)).ok()
     }
 
+    /// The record of the name at `name_index`, decoded on first use.
     pub fn record(&self, name_index: usize) -> &Record {
-        &self.records[self.names[name_index].1]
+        let (bytes, decoded) = &self.records[self.names[name_index].1];
+        decoded.get_or_init(|| {
+            read_record(&mut Reader { bytes: *bytes, at: 0 }, &self.abbreviations)
+                .expect("every record of zones.bin decodes (checked by decode and tests/zone_table.rs)")
+        })
+    }
+
+    /// How many distinct histories the table holds (zones that are links share one).
+    pub fn record_count(&self) -> usize {
+        self.records.len()
     }
 }
 
@@ -154,7 +167,14 @@ pub(crate) fn decode(bytes: &'static [u8]) -> Option<Table> {
     let mut r = Reader { bytes: bytes.strip_prefix(b"SLTZ1\n")?, at: 0 };
     let release = r.text()?;
     let abbreviations: Vec<&'static str> = (0..r.count()?).map(|_| r.text()).collect::<Option<_>>()?;
-    let records = (0..r.count()?).map(|_| read_record(&mut r, &abbreviations)).collect::<Option<Vec<_>>>()?;
+    let records = (0..r.count()?)
+        .map(|_| {
+            let n = r.count()?;
+            let bytes = r.bytes.get(r.at..r.at.checked_add(n)?)?;
+            r.at += n;
+            Some((bytes, OnceLock::new()))
+        })
+        .collect::<Option<Vec<_>>>()?;
     let names = (0..r.count()?)
         .map(|_| {
             let name = r.text()?;
@@ -163,10 +183,18 @@ pub(crate) fn decode(bytes: &'static [u8]) -> Option<Table> {
         })
         .collect::<Option<Vec<_>>>()?;
     let sorted = names.windows(2).all(|w| w[0].0 < w[1].0);
-    (sorted && r.at == r.bytes.len()).then_some(Table { release, records, names })
+    (sorted && r.at == r.bytes.len()).then_some(Table { release, names, abbreviations, records })
 }
 
-fn read_record(r: &mut Reader<'static>, abbreviations: &[&'static str]) -> Option<Record> {
+/// Whether every record of `table` decodes whole (what [`Table::record`] relies on).
+pub(crate) fn all_records_decode(table: &Table) -> bool {
+    table.records.iter().all(|(bytes, _)| {
+        let mut r = Reader { bytes: *bytes, at: 0 };
+        read_record(&mut r, &table.abbreviations).is_some() && r.at == bytes.len()
+    })
+}
+
+fn read_record(r: &mut Reader<'_>, abbreviations: &[&'static str]) -> Option<Record> {
     let kinds: Vec<Kind> = (0..r.count()?)
         .map(|_| {
             let offset_s = i32::try_from(r.signed()?).ok()?;
@@ -245,7 +273,10 @@ pub fn encode(release: &str, zones: &[ZoneHistory]) -> Vec<u8> {
     put(&mut out, abbreviations.len() as u64);
     abbreviations.iter().for_each(|a| put_text(&mut out, a));
     put(&mut out, records.len() as u64);
-    records.iter().for_each(|r| out.extend(r));
+    for r in &records {
+        put(&mut out, r.len() as u64);
+        out.extend(r);
+    }
     put(&mut out, record_of.len() as u64);
     for (name, i) in &record_of {
         put_text(&mut out, name);
@@ -282,6 +313,7 @@ mod tests {
     #[test]
     fn the_committed_table_decodes() {
         let t = table();
+        assert!(all_records_decode(t));
         assert!(t.names.len() > 500, "{} names", t.names.len());
         let london = t.record(t.find("Europe/London").unwrap());
         // 2024-03-31T01:00Z: GMT to BST (UK Summer Time Order; common practice).
@@ -298,9 +330,10 @@ mod tests {
         ];
         let bytes: &'static [u8] = Vec::leak(encode("test", &zones));
         let t = decode(bytes).unwrap();
-        assert_eq!(t.records.len(), 1, "the same history is stored once");
+        assert!(all_records_decode(&t));
+        assert_eq!(t.record_count(), 1, "the same history is stored once");
         assert_eq!(t.names, vec![("A/One", 0), ("B/Two", 0)]);
-        let r = &t.records[0];
+        let r = t.record(0);
         assert_eq!(r.at(-101).offset_s, 0);
         assert_eq!(r.at(-100).abbreviation, "Y");
         assert_eq!(r.at(50).abbreviation, "X");
