@@ -38,8 +38,8 @@ pub fn cell_cover(grid: &Grid, polygon: &Polygon<f64>) -> Vec<f64> {
             .iter()
             .enumerate()
             .map(|(k, ring)| {
-                let mut p = clip(&ring.0, |q| q.y - y0, &mut scratch);
-                p = clip(&p, |q| y1 - q.y, &mut scratch);
+                let mut p = clip(&ring.0, |q| q.y - y0, |q| Coord { y: y0, ..q }, &mut scratch);
+                p = clip(&p, |q| y1 - q.y, |q| Coord { y: y1, ..q }, &mut scratch);
                 (if k == 0 { 1.0 } else { -1.0 }, p)
             })
             .filter(|(_, p)| p.len() >= 3)
@@ -70,8 +70,8 @@ pub fn cell_cover(grid: &Grid, polygon: &Polygon<f64>) -> Vec<f64> {
             let x1 = x0 + c;
             let mut m2 = 0.0;
             for (sign, p) in &pieces {
-                let q = clip(p, |q| q.x - x0, &mut scratch);
-                let q = clip(&q, |q| x1 - q.x, &mut scratch);
+                let q = clip(p, |q| q.x - x0, |q| Coord { x: x0, ..q }, &mut scratch);
+                let q = clip(&q, |q| x1 - q.x, |q| Coord { x: x1, ..q }, &mut scratch);
                 m2 += sign * signed_area(&q).abs();
             }
             let share = (m2 / cell_m2).clamp(0.0, 1.0);
@@ -82,8 +82,15 @@ pub fn cell_cover(grid: &Grid, polygon: &Polygon<f64>) -> Vec<f64> {
 }
 
 /// The part of the closed ring `ring` (first point not repeated, or repeated: both work) where
-/// `inside(q) ≥ 0`, for an affine `inside`.
-fn clip(ring: &[Coord<f64>], inside: impl Fn(Coord<f64>) -> f64, out: &mut Vec<Coord<f64>>) -> Vec<Coord<f64>> {
+/// `inside(q) ≥ 0`, for an affine `inside`. Each new vertex where an edge crosses the line
+/// `inside = 0` is put exactly on it by `on_line` (rounding would leave it a hair off, and a strip's
+/// bottom edge would then not read as the strip's edge: every cell of the row would be clipped).
+fn clip(
+    ring: &[Coord<f64>],
+    inside: impl Fn(Coord<f64>) -> f64,
+    on_line: impl Fn(Coord<f64>) -> Coord<f64>,
+    out: &mut Vec<Coord<f64>>,
+) -> Vec<Coord<f64>> {
     out.clear();
     let n = ring.len();
     for i in 0..n {
@@ -94,7 +101,7 @@ fn clip(ring: &[Coord<f64>], inside: impl Fn(Coord<f64>) -> f64, out: &mut Vec<C
         }
         if (da >= 0.0) != (db >= 0.0) {
             let t = da / (da - db);
-            out.push(Coord { x: a.x + t * (b.x - a.x), y: a.y + t * (b.y - a.y) });
+            out.push(on_line(Coord { x: a.x + t * (b.x - a.x), y: a.y + t * (b.y - a.y) }));
         }
     }
     std::mem::take(out)
