@@ -5,7 +5,9 @@ classic script, each module in its own function scope, in the order of their imp
 base64.
 
 Everything lands in one global namespace, `self.sunlot`: `sunlot.ready` (a promise of the module's
-functions) and `sunlot.boot()` (another copy of the module, for Web Workers) from the wasm part, then
+functions) and `sunlot.boot()` (another instance of the module), `sunlot.compiled` (a promise of the compiled
+WebAssembly.Module) and `sunlot.bootModule(compiled)` (an instance from it: what Blob workers run)
+from the wasm part, then
 the entry module's exports.
 
 The stitcher takes the module syntax the sources use and nothing else: `import { a, b } from
@@ -97,8 +99,13 @@ def stitch(entry, root):
 def wasm_part(src):
     glue = (src / "sunlot.js").read_text()
     wasm = base64.b64encode((src / "sunlot_bg.wasm").read_bytes()).decode()
-    return f"""function boot() {{
+    return f"""// One instance of the module from a compiled WebAssembly.Module: self-contained (its source is
+// what a Blob worker gets, with the compiled module posted to it, so a worker neither decodes nor
+// compiles the wasm again).
+function bootModule(compiled) {{
 {glue}
+return wasm_bindgen({{ module_or_path: compiled }}).then(() => wasm_bindgen);
+}}
 const b64 = "{wasm}";
 let bytes;
 if (Uint8Array.fromBase64) bytes = Uint8Array.fromBase64(b64); else {{
@@ -106,10 +113,10 @@ if (Uint8Array.fromBase64) bytes = Uint8Array.fromBase64(b64); else {{
   bytes = new Uint8Array(text.length);
   for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
 }}
-return wasm_bindgen({{ module_or_path: bytes }}).then(() => wasm_bindgen);
-}}
-sunlot.boot = boot;
-sunlot.ready = boot();
+sunlot.compiled = WebAssembly.compile(bytes);
+sunlot.bootModule = bootModule;
+sunlot.boot = () => sunlot.compiled.then(bootModule);
+sunlot.ready = sunlot.boot();
 """
 
 

@@ -4,4 +4,4 @@
 // 'self') allows it. From disk (file://) the widgets make the same worker from a Blob URL instead;
 // both run the one loop, sunlot.serveWorker (www/src/serve.mjs).
 importScripts("sunlot.bundle.js");
-self.sunlot.serveWorker(self.sunlot.ready);
+self.sunlot.serveWorker(() => self.sunlot.ready);

@@ -1,13 +1,15 @@
 // The worker side of the widgets' long calls, one loop for both workers: the script file beside the
 // bundle (www/worker.js, for pages served over http(s)) and the worker made from a Blob URL (pages
 // opened from disk), which gets this function's source.
-// Messages: {fn, input} in; {progress}, then {result} or {error} out.
+// Messages: {fn, input, compiled?} in; {progress}, then {result} or {error} out.
 
-/** Answers the page's messages with calls of the module that `ready` resolves to. Self-contained
- * (its source is sent to a Blob worker as it is). */
-export function serveWorker(ready) {
+/** Answers the page's messages with calls of the module `boot(compiled)` resolves to (`compiled`:
+ * the WebAssembly.Module the page posts with the call, or none). Self-contained (its source is sent
+ * to a Blob worker as it is). */
+export function serveWorker(boot) {
+  let ready;
   self.onmessage = async e => {
-    const m = await ready;
+    const m = await (ready ||= boot(e.data.compiled));
     try {
       const out = m[e.data.fn](e.data.input, f => { self.postMessage({ progress: f }); return true; });
       self.postMessage({ result: out });

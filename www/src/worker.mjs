@@ -21,9 +21,10 @@ export function runInWorker(fn, input, onProgress) {
   // the script file beside the bundle (same origin), so a strict Content-Security-Policy without
   // blob: in worker-src (script-src 'self') allows it.
   const served = location.protocol !== "file:" && WORKER_URL && new URL(WORKER_URL).origin === location.origin;
-  // The Blob worker's source holds the whole module (its bytes inlined): made only when it is needed.
+  // The Blob worker's source is the wasm-bindgen glue alone; it gets the module the page compiled
+  // with the call (a WebAssembly.Module is shared, not copied), so it neither decodes nor compiles.
   const url = served ? WORKER_URL
-    : URL.createObjectURL(new Blob([`(${serveWorker.toString()})((${self.sunlot.boot.toString()})());`],
+    : URL.createObjectURL(new Blob([`(${serveWorker.toString()})(${self.sunlot.bootModule.toString()});`],
       { type: "text/javascript" }));
   const worker = new Worker(url);
   let reject, done = false;
@@ -37,6 +38,7 @@ export function runInWorker(fn, input, onProgress) {
     };
     worker.onerror = e => { end(); rej(new Error(e.message || "worker failed")); };
   });
-  worker.postMessage({ fn, input });
+  if (served) worker.postMessage({ fn, input });
+  else self.sunlot.compiled.then(compiled => worker.postMessage({ fn, input, compiled }), e => { end(); reject(e); });
   return { promise, cancel() { if (done) return; end(); reject(new CancelledError()); } };
 }
