@@ -223,6 +223,22 @@ pub fn cast_shadows(
     receiver: &Receiver,
     extent: Rect<f64>,
 ) -> Result<Shadows, ShadowError> {
+    let mut s = cast_each(volumes, walls, azimuth_deg, altitude_deg, receiver, extent)?;
+    if let Shadows::Sun { per_feature, union, .. } = &mut s {
+        *union = without_slivers(unary_union(per_feature.iter().map(|(_, s)| s)));
+    }
+    Ok(s)
+}
+
+/// [`cast_shadows`] without the union (left empty): for callers that form their own unions.
+pub(crate) fn cast_each(
+    volumes: &[Volume],
+    walls: &[Wall],
+    azimuth_deg: f64,
+    altitude_deg: f64,
+    receiver: &Receiver,
+    extent: Rect<f64>,
+) -> Result<Shadows, ShadowError> {
     let k = receiver.gradient;
     for (field, value) in [
         ("azimuth_deg", azimuth_deg),
@@ -265,8 +281,7 @@ pub fn cast_shadows(
         };
         per_feature.push((id, without_slivers(s)));
     }
-    let union = without_slivers(unary_union(per_feature.iter().map(|(_, s)| s)));
-    Ok(Shadows::Sun { per_feature, union, clipped })
+    Ok(Shadows::Sun { per_feature, union: MultiPolygon::new(vec![]), clipped })
 }
 
 /// Parts and holes smaller than this are noise of the boolean operations, not shade, m² (a square

@@ -5,7 +5,7 @@ use chrono::{DateTime, Utc};
 use geo::{Area as _, BooleanOps, BoundingRect, Coord, MultiPolygon, Rect};
 use serde::Serialize;
 
-use super::cast::{cast_shadows, ShadowError, Shadows};
+use super::cast::{cast_each, ShadowError, Shadows};
 use super::ground::Receiver;
 use crate::site::{SiteModel, Status};
 use crate::solar::{solar_position, Atmosphere, InputError, SolarPosition};
@@ -126,7 +126,7 @@ pub fn shadow_study(model: &SiteModel, instant: DateTime<Utc>, delta_t: DeltaT) 
     let plan_az = model.plan_azimuth_deg(sun.azimuth_deg);
     let receiver = Receiver::on(&model.ground, model.plan_rotation_deg, 0.0);
     let (per_feature, clipped) =
-        match cast_shadows(&model.volumes, &model.walls, plan_az, sun.altitude_deg, &receiver, extent)? {
+        match cast_each(&model.volumes, &model.walls, plan_az, sun.altitude_deg, &receiver, extent)? {
             Shadows::NoSun => return Ok(Study::NoSun { sun }),
             Shadows::GroundFacesAway => return Ok(Study::SunBehindGround { sun }),
             Shadows::Sun { per_feature, clipped, .. } => (per_feature, clipped),
@@ -141,7 +141,15 @@ pub fn shadow_study(model: &SiteModel, instant: DateTime<Utc>, delta_t: DeltaT) 
     };
     let existing = union_of(Some(Status::Existing));
     let proposed = union_of(Some(Status::Proposed));
-    let combined = union_of(None);
+    // Both together: one side alone as it is, else the union of the two unions (their pieces' union,
+    // without forming it a third time from every feature).
+    let combined = if proposed.0.is_empty() {
+        existing.clone()
+    } else if existing.0.is_empty() {
+        proposed.clone()
+    } else {
+        super::cast::without_slivers(existing.union(&proposed))
+    };
     let areas = model
         .areas
         .iter()
