@@ -134,13 +134,11 @@ pub fn shadow_study(model: &SiteModel, instant: DateTime<Utc>, delta_t: DeltaT) 
     let statuses = model.volumes.iter().map(|v| v.status).chain(model.walls.iter().map(|w| w.status));
     let per_feature: Vec<(String, Status, MultiPolygon<f64>)> =
         per_feature.into_iter().zip(statuses).map(|((id, s), st)| (id, st, s)).collect();
-    let union_of = |want: Option<Status>| {
-        super::cast::without_slivers(geo::unary_union(
-            per_feature.iter().filter(|f| want.is_none_or(|w| f.1 == w)).map(|f| &f.2),
-        ))
+    let union_of = |want: Status| {
+        super::cast::without_slivers(geo::unary_union(per_feature.iter().filter(|f| f.1 == want).map(|f| &f.2)))
     };
-    let existing = union_of(Some(Status::Existing));
-    let proposed = union_of(Some(Status::Proposed));
+    let existing = union_of(Status::Existing);
+    let proposed = union_of(Status::Proposed);
     // Both together: one side alone as it is, else the union of the two unions (their pieces' union,
     // without forming it a third time from every feature).
     let combined = if proposed.0.is_empty() {
