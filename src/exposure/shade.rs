@@ -54,7 +54,7 @@ impl<'a, const K: usize> ShadeSums<'a, K> {
     pub(crate) fn new(model: &'a SiteModel, grid: &'a Grid, receiver: Receiver, massing: Massing) -> Self {
         let threads = if cfg!(target_arch = "wasm32") { 1 } else { THREADS };
         let n = grid.rows * (grid.cols + 1);
-        let diff = (0..threads).map(|_| std::array::from_fn(|_| vec![0.0; n])).collect();
+        let diff = (0..threads).map(|_| std::array::from_fn(|_| written_zeros(n))).collect();
         ShadeSums { model, grid, receiver, massing, bounds: grid.bounds(), diff }
     }
 
@@ -80,7 +80,8 @@ impl<'a, const K: usize> ShadeSums<'a, K> {
         });
     }
 
-    /// The totals, per weight, row-major as the grid (every cell, inside the area or not).
+    /// The totals, per weight, row-major as the grid (every cell, inside the area or not). The prefix
+    /// sums are formed in place in the first thread's difference arrays (no new storage).
     pub(crate) fn finish(mut self) -> [Vec<f64>; K] {
         let (first, rest) = self.diff.split_at_mut(1);
         for other in rest.iter() {
@@ -89,19 +90,33 @@ impl<'a, const K: usize> ShadeSums<'a, K> {
             }
         }
         let (rows, cols) = (self.grid.rows, self.grid.cols);
-        let diff = &first[0];
-        std::array::from_fn(|k| {
-            let mut out = vec![0.0; rows * cols];
+        let diffs = self.diff.swap_remove(0);
+        diffs.map(|mut d| {
+            // Cell (row, col) moves from row·(cols+1)+col down to row·cols+col: never past a value
+            // still to be read, as the walk goes forward.
             for row in 0..rows {
                 let mut acc = 0.0;
                 for col in 0..cols {
-                    acc += diff[k][row * (cols + 1) + col];
-                    out[row * cols + col] = acc;
+                    acc += d[row * (cols + 1) + col];
+                    d[row * cols + col] = acc;
                 }
             }
-            out
+            d.truncate(rows * cols);
+            d
         })
     }
+}
+
+/// `n` zeros written one by one rather than taken from the allocator's zeroed pages: a zeroed page
+/// is first mapped read-only and copied on the first write, and with a second thread running that
+/// copy costs every core a TLB flush (measured: a third of a 500² sun-hours run went to those
+/// flushes).
+fn written_zeros(n: usize) -> Vec<f64> {
+    // Neither `vec![0.0; n]` (it asks for zeroed memory when the value is zero) nor a fill the
+    // compiler can see is of zeros (it turns it back into a zeroed allocation).
+    let mut v = Vec::with_capacity(n);
+    v.resize(n, std::hint::black_box(0.0));
+    v
 }
 
 /// A feature that casts, with what culling needs on flat receivers.
