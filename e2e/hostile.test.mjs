@@ -84,6 +84,9 @@ const report = await page.evaluate(async HANG_MS => {
                 (m, i) => new m.PlanLayer(i, new Float64Array(grid.cols * grid.rows).fill(2)).free()],
     seasonInstants: [{ year: 2026, zone: "Europe/London" }, (m, i) => m.seasonInstants(i.year, i.zone)],
     mapOfKind: [{ kind: "lost", site, date: "2026-03-20" }, (m, i) => m.mapOfKind(i)],
+    mapOfKindPart: [{ kind: "lost", site, date: "2026-03-20", part: { index: 1, of: 2 } }, (m, i) => m.mapOfKind(i)],
+    joinMapParts: [{ kind: "lost", site, date: "2026-03-20", openValue: 12 },
+                   (m, i) => m.joinMapParts(i, lostValues ||= m.mapOfKind({ kind: "lost", site, date: "2026-03-20" }).values)],
     massingViewer: [{ text: site }, (m, i) => new m.MassingViewer(i.text).free()],
     massingDraw: [{ localTime: "2026-03-20T15:00", fromDeg: 210, elevationDeg: 35, perspectiveM: 120,
                     palette: { ink: "#000000", paper: "#ffffff" } },
@@ -96,6 +99,7 @@ const report = await page.evaluate(async HANG_MS => {
     windowLight: [{ site, xM: 31, yM: 12, zM: 1.2, facingDeg: 0, date: "2026-06-21", to: "2026-06-22", stepMin: 30,
                     azimuthStepDeg: 1 }, (m, i) => m.windowLight(i)],
   };
+  let lostValues = null;
   const replacements = [NaN, Infinity, -Infinity, -1, 0, 1e308, 2 ** 32, -(2 ** 31), "x", "", null, [], {}, true,
                         [1], "2026-02-30", "99:99-00:00", "garden-16".repeat(1000)];
   const cases = [];

@@ -112,6 +112,64 @@ fn tiles_with_halos_stitched_equal_the_whole_map_exactly() {
 }
 
 #[test]
+fn row_bands_stitched_equal_the_whole_map_exactly_for_every_kind_the_page_splits() {
+    // The page's two map workers each compute one row band (Grid::row_band) of the sun-hours, lost-hours
+    // and insolation maps; joined, the bands must be the whole map bit for bit. Bands of whole rows
+    // with the whole massing: the same directions, spans and sums per row.
+    use sunlot::exposure::{before_after, insolation, InsolationRequest, Massing, Window};
+    let m = sunlot::demo::demo();
+    let g = demo_grid(&m, 0.7);
+    let date = NaiveDate::from_ymd_opt(2026, 11, 2).unwrap();
+    let period = Period { first: date, last: date + Duration::days(1), window: Window::Daylight, step_min: 11 };
+    let req = SunHoursRequest {
+        model: &m,
+        grid: &g,
+        period,
+        plane_m: 0.0,
+        delta_t: DeltaT::EspenakMeeus,
+        massing: Massing::WithProposed,
+    };
+    fn ins<'a>(m: &'a sunlot::site::SiteModel, grid: &'a Grid, period: Period) -> InsolationRequest<'a> {
+        InsolationRequest {
+            model: m,
+            grid,
+            period,
+            plane_m: 0.0,
+            delta_t: DeltaT::EspenakMeeus,
+            massing: Massing::WithProposed,
+            atmosphere: sunlot::sky::BirdAtmosphere::default(),
+            sky_step_deg: 10.0,
+        }
+    }
+    let whole = (
+        sun_hours(&req, |_| true).unwrap(),
+        before_after(&req, |_| true).unwrap(),
+        insolation(&ins(&m, &g, period), |_| true).unwrap(),
+    );
+    for of in [2, 3] {
+        let (mut hours, mut lost, mut total) =
+            (vec![None; g.rows * g.cols], vec![None; g.rows * g.cols], vec![None; g.rows * g.cols]);
+        for index in 0..of {
+            let band = g.row_band(index, of);
+            assert!(band.rows > 0 && band.rows < g.rows, "band {index} of {of}: {} rows", band.rows);
+            let part = SunHoursRequest { grid: &band, ..req.clone() };
+            g.stitch(&band, &sun_hours(&part, |_| true).unwrap().hours, &mut hours);
+            g.stitch(&band, &before_after(&part, |_| true).unwrap().lost_h, &mut lost);
+            g.stitch(&band, &insolation(&ins(&m, &band, period), |_| true).unwrap().total_kwh_m2, &mut total);
+        }
+        assert_eq!(hours, whole.0.hours, "{of} bands: sun hours");
+        assert_eq!(lost, whole.1.lost_h, "{of} bands: hours lost");
+        assert_eq!(total, whole.2.total_kwh_m2, "{of} bands: insolation");
+    }
+    // More bands than rows: the extra bands are empty, the rest still the whole grid.
+    let thin = g.row_band(0, g.rows);
+    assert_eq!(thin.rows, 1);
+    let bands: Vec<Grid> = (0..2 * g.rows).map(|i| g.row_band(i, 2 * g.rows)).collect();
+    assert_eq!(bands.iter().map(|b| b.rows).sum::<usize>(), g.rows);
+    assert!(bands.iter().any(|b| b.rows == 0));
+}
+
+#[test]
 fn rasterised_shadow_area_matches_the_exact_polygons_within_a_cell_per_metre_of_boundary() {
     // One step at a time: the cells a 1-step map finds shaded, times the cell area, against the
     // area of the exact union of shadows (the shadows module, clipped to the grid) inside the grid.

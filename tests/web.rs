@@ -620,6 +620,74 @@ fn map_kinds_give_the_maps_of_their_explicit_requests() {
     assert!(error_message(unknown).starts_with("kind: \"shade\" is not one of sun-hours"));
 }
 
+/// The page's map workers: `mapOfKind` with `part` computes a row band, `joinMapParts` joins the bands'
+/// values into what the whole call gives, bit for bit, with the same grid, range and figures.
+#[wasm_bindgen_test]
+fn map_parts_joined_equal_the_whole_map() {
+    let site = demo_site_js();
+    let date = "2026-03-21";
+    let kinds = sunlot::web::map_kinds().unwrap();
+    let parts_of = |id: &str| {
+        js_sys::Array::from(&kinds)
+            .iter()
+            .find(|k| get(k, "id").as_string().as_deref() == Some(id))
+            .map(|k| get(&k, "parts"))
+    };
+    assert_eq!(parts_of("envelope"), Some(JsValue::FALSE));
+    for kind in ["sun-hours", "lost", "insolation"] {
+        assert_eq!(parts_of(kind), Some(JsValue::TRUE), "{kind}");
+        let call = |extra: &str| {
+            sunlot::web::map_of_kind(
+                js(&format!(r#"{{"kind": "{kind}", "site": {site}, "date": "{date}"{extra}}}"#)),
+                None,
+            )
+            .unwrap_or_else(|e| panic!("{kind}: {:?}", JsValue::from(e)))
+        };
+        let whole = call("");
+        let parts: Vec<JsValue> = (0..3).map(|i| call(&format!(r#", "part": {{"index": {i}, "of": 3}}"#))).collect();
+        let mut values = Vec::new();
+        for p in &parts {
+            assert!(num(&get(p, "grid"), "rows") > 0.0, "{kind}: an empty band");
+            values.extend(js_sys::Float64Array::from(get(p, "values")).to_vec());
+        }
+        let open = num(&parts[0], "openValue");
+        assert_eq!(open, num(&whole, "openValue"), "{kind}");
+        let joined = sunlot::web::join_map_parts(
+            js(&format!(r#"{{"kind": "{kind}", "site": {site}, "date": "{date}", "openValue": {open}}}"#)),
+            &values,
+        )
+        .unwrap_or_else(|e| panic!("{kind}: {:?}", JsValue::from(e)));
+        let (a, b) = (
+            js_sys::Float64Array::from(get(&joined, "values")).to_vec(),
+            js_sys::Float64Array::from(get(&whole, "values")).to_vec(),
+        );
+        assert_eq!(a.len(), b.len(), "{kind}");
+        assert!(a.iter().zip(&b).all(|(x, y)| x == y || (x.is_nan() && y.is_nan())), "{kind}: joined values differ");
+        for key in ["grid", "rangeTop", "stats", "caption"] {
+            assert_eq!(
+                JSON::stringify(&get(&joined, key)).unwrap(),
+                JSON::stringify(&get(&whole, key)).unwrap(),
+                "{kind}: {key}"
+            );
+        }
+        let short = sunlot::web::join_map_parts(
+            js(&format!(r#"{{"kind": "{kind}", "site": {site}, "date": "{date}", "openValue": {open}}}"#)),
+            &values[1..],
+        );
+        assert!(error_message(short).starts_with("values: "), "{kind}");
+    }
+    let bad = |extra: &str, kind: &str| {
+        error_message(sunlot::web::map_of_kind(
+            js(&format!(r#"{{"kind": "{kind}", "site": {site}, "date": "{date}"{extra}}}"#)),
+            None,
+        ))
+    };
+    assert!(bad(r#", "part": {"index": 2, "of": 2}"#, "sun-hours").starts_with("part: index 2 of 2 is not a band"));
+    assert!(bad(r#", "part": {"index": 0, "of": 0}"#, "sun-hours").starts_with("part: index 0 of 0"));
+    assert!(bad(r#", "part": {"index": 0, "of": 2}"#, "envelope")
+        .starts_with("part: the map \"envelope\" is computed whole"));
+}
+
 /// Every IANA zone's transitions over 1970–2037, read from the table by the wasm build, have the
 /// digest chrono-tz's give natively (`tests/zone_table.rs` checks the fixture against chrono-tz).
 #[wasm_bindgen_test]

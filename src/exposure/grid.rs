@@ -162,6 +162,25 @@ impl Grid {
         out
     }
 
+    /// Band `index` of `of` bands of whole rows, bottom first: rows `rows·index/of` up to
+    /// `rows·(index+1)/of` (a band may have no rows when the grid has fewer rows than bands). Like a
+    /// tile it keeps the lattice, so its cells are exactly the whole grid's; the page's map workers
+    /// each compute one band.
+    pub fn row_band(&self, index: usize, of: usize) -> Grid {
+        let of = of.max(1);
+        let index = index.min(of - 1);
+        let (from, to) = (self.rows * index / of, self.rows * (index + 1) / of);
+        Grid {
+            origin: self.origin,
+            col0: self.col0,
+            row0: self.row0 + from,
+            cell_m: self.cell_m,
+            cols: self.cols,
+            rows: to - from,
+            inside: self.inside[from * self.cols..to * self.cols].to_vec(),
+        }
+    }
+
     /// Copies the values of a tile's cells into `whole` (row-major over this grid).
     pub fn stitch<T: Clone>(&self, tile: &Grid, values: &[T], whole: &mut [T]) {
         for row in 0..tile.rows {

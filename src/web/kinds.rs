@@ -10,7 +10,7 @@ use super::maps::{
 };
 use super::outputs::{GridGeometry, MapFigures, Values};
 use super::{read, site, write};
-use crate::exposure::{map_kind, Grid, MapCall, MapSpan, MAP_KINDS};
+use crate::exposure::{map_kind, Grid, MapCall, MapKind, MapSpan, Period, MAP_KINDS};
 
 /// A row of `mapKinds` (`MapKindInfo`).
 #[derive(Serialize)]
@@ -26,10 +26,14 @@ struct KindInfo {
     span: &'static str,
     cell_m: f64,
     step_min: u32,
+    /// Whether `mapOfKind` computes the kind in row bands (`part`) that `joinMapParts` joins into
+    /// the whole map exactly.
+    parts: bool,
 }
 
-/// The map kinds, in menu order: `[{id, title, label, unit, column, menu, span, cellM, stepMin}]`;
-/// `menu` is the text of the kind's choice in a page's menu of maps (`null`: not offered there).
+/// The map kinds, in menu order: `[{id, title, label, unit, column, menu, span, cellM, stepMin, parts}]`;
+/// `menu` is the text of the kind's choice in a page's menu of maps (`null`: not offered there);
+/// `parts`: whether the kind can be computed in row bands by several workers.
 #[wasm_bindgen(js_name = mapKinds, unchecked_return_type = "MapKindInfo[]")]
 pub fn map_kinds() -> Result<JsValue, JsError> {
     let rows: Vec<KindInfo> = MAP_KINDS
@@ -44,10 +48,21 @@ pub fn map_kinds() -> Result<JsValue, JsError> {
             span: if k.span == MapSpan::Year { "year" } else { "day" },
             cell_m: k.cell_m,
             step_min: k.step_min,
+            parts: splits(k),
         })
         .collect();
     write(&rows)
 }
+
+/// Whether a kind is computed in row bands that join exactly: the sun-hours, hours-lost and
+/// insolation maps (each cell's value depends on its own centre alone; tests/exposure_checks.rs
+/// checks the bands against the whole map). The envelope is not split.
+fn splits(kind: &MapKind) -> bool {
+    !matches!(kind.call, MapCall::Envelope)
+}
+
+/// The most bands a map is split into (one per worker; more gains nothing on a laptop).
+const MAX_PARTS: usize = 16;
 
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
@@ -56,6 +71,15 @@ struct KindIn {
     site: String,
     /// The date the page shows, YYYY-MM-DD (a year's kind covers its calendar year).
     date: String,
+    /// Only row band `index` of `of` ([`crate::exposure::Grid::row_band`]).
+    part: Option<PartIn>,
+}
+
+#[derive(Deserialize, Clone, Copy)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct PartIn {
+    index: usize,
+    of: usize,
 }
 
 /// `mapOfKind`: a map of a kind with what it needs to be drawn, labelled and exported.
@@ -69,38 +93,83 @@ struct KindMap {
     column: &'static str,
     /// The period in words and the cell size ([`MapKind::caption`]).
     caption: String,
+    /// The cells computed: the whole grid, or the band a `part` asked for.
     grid: GridGeometry,
     /// The kind's values per cell (hours, hours lost, kWh/m², envelope metres).
     values: Values,
     /// End of the colour range ([`MapKind::range_top`]); it starts at 0.
     range_top: f64,
     stats: Option<MapFigures>,
+    /// The value of a cell nothing shades (hours or kWh/m² of the open site; NaN for the envelope),
+    /// which `joinMapParts` needs for the colour range.
+    open_value: f64,
+}
+
+/// A kind and its period from the page's kind id and date.
+fn kind_period(kind: &str, day: &str) -> Result<(&'static MapKind, Period), JsError> {
+    let kind = map_kind(kind).map_err(|e| JsError::new(&format!("kind: {e}")))?;
+    let period = kind.period(date(day, "date")?).map_err(|e| JsError::new(&format!("kind: {e}")))?;
+    Ok((kind, period))
+}
+
+/// The map for the page, its figures over `values` (the whole grid's or a band's).
+fn kind_map(kind: &'static MapKind, period: &Period, grid: &Grid, values: &[Option<f64>], open: f64) -> KindMap {
+    KindMap {
+        kind: kind.id,
+        title: kind.title,
+        label: kind.label,
+        unit: kind.unit,
+        column: kind.column,
+        caption: kind.caption(period),
+        grid: grid.into(),
+        values: values.into(),
+        range_top: kind.range_top(values, open),
+        stats: MapFigures::of(grid, values),
+        open_value: open,
+    }
 }
 
 /// Computes the map `kind` (a `mapKinds` id) of `site` for `date`: `{kind, title, label, unit, column,
-/// caption, grid, values: Float64Array, rangeTop, stats}`. `onProgress(f)` gets the fraction done and
-/// may return `false` to cancel.
+/// caption, grid, values: Float64Array, rangeTop, stats, openValue}`. With `part: {index, of}` only
+/// row band `index` of `of` is computed (kinds with `parts` in `mapKinds`), for `joinMapParts`.
+/// `onProgress(f)` gets the fraction done and may return `false` to cancel.
 #[wasm_bindgen(js_name = mapOfKind, unchecked_return_type = "KindMap")]
 pub fn map_of_kind(
     #[wasm_bindgen(unchecked_param_type = "KindInput")] input: JsValue,
     on_progress: Option<js_sys::Function>,
 ) -> Result<JsValue, JsError> {
     let i: KindIn = read(input, "mapOfKind")?;
-    let kind = map_kind(&i.kind).map_err(|e| JsError::new(&format!("kind: {e}")))?;
-    let period = kind.period(date(&i.date, "date")?).map_err(|e| JsError::new(&format!("kind: {e}")))?;
+    let (kind, period) = kind_period(&i.kind, &i.date)?;
+    let band = match i.part {
+        None => None,
+        Some(p) if p.of == 0 || p.of > MAX_PARTS || p.index >= p.of => {
+            return Err(JsError::new(&format!(
+                "part: index {} of {} is not a band (of: 1 to {MAX_PARTS}, index: 0 to of − 1)",
+                p.index, p.of
+            )))
+        }
+        Some(_) if !splits(kind) => {
+            return Err(JsError::new(&format!("part: the map {:?} is computed whole, not in parts", kind.id)))
+        }
+        Some(p) => Some((p.index, p.of)),
+    };
     let progress = progress(&on_progress);
+    let map_in = || {
+        let mut m = MapIn::of_kind(kind, i.site.clone(), &period);
+        m.band = band;
+        m
+    };
     let (grid, values, open): (Grid, Vec<Option<f64>>, f64) = match kind.call {
         MapCall::SunHours(_) => {
-            let (grid, _, m) = sun_hours_of(&MapIn::of_kind(kind, i.site, &period), progress)?;
+            let (grid, _, m) = sun_hours_of(&map_in(), progress)?;
             (grid, m.hours, m.open_hours)
         }
         MapCall::Lost => {
-            let (grid, _, ba) = compare_of(&MapIn::of_kind(kind, i.site, &period), progress)?;
+            let (grid, _, ba) = compare_of(&map_in(), progress)?;
             (grid, ba.lost_h, ba.before.open_hours)
         }
         MapCall::Insolation => {
-            let map = MapIn::of_kind(kind, i.site, &period);
-            let (grid, _, m) = insolation_of(&map, &InsolationIn::default(), progress)?;
+            let (grid, _, m) = insolation_of(&map_in(), &InsolationIn::default(), progress)?;
             (grid, m.total_kwh_m2, m.open.total_kwh_m2)
         }
         MapCall::Envelope => {
@@ -110,16 +179,43 @@ pub fn map_of_kind(
             (grid, env.height_m, f64::NAN)
         }
     };
-    write(&KindMap {
-        kind: kind.id,
-        title: kind.title,
-        label: kind.label,
-        unit: kind.unit,
-        column: kind.column,
-        caption: kind.caption(&period),
-        grid: (&grid).into(),
-        values: (&values).into(),
-        range_top: kind.range_top(&values, open),
-        stats: MapFigures::of(&grid, &values),
-    })
+    write(&kind_map(kind, &period, &grid, &values, open))
+}
+
+#[derive(Deserialize)]
+#[serde(rename_all = "camelCase", deny_unknown_fields)]
+struct JoinIn {
+    kind: String,
+    site: String,
+    date: String,
+    /// `openValue` of the parts (one period, so every part's is the same).
+    open_value: Option<f64>,
+}
+
+/// The whole map from its parts: `joinMapParts({kind, site, date, openValue}, values)`, `values` the
+/// parts' values one after the other, band 0 first (NaN where a cell has none). Gives what
+/// `mapOfKind` gives for the whole grid: its geometry, the colour range and figures over every cell.
+#[wasm_bindgen(js_name = joinMapParts, unchecked_return_type = "KindMap")]
+pub fn join_map_parts(
+    #[wasm_bindgen(unchecked_param_type = "JoinInput")] input: JsValue,
+    values: &[f64],
+) -> Result<JsValue, JsError> {
+    let i: JoinIn = read(input, "joinMapParts")?;
+    let (kind, period) = kind_period(&i.kind, &i.date)?;
+    if !splits(kind) {
+        return Err(JsError::new(&format!("kind: the map {:?} is computed whole, not in parts", kind.id)));
+    }
+    let (_, grid, _, _) = MapIn::of_kind(kind, i.site, &period).parts_over(kind.call == MapCall::Lost)?;
+    if values.len() != grid.rows * grid.cols {
+        return Err(JsError::new(&format!(
+            "values: {} cells given, the map of {:?} has {} ({} × {})",
+            values.len(),
+            kind.id,
+            grid.rows * grid.cols,
+            grid.cols,
+            grid.rows
+        )));
+    }
+    let cells: Vec<Option<f64>> = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
+    write(&kind_map(kind, &period, &grid, &cells, i.open_value.unwrap_or(f64::NAN)))
 }

@@ -50,6 +50,10 @@ pub(super) struct MapIn {
     /// "existing" or "withProposed" (default).
     massing: Option<String>,
     max_cells: Option<usize>,
+    /// Band `index` of `of` of the grid's rows ([`Grid::row_band`]): set by `mapOfKind`'s `part`,
+    /// never read from the caller's object.
+    #[serde(skip)]
+    pub(super) band: Option<(usize, usize)>,
 }
 
 /// "existing" or "withProposed" (the default); anything else is an error naming the field.
@@ -80,6 +84,7 @@ impl MapIn {
             plane_m: 0.0,
             massing,
             max_cells: None,
+            band: None,
         }
     }
 
@@ -89,7 +94,7 @@ impl MapIn {
 
     /// As [`MapIn::parts`]; with `beside_lots` and no areas named, the grid leaves out the lots (a map
     /// of what the proposal takes from the neighbours).
-    fn parts_over(&self, beside_lots: bool) -> Result<(SiteModel, Grid, Period, Massing), JsError> {
+    pub(super) fn parts_over(&self, beside_lots: bool) -> Result<(SiteModel, Grid, Period, Massing), JsError> {
         let model = site(&self.site)?;
         for id in &self.areas {
             if !model.areas.iter().any(|a| &a.id == id) {
@@ -115,6 +120,10 @@ impl MapIn {
             self.max_cells.unwrap_or(crate::exposure::DEFAULT_MAX_CELLS),
         )
         .map_err(|e| JsError::new(&format!("cellM, maxCells: {e}")))?;
+        let grid = match self.band {
+            Some((index, of)) => grid.row_band(index, of),
+            None => grid,
+        };
         let first = date(&self.date, "date")?;
         let last = self.to.as_deref().map_or(Ok(first), |t| date(t, "to"))?;
         let period = Period { first, last, window: window(self.window.as_deref())?, step_min: self.step_min };

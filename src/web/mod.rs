@@ -22,7 +22,7 @@ mod types;
 mod window;
 pub use canvas::{draw_shadow_plan_js, draw_sky_chart_js, shadow_plan_svg, shadows_geojson, sky_chart_svg, Canvas};
 pub use facade::{draw_facade, facade_map_js, facade_svg};
-pub use kinds::{map_kinds, map_of_kind};
+pub use kinds::{join_map_parts, map_kinds, map_of_kind};
 pub use layer::{map_geojson_js, underlay_placement, PlanLayer};
 pub use maps::{
     compare_map, draw_map_figure, insolation_map, point_timeline, read_site, solar_envelope_js, sun_hours_map,

@@ -71,10 +71,11 @@ export interface WindowReport { rule: WindowRuleFile; year: number; stepMin: num
   cautions: string[]; windows: { id: string; name: string; status: Status; facingDeg: number;
     figures: { name: string; before: number | null; after: number }[]; passes: boolean | null; reason: string }[]; }
 export interface MapKindInfo { id: string; title: string; label: string; unit: string; column: string; menu: string | null;
-  span: "day" | "year"; cellM: number; stepMin: number; }
-export interface KindInput { kind: string; site: SiteText; date: string; }
+  span: "day" | "year"; cellM: number; stepMin: number; parts: boolean; }
+export interface KindInput { kind: string; site: SiteText; date: string; part?: { index: number; of: number }; }
 export interface KindMap { kind: string; title: string; label: string; unit: string; column: string; caption: string;
-  grid: GridGeometry; values: Float64Array; rangeTop: number; stats: MapFigures | null; }
+  grid: GridGeometry; values: Float64Array; rangeTop: number; stats: MapFigures | null; openValue: number; }
+export interface JoinInput { kind: string; site: SiteText; date: string; openValue?: number; }
 export interface FacadeInput { site: SiteText; volume: string; date: string; to?: string; window?: string; stepMin?: number;
   cellM?: number; massing?: Massing; show?: "hours" | "beam" | "insolation" | "lost"; }
 export interface FacadeMap { caution: string; faces: { number: number; facingDeg: number; compass: string; startM: [number, number];

@@ -4,20 +4,48 @@ import { mapCsv } from "./helpers.mjs";
 import { FIGURE, SunlotFigure } from "./figure.mjs";
 import { CancelledError, runInWorker } from "./worker.mjs";
 
+/** The most workers one map is split over (each computes a band of rows; more gains little). */
+const MAX_WORKERS = 4;
+const KINDS = new WeakMap();
+
+/** How many workers compute the map `kind`: one per core up to MAX_WORKERS, when the kind splits. */
+function workersFor(module, kind) {
+  if (!KINDS.has(module)) KINDS.set(module, new Map(module.mapKinds().map(k => [k.id, k])));
+  const info = KINDS.get(module).get(kind);
+  const cores = (typeof navigator !== "undefined" && navigator.hardwareConcurrency) || 1;
+  return info && info.parts ? Math.max(1, Math.min(MAX_WORKERS, cores)) : 1;
+}
+
 /**
- * Computes the map `kind` (one of the module's mapKinds) of `site` for `date` in a Web Worker;
+ * Computes the map `kind` (one of the module's mapKinds) of `site` for `date` in Web Workers (a kind
+ * with `parts` in row bands, one worker per core, joined exactly by the module's joinMapParts);
  * returns { promise, cancel } with promise → the module's KindMap (kind, title, label, unit, column,
- * caption, grid, values, rangeTop, stats) and `layer`, a PlanLayer of it; `onProgress(fraction)` is
- * called as it goes.
+ * caption, grid, values, rangeTop, stats, openValue) and `layer`, a PlanLayer of it;
+ * `onProgress(fraction)` is called as it goes.
  */
 export function computeMap(module, kind, site, date, onProgress) {
-  const job = runInWorker("mapOfKind", { kind, site, date }, onProgress);
-  const promise = job.promise.then(map => ({
+  const n = workersFor(module, kind);
+  const done = new Array(n).fill(0);
+  const progress = index => f => {
+    done[index] = f;
+    if (onProgress) onProgress(done.reduce((a, b) => a + b, 0) / n);
+  };
+  const jobs = n === 1 ? [runInWorker("mapOfKind", { kind, site, date }, onProgress)]
+    : done.map((_, index) => runInWorker("mapOfKind", { kind, site, date, part: { index, of: n } }, progress(index)));
+  const cancel = () => jobs.forEach(j => j.cancel());
+  const whole = Promise.all(jobs.map(j => j.promise)).then(parts => {
+    if (n === 1) return parts[0];
+    const values = new Float64Array(parts.reduce((a, p) => a + p.values.length, 0));
+    let at = 0;
+    for (const p of parts) { values.set(p.values, at); at += p.values.length; }
+    return { ...module.joinMapParts({ kind, site, date, openValue: parts[0].openValue }, values), values };
+  }, e => { cancel(); throw e; });
+  const promise = whole.then(map => ({
     ...map,
     layer: new module.PlanLayer({ grid: map.grid, label: map.label, unit: map.unit, rangeLo: 0, rangeHi: map.rangeTop },
       map.values),
   }));
-  return { promise, cancel: job.cancel };
+  return { promise, cancel };
 }
 
 /** Mixin: a widget that shows a map it computes for its `layer` attribute, or one it is given. */
