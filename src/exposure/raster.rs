@@ -66,7 +66,7 @@ pub fn polygon_row_spans(grid: &Grid, polygon: &Polygon<f64>, emit: impl FnMut(u
 
 /// The ceiling of `x` for |x| < 2⁶³, without a branch or a library call (`f64::ceil` is a call on
 /// baseline x86-64, and this runs for every span).
-#[inline]
+#[inline(always)]
 fn small_ceil(x: f64) -> i64 {
     let t = x as i64;
     t + i64::from((t as f64) < x)
@@ -92,7 +92,7 @@ impl Crossings {
         self.count[..n].fill(0);
     }
 
-    #[inline]
+    #[inline(always)]
     fn push(&mut self, k: usize, x: f64) {
         let c = self.count[k] as usize;
         if c < 2 {
@@ -105,6 +105,42 @@ impl Crossings {
             self.more[k].push(x);
         }
         self.count[k] += 1;
+    }
+}
+
+/// A grid's columns on its lattice, for cutting a row's crossings into cell spans.
+struct Lattice {
+    origin_x: f64,
+    inv_c: f64,
+    /// Lattice columns just outside the grid on either side: crossings are clamped to them first,
+    /// so the fast ceiling only sees small numbers.
+    lo: f64,
+    hi: f64,
+    col0: i64,
+    cols: i64,
+}
+
+impl Lattice {
+    /// The cells `[from, to)` of the grid whose centre x lies in `[x0, x1)`: lattice index i with
+    /// origin + (i + ½)·c ≥ x0 and < x1. The lattice index is found before the grid's first column
+    /// is taken off, so a tile's cells are decided by the same arithmetic as the whole grid's.
+    /// Inlined always: it runs for every span, and the wasm build optimises for size.
+    #[inline(always)]
+    fn cells(&self, x0: f64, x1: f64) -> Option<(usize, usize)> {
+        let within = |u: f64| {
+            if u < self.lo {
+                self.lo
+            } else if u > self.hi {
+                self.hi
+            } else {
+                u
+            }
+        };
+        let u0 = within((x0 - self.origin_x) * self.inv_c - 0.5);
+        let u1 = within((x1 - self.origin_x) * self.inv_c - 0.5);
+        let (from, to) = (small_ceil(u0) - self.col0, small_ceil(u1) - self.col0);
+        let (from, to) = (from.max(0), to.min(self.cols));
+        (to > from).then_some((from as usize, to as usize))
     }
 }
 
@@ -144,7 +180,7 @@ fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Crossings, mut emit: 
             }
             let slope = (b.x - a.x) / (b.y - a.y);
             let (lo, hi) = (lo as usize, hi as usize);
-            for row in lo..=hi {
+            for row in lo..hi + 1 {
                 let y = row_y(row);
                 // Guard the rounding of the row range's ends against the exact rule.
                 if (row == lo || row == hi) && !(a.y <= y && y < b.y) {
@@ -154,48 +190,33 @@ fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Crossings, mut emit: 
             }
         }
     }
-    let (inv_c, cols) = (1.0 / c, grid.cols as f64);
-    let (col0_i, cols_i) = (grid.col0 as i64, grid.cols as i64);
-    let mut span = |k: usize, x0: f64, x1: f64| {
-        // Cells with centre x in [x0, x1): lattice index i with origin + (i + ½)·c ≥ x0 and < x1.
-        // Clamped to the grid first, so the fast ceiling only sees small numbers.
-        // The lattice index is found before this grid's first column is taken off, so a tile's
-        // cells are decided by the same arithmetic as the whole grid's.
-        let (lo, hi) = (col0 - 1.0, col0 + cols + 1.0);
-        let within = |u: f64| {
-            if u < lo {
-                lo
-            } else if u > hi {
-                hi
-            } else {
-                u
-            }
-        };
-        let u0 = within((x0 - grid.origin.x) * inv_c - 0.5);
-        let u1 = within((x1 - grid.origin.x) * inv_c - 0.5);
-        let (from, to) = (small_ceil(u0) - col0_i, small_ceil(u1) - col0_i);
-        let (from, to) = (from.max(0), to.min(cols_i));
-        if to > from {
-            emit(first + k, from as usize, to as usize);
-        }
+    let lattice = Lattice {
+        origin_x: grid.origin.x,
+        inv_c: 1.0 / c,
+        lo: grid.col0 as f64 - 1.0,
+        hi: (grid.col0 + grid.cols) as f64 + 1.0,
+        col0: grid.col0 as i64,
+        cols: grid.cols as i64,
     };
+    // One call of `emit` (the wasm build, optimised for size, inlines a closure used once).
+    let mut two = [0.0; 2];
     for k in 0..n {
-        match xs.count[k] {
-            0 | 1 => {}
+        let row_xs: &[f64] = match xs.count[k] {
+            0 | 1 => continue,
             2 => {
                 let [a, b] = xs.first[k];
-                if a <= b {
-                    span(k, a, b);
-                } else {
-                    span(k, b, a);
-                }
+                two = if a <= b { [a, b] } else { [b, a] };
+                &two
             }
             _ => {
-                let row_xs = &mut xs.more[k];
-                row_xs.sort_unstable_by(f64::total_cmp);
-                for pair in row_xs.chunks_exact(2) {
-                    span(k, pair[0], pair[1]);
-                }
+                let more = &mut xs.more[k];
+                more.sort_unstable_by(f64::total_cmp);
+                more
+            }
+        };
+        for pair in row_xs.chunks_exact(2) {
+            if let Some((from, to)) = lattice.cells(pair[0], pair[1]) {
+                emit(first + k, from, to);
             }
         }
     }
