@@ -1,8 +1,8 @@
 """Writes sunlot's classic scripts for pages opened straight from disk (file://, where browsers refuse
 ES modules and fetch): the JavaScript sources are ES modules (www/src/*.mjs), stitched here into one
 classic script, each module in its own function scope, in the order of their imports. With
-`--wasm-dir`, the script starts with wasm-bindgen's no-modules glue and the wasm bytes inlined as
-base64.
+`--wasm-dir`, the script starts with wasm-bindgen's no-modules glue and the wasm bytes inlined,
+gzip-compressed and base64-encoded (inflated by the browser's DecompressionStream as it compiles).
 
 Everything lands in one global namespace, `self.sunlot`: `sunlot.ready` (a promise of the module's
 functions) and `sunlot.boot()` (another instance of the module), `sunlot.compiled` (a promise of the compiled
@@ -19,6 +19,7 @@ Usage: python3 tools/bundle.py --out <bundle path> [--wasm-dir <wasm-bindgen no-
 """
 import argparse
 import base64
+import gzip
 import pathlib
 import re
 import sys
@@ -98,7 +99,9 @@ def stitch(entry, root):
 
 def wasm_part(src):
     glue = (src / "sunlot.js").read_text()
-    wasm = base64.b64encode((src / "sunlot_bg.wasm").read_bytes()).decode()
+    # gzip-compressed (a third of the text for the browser to read), inflated by the browser's own
+    # DecompressionStream straight into a streaming compile. mtime 0: the same bytes every build.
+    wasm = base64.b64encode(gzip.compress((src / "sunlot_bg.wasm").read_bytes(), 9, mtime=0)).decode()
     return f"""// One instance of the module from a compiled WebAssembly.Module: self-contained (its source is
 // what a Blob worker gets, with the compiled module posted to it, so a worker neither decodes nor
 // compiles the wasm again).
@@ -113,7 +116,10 @@ if (Uint8Array.fromBase64) bytes = Uint8Array.fromBase64(b64); else {{
   bytes = new Uint8Array(text.length);
   for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i);
 }}
-sunlot.compiled = WebAssembly.compile(bytes);
+sunlot.compiled = typeof DecompressionStream === "undefined"
+  ? Promise.reject(new Error("this browser has no DecompressionStream (Chrome 80, Firefox 113, Safari 16.4 or later needed)"))
+  : WebAssembly.compileStreaming(new Response(new Blob([bytes]).stream().pipeThrough(new DecompressionStream("gzip")),
+    {{ headers: {{ "Content-Type": "application/wasm" }} }}));
 sunlot.bootModule = bootModule;
 sunlot.boot = () => sunlot.compiled.then(bootModule);
 sunlot.ready = sunlot.boot();
