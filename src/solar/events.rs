@@ -112,10 +112,11 @@ pub fn day_events(site: &Site, date: NaiveDate, zone: &Zone, delta_t: DeltaT) ->
     // The transit that falls on the local date, nearest local midday: searched in the UT days around
     // it, since a transit close to midnight belongs to the neighbouring UT day's procedure.
     let base = midday.date_naive();
+    let mut days = UtDays { site, delta_t_s, known: Vec::with_capacity(4) };
     let mut on_date: Option<(UtDay, f64, i64)> = None;
     let mut nearest: Option<(UtDay, f64, i64)> = None;
     for d in [base - Duration::days(1), base, base + Duration::days(1)] {
-        let day = UtDay::new(d, site, delta_t_s);
+        let day = days.get(d);
         for shift in [-1.0, 0.0, 1.0] {
             let t = day.refine(day.transit_m() + shift, None);
             let instant = day.instant(t);
@@ -131,7 +132,7 @@ pub fn day_events(site: &Site, date: NaiveDate, zone: &Zone, delta_t: DeltaT) ->
     // No transit on the date happens only where clock time runs about 12 h off solar time and the
     // transit crosses midnight: then the transit nearest local midday is taken.
     let (day, t, _) = on_date.or(nearest).unwrap_or_else(|| {
-        let day = UtDay::new(base, site, delta_t_s);
+        let day = days.get(base);
         (day, day.refine(day.transit_m(), None), 0)
     });
 
@@ -139,20 +140,20 @@ pub fn day_events(site: &Site, date: NaiveDate, zone: &Zone, delta_t: DeltaT) ->
         date,
         transit: day.instant(t),
         transit_altitude_deg: day.altitude_deg(t),
-        sun: crossing(&day, t, SUNRISE_DEG, site, delta_t_s),
-        civil_twilight: crossing(&day, t, CIVIL_TWILIGHT_DEG, site, delta_t_s),
+        sun: crossing(&day, t, SUNRISE_DEG, &mut days),
+        civil_twilight: crossing(&day, t, CIVIL_TWILIGHT_DEG, &mut days),
     })
 }
 
 /// The rising before and the setting after the transit at fraction `t` of `day`, at altitude `h0_deg`.
-fn crossing(day: &UtDay, t: f64, h0_deg: f64, site: &Site, delta_t_s: f64) -> Crossing {
+fn crossing(day: &UtDay, t: f64, h0_deg: f64, days: &mut UtDays) -> Crossing {
     let Some(arc) = day.half_arc_deg(h0_deg) else {
         return if day.altitude_deg(t) > h0_deg { Crossing::AlwaysAbove } else { Crossing::AlwaysBelow };
     };
-    let event = |m_estimate: f64| {
+    let mut event = |m_estimate: f64| {
         // Computed in the UT day that holds the event, where the interpolation is best (A.2).
         let k = m_estimate.floor();
-        let host = UtDay::new(day.date + Duration::days(k as i64), site, delta_t_s);
+        let host = days.get(day.date + Duration::days(k as i64));
         let local = m_estimate - k;
         let m = match host.half_arc_deg(h0_deg) {
             Some(host_arc) => {
@@ -165,6 +166,25 @@ fn crossing(day: &UtDay, t: f64, h0_deg: f64, site: &Site, delta_t_s: f64) -> Cr
         host.instant(host.refine(m, Some(h0_deg)))
     };
     Crossing::Crosses { rise: event(t - arc / 360.0), set: event(t + arc / 360.0) }
+}
+
+/// The UT days one local date's events need (the transit's search and the risings and settings all
+/// use the day before, of and after), each computed once: the same numbers, a seventh of the work.
+struct UtDays<'a> {
+    site: &'a Site,
+    delta_t_s: f64,
+    known: Vec<UtDay>,
+}
+
+impl UtDays<'_> {
+    fn get(&mut self, date: NaiveDate) -> UtDay {
+        if let Some(d) = self.known.iter().find(|d| d.date == date) {
+            return *d;
+        }
+        let d = UtDay::new(date, self.site, self.delta_t_s);
+        self.known.push(d);
+        d
+    }
 }
 
 /// The inputs of A.2 for one UT day.
@@ -185,8 +205,9 @@ struct UtDay {
 impl UtDay {
     fn new(date: NaiveDate, site: &Site, delta_t_s: f64) -> Self {
         let jd0 = julian_day(date.and_time(NaiveTime::MIN).and_utc());
-        let nu_deg = Geocentric::at(jd0, 0.0).sidereal_time_deg;
         let g = [-1.0, 0.0, 1.0].map(|d| Geocentric::at(jd0 + d, 0.0));
+        // Step 1's sidereal time at 0 UT is the middle instant's (A.2 takes ΔT = 0 for both).
+        let nu_deg = g[1].sidereal_time_deg;
         UtDay {
             date,
             latitude_deg: site.latitude_deg,
