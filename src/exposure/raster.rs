@@ -199,7 +199,7 @@ fn row_spans(grid: &Grid, polygon: &Polygon<f64>, xs: &mut Crossings, mut emit: 
         cols: grid.cols as i64,
     };
     // One call of `emit` (the wasm build, optimised for size, inlines a closure used once).
-    let mut two = [0.0; 2];
+    let mut two: [f64; 2];
     for k in 0..n {
         let row_xs: &[f64] = match xs.count[k] {
             0 | 1 => continue,
