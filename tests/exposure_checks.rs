@@ -75,6 +75,18 @@ fn demo_grid(m: &sunlot::site::SiteModel, cell_m: f64) -> Grid {
     Grid::over(&geo::MultiPolygon::new(polys), cell_m, DEFAULT_MAX_CELLS).unwrap()
 }
 
+/// The sun-hours request of the ground plane with the proposal built.
+fn with_proposed<'a>(m: &'a sunlot::site::SiteModel, g: &'a Grid, period: Period) -> SunHoursRequest<'a> {
+    SunHoursRequest {
+        model: m,
+        grid: g,
+        period,
+        plane_m: 0.0,
+        delta_t: DeltaT::EspenakMeeus,
+        massing: sunlot::exposure::Massing::WithProposed,
+    }
+}
+
 #[test]
 fn tiles_with_halos_stitched_equal_the_whole_map_exactly() {
     use sunlot::exposure::{massing_near, shadow_halo_m, Window};
@@ -86,14 +98,7 @@ fn tiles_with_halos_stitched_equal_the_whole_map_exactly() {
         to: chrono::NaiveTime::from_hms_opt(15, 0, 0).unwrap(),
     };
     let period = Period { first: date, last: date + Duration::days(2), window, step_min: 7 };
-    let req = SunHoursRequest {
-        model: &m,
-        grid: &g,
-        period,
-        plane_m: 0.0,
-        delta_t: DeltaT::EspenakMeeus,
-        massing: sunlot::exposure::Massing::WithProposed,
-    };
+    let req = with_proposed(&m, &g, period);
     let whole = sun_hours(&req, |_| true).unwrap();
     let halo = shadow_halo_m(&m, &period, 0.0, DeltaT::EspenakMeeus).unwrap();
     assert!(halo.is_finite() && halo > 10.0, "halo {halo} m");
@@ -121,14 +126,7 @@ fn row_bands_stitched_equal_the_whole_map_exactly_for_every_kind_the_page_splits
     let g = demo_grid(&m, 0.7);
     let date = NaiveDate::from_ymd_opt(2026, 11, 2).unwrap();
     let period = Period { first: date, last: date + Duration::days(1), window: Window::Daylight, step_min: 11 };
-    let req = SunHoursRequest {
-        model: &m,
-        grid: &g,
-        period,
-        plane_m: 0.0,
-        delta_t: DeltaT::EspenakMeeus,
-        massing: Massing::WithProposed,
-    };
+    let req = with_proposed(&m, &g, period);
     fn ins<'a>(m: &'a sunlot::site::SiteModel, grid: &'a Grid, period: Period) -> InsolationRequest<'a> {
         InsolationRequest {
             model: m,
