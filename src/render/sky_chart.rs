@@ -163,8 +163,8 @@ pub fn monthly_dates(year: i32) -> Vec<(NaiveDate, String)> {
 }
 
 /// (azimuth, altitude) of the sun, true north, apparent altitude.
-/// The sun's azimuth and refracted altitude, degrees, through the hourly interpolated ephemeris
-/// (within 1e-9° of the direct NREL SPA; the charts ask for thousands of positions).
+/// The sun's azimuth and refracted altitude, degrees, through the figures' daily interpolated
+/// ephemeris (within 1e-6° of the direct NREL SPA; the charts ask for thousands of positions).
 fn sun(eph: &mut Ephemeris, site: &Site, t: DateTime<Utc>, dt: DeltaT) -> Result<(f64, f64), InputError> {
     let p = eph.sun_at(t, dt)?.observe(site, &Atmosphere::default());
     Ok((p.azimuth_deg, p.altitude_deg))
@@ -224,7 +224,7 @@ fn polylines(frame: &Frame, pts: &[(f64, f64)]) -> Vec<Vec<(f64, f64)>> {
 pub fn draw_sky_chart(d: &mut dyn Draw, chart: &SkyChart) -> Result<(), InputError> {
     let (w, h) = d.size();
     let (w, h) = (f64::from(w), f64::from(h));
-    let mut eph = Ephemeris::new();
+    let mut eph = Ephemeris::for_figures();
     d.fill_rect(0.0, 0.0, w, h, PAPER);
     let sub = format!(
         "{:.3}° {}, {:.3}° {}, clock times {}",
