@@ -4,7 +4,8 @@
 // with every response (the pages' own <meta> policy applies as well), and opened from disk (file://,
 // where only the <meta> policy applies). Each page must start and draw with no policy violation
 // (securitypolicyviolation events and console reports), and on www/index.html the year's map must run
-// in its worker (served: the worker script file; from disk: a Blob URL). Run: node e2e/csp.test.mjs
+// in its worker (served: the worker script file, which loads the workers' speed-built module; from
+// disk: a Blob URL given that module). Run: node e2e/csp.test.mjs
 // (after ./dev wasm).
 import { launch } from "./chromium.mjs";
 import { createServer } from "node:http";
@@ -18,8 +19,10 @@ const POLICY = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'";
 const TYPES = { ".html": "text/html", ".js": "text/javascript", ".css": "text/css", ".json": "application/json",
                 ".png": "image/png", ".svg": "image/svg+xml" };
 
+const asked = [];
 const server = createServer(async (req, res) => {
   const rel = decodeURIComponent(new URL(req.url, "http://x").pathname);
+  asked.push(rel);
   const file = path.join(root, rel);
   if (!file.startsWith(root)) { res.writeHead(403).end(); return; }
   try {
@@ -68,6 +71,13 @@ for (const [how, urlOf] of [["served with the strict policy", p => `${base}/${p}
         null, { timeout: 120000 }).catch(() => {});
       check(/over the year: \d+ cells/.test(await page.textContent("#map-status")),
         `${p} ${how}: the year's map ran in its worker (${(await page.textContent("#map-status")).slice(0, 80)})`);
+      const ran = await page.evaluate(() => window.sunlot.workerRuns.last);
+      if (how === "from disk") check(ran === "fast", `${p} ${how}: the worker ran the workers' module (${ran})`);
+      else {
+        check(ran === "served" && asked.includes("/www/build/sunlot-worker.js") && asked.includes("/www/build/sunlot-fast.js")
+          && !asked.includes("/www/build/sunlot.bundle.js"),
+          `${p} ${how}: the worker script loaded the workers' module, not the page's (${ran}; ${asked.filter(a => a.includes("/build/")).join(", ")})`);
+      }
     }
     const violations = await page.evaluate(() => window.__violations);
     check(ready === "yes" && violations.length === 0 && reports.length === 0,

@@ -231,6 +231,24 @@ console.log(`     the year's map (1 m cells, 15-min steps) took ${Date.now() - t
   `(${(await page.evaluate(() => window.sunlot.measured.lastMapMs)).toFixed(0)} ms in the worker)`);
 check((await changed("#map canvas", map_before_year)).ink > 20000, `the year's map is drawn: ${await page.textContent("#map-status")}`);
 await page.screenshot({ path: path.join(shots, "index-year.png"), fullPage: true });
+// The workers run the speed-built module (www/build/sunlot-fast.js); its maps are the page module's
+// exactly (the same code, built for speed: no fast-math, so the same floating point).
+check(await page.evaluate(() => window.sunlot.workerRuns.last) === "fast", "the year's map ran on the workers' module");
+const same = await page.evaluate(async () => {
+  const fast = await window.sunlot.workerModule();
+  const m = await fast.bootModule(fast.compiled);
+  const page = await window.sunlot.ready;
+  const site = page.demoSiteText(), out = [];
+  for (const kind of ["sun-hours", "lost", "insolation", "year-hours", "envelope"]) {
+    const input = { kind, site, date: "2026-03-21" };
+    const a = m.mapOfKind(input, () => true).values, b = page.mapOfKind(input, () => true).values;
+    let differ = a.length === b.length ? 0 : -1;
+    for (let i = 0; differ >= 0 && i < a.length; i++) if (!Object.is(a[i], b[i])) differ++;
+    out.push(`${kind}: ${a.length} cells, ${differ} differ`);
+  }
+  return out;
+});
+check(same.every(s => / 0 differ$/.test(s)), `the workers' module gives the page module's maps bit for bit (${same.join("; ")})`);
 // Start the envelope and cancel it in one task: the worker's answer cannot be taken in between.
 await page.evaluate(() => {
   const layer = document.querySelector("#layer");

@@ -51,5 +51,50 @@ class Stitcher(unittest.TestCase):
             self.assertIn(says, err)
 
 
+# The smallest valid wasm module (magic and version) and a stand-in for wasm-bindgen's glue that
+# records what it was given.
+EMPTY_WASM = b"\0asm\x01\0\0\0"
+GLUE = "let wasm_bindgen = (function () { const f = async ({ module_or_path }) => { f.got = module_or_path; }; return f; })();\n"
+
+
+def run_wasm(extra):
+    with tempfile.TemporaryDirectory() as d:
+        root = pathlib.Path(d)
+        (root / "sunlot.js").write_text(GLUE)
+        (root / "sunlot_bg.wasm").write_bytes(EMPTY_WASM)
+        out = root / "out.js"
+        p = subprocess.run([sys.executable, str(BUNDLE), "--wasm-dir", str(root), "--out", str(out), *extra],
+                           capture_output=True, text=True)
+        return p.returncode, (out.read_text() if out.exists() else ""), p.stderr
+
+
+@unittest.skipIf(subprocess.run(["node", "--version"], capture_output=True).returncode != 0, "node is not installed")
+class WasmPart(unittest.TestCase):
+    def node(self, text, check):
+        p = subprocess.run(["node", "-e", f"globalThis.self = globalThis;\n{text}\n(async () => {{ {check} }})()"
+                            ".catch(e => { console.error(e); process.exit(1); });"], capture_output=True, text=True)
+        self.assertEqual(p.returncode, 0, p.stderr)
+
+    def test_the_page_module_is_compiled_and_instantiated(self):
+        code, text, err = run_wasm([])
+        self.assertEqual(code, 0, err)
+        self.node(text, "const m = await self.sunlot.ready; const c = await self.sunlot.compiled;"
+                        "if (!(c instanceof WebAssembly.Module) || m.got !== c || self.sunlot.fast) process.exit(2);")
+
+    def test_the_workers_module_is_compiled_and_left_for_the_workers(self):
+        code, text, err = run_wasm(["--for-workers"])
+        self.assertEqual(code, 0, err)
+        self.node(text, "const f = self.sunlot.fast; const c = await f.compiled;"
+                        "if (!(c instanceof WebAssembly.Module) || self.sunlot.ready || self.sunlot.compiled) process.exit(2);"
+                        "const m = await f.bootModule(c); if (m.got !== c) process.exit(3);")
+
+    def test_the_workers_module_needs_a_wasm_dir(self):
+        with tempfile.TemporaryDirectory() as d:
+            p = subprocess.run([sys.executable, str(BUNDLE), "--for-workers", "--out", str(pathlib.Path(d) / "o.js")],
+                               capture_output=True, text=True)
+        self.assertNotEqual(p.returncode, 0)
+        self.assertIn("--for-workers needs --wasm-dir", p.stderr)
+
+
 if __name__ == "__main__":
     unittest.main()

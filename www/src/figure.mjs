@@ -30,6 +30,17 @@ function hex(css) {
   return /^#[0-9a-f]{6}$/i.test(c.fillStyle) ? c.fillStyle : undefined;
 }
 
+/** `module.readSite(text)`, remembered for the last text read: the page and its widgets read the same
+ * site text one after another (a read is a parse and a check in wasm). The result is shared by every
+ * caller: read it, never change it. Errors are thrown, not remembered. */
+let lastRead = null;
+export function readSiteShared(module, text) {
+  if (lastRead && lastRead.module === module && lastRead.text === text) return lastRead.info;
+  const info = module.readSite(text);
+  lastRead = { module, text, info };
+  return info;
+}
+
 export class SunlotFigure extends HTMLElement {
   #started = false;
   #printing = false;
@@ -119,7 +130,7 @@ export class SunlotFigure extends HTMLElement {
   async setSite(text, draw = true) {
     const m = await this.ready;
     try {
-      const info = m.readSite(text);
+      const info = readSiteShared(m, text);
       this.state.site = info.siteJson;
       this.info = info;
       this.siteChanged();

@@ -27,7 +27,11 @@ sunlot.ready.then(async module => {
     .map(k => Object.assign(document.createElement("option"), { value: k.id, textContent: k.menu })));
 
   // The site: restored from the browser's storage when a valid one was saved, else the demo.
+  // Read through the widgets' shared read: they read the same text next.
+  const read = text => sunlot.readSiteShared(module, text);
   let site = module.demoSiteText();
+  // The demo's caution ("invented") is shown only while the site is the demo.
+  const demoName = read(site).name;
   let restored = false;
   try {
     const saved = localStorage.getItem(STORE);
@@ -47,9 +51,7 @@ sunlot.ready.then(async module => {
     ? "This browser does not keep the site (storage off): save it as a file to keep it."
     : restored ? "Restored your site from this browser's storage (saved there at every change)."
       : "Your site is kept in this browser: every change is saved here and comes back when you reopen the page.";
-  let info = module.readSite(site);
-  // The demo's caution ("invented") is shown only while the site is the demo.
-  const demoName = module.readSite(module.demoSiteText()).name;
+  let info = read(site);
   const showSiteName = source => {
     $("site-name").textContent = `${info.name || "Unnamed site"}${source ? ` (from ${source})` : ""}`;
     $("demo-note").hidden = info.name !== demoName;
@@ -113,7 +115,8 @@ sunlot.ready.then(async module => {
     $("tb-printed").textContent = new Date().toISOString().slice(0, 10);
   }
 
-  function redraw() {
+  /** Draws the figures at the page's moment, and the point's day summary unless `summaryLater`. */
+  function redraw(summaryLater = false) {
     hideError();
     const { date, time } = moment();
     $("time-label").textContent = time;
@@ -124,7 +127,7 @@ sunlot.ready.then(async module => {
       plan.setMoment(date, time);
       sky.setMoment(date, time);
       massing.setMoment(date, time);
-      summary();
+      if (!summaryLater) summary();
       titleBlock(date, time);
     } catch (e) { showError(e); }
   }
@@ -260,7 +263,7 @@ sunlot.ready.then(async module => {
   $("redo").addEventListener("click", () => plan.redo());
   plan.addEventListener("sunlot-edit", async e => {
     site = e.detail.site;
-    info = module.readSite(site);
+    info = read(site);
     keep(site);
     await Promise.all([sky.setSite(site), mapEl.setSite(site), massing.setSite(site)]);
     showFeature();
@@ -375,9 +378,17 @@ sunlot.ready.then(async module => {
   showSiteName("");
   const t0 = performance.now();
   await Promise.all([plan.setSite(site, false), sky.setSite(site, false), mapEl.setSite(site, false)]);
-  redraw();
+  redraw(true);
   measured.firstDrawMs = performance.now() - t0;
   measured.readyMs = performance.now(); // since navigation began
+  // The browser paints the two figures before the rest is worked out: the day summary, the 3-D
+  // view, the map.
+  // (A hidden tab runs no animation frames: then it goes on after a tenth of a second.)
+  await new Promise(resolve => { requestAnimationFrame(() => setTimeout(resolve, 0)); setTimeout(resolve, 100); });
+  try { summary(); } catch (e) { showError(e); }
+  // Workers for the maps, booted ahead (one per band a map is split into), so a change of map or
+  // date skips their start-up.
+  sunlot.startWorkersAhead(Math.min(4, navigator.hardwareConcurrency || 1));
   // The 3-D view (below the plan) after the first drawing: its scene is built once per site.
   await massing.setSite(site, false);
   const now = moment();

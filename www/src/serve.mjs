@@ -1,7 +1,8 @@
 // The worker side of the widgets' long calls, one loop for both workers: the script file beside the
 // bundle (www/worker.js, for pages served over http(s)) and the worker made from a Blob URL (pages
 // opened from disk), which gets this function's source.
-// Messages: {fn, input, compiled?} in; {progress}, then {result} or {error} out.
+// Messages: {fn, input, compiled?} in; {progress}, then {result} or {error} out. A message without
+// `fn` only boots the module (a worker started ahead of its call).
 
 /** Answers the page's messages with calls of the module `boot(compiled)` resolves to (`compiled`:
  * the WebAssembly.Module the page posts with the call, or none). Self-contained (its source is sent
@@ -10,9 +11,11 @@ export function serveWorker(boot) {
   let ready;
   self.onmessage = async e => {
     const m = await (ready ||= boot(e.data.compiled));
+    if (e.data.fn === undefined) return; // started ahead of its call: booted, it waits
     try {
       const out = m[e.data.fn](e.data.input, f => { self.postMessage({ progress: f }); return true; });
-      self.postMessage({ result: out });
+      // A map's cells go to the page as they are (moved, not copied).
+      self.postMessage({ result: out }, out && out.values instanceof Float64Array ? [out.values.buffer] : []);
     } catch (err) { self.postMessage({ error: String(err && err.message ? err.message : err) }); }
   };
 }

@@ -14,14 +14,16 @@
 // sunlot-layer {kind}, sunlot-error {message}. CSS custom properties on the element or above it:
 // --sunlot-ink, --sunlot-paper, --sunlot-proposed (colours) and --sunlot-figure-font (font family).
 // In the namespace `sunlot` besides the module: download, runInWorker, computeMap, CancelledError,
-// serveWorker.
-import { download } from "./figure.mjs";
+// serveWorker, readSiteShared (the module's readSite, remembered for the last text), workerModule
+// (loads the workers' speed-built module), startWorkersAhead(n) (keeps n workers booted for the
+// next long calls) and workerRuns.last (which module the last worker ran).
+import { download, readSiteShared } from "./figure.mjs";
 import { computeMap, SunlotMap } from "./maps.mjs";
 import { SunlotMassing } from "./massing.mjs";
 import { SunlotPlan } from "./plan.mjs";
 import { serveWorker } from "./serve.mjs";
 import { SunlotSky } from "./sky.mjs";
-import { CancelledError, runInWorker } from "./worker.mjs";
+import { CancelledError, runInWorker, startWorkersAhead, workerModule, workerRuns } from "./worker.mjs";
 
 // Printing lays every figure out for the sheet (see printSize); the page's print button, the
 // browser's print and print emulation all pass through one of these.
@@ -34,4 +36,4 @@ customElements.define("sunlot-map", SunlotMap);
 customElements.define("sunlot-plan", SunlotPlan);
 customElements.define("sunlot-massing", SunlotMassing);
 
-export { CancelledError, computeMap, download, runInWorker, serveWorker };
+export { CancelledError, computeMap, download, readSiteShared, runInWorker, serveWorker, startWorkersAhead, workerModule, workerRuns };
