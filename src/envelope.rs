@@ -20,7 +20,7 @@
 use geo::{BooleanOps, Coord, Line, LineString, MultiPolygon, Polygon};
 use serde::Serialize;
 
-use crate::exposure::{ExposureError, Grid, Period};
+use crate::exposure::{CellValues, ExposureError, Grid, Period};
 use crate::shadow::Receiver;
 use crate::site::SiteModel;
 use crate::solar::Ephemeris;
@@ -57,7 +57,7 @@ pub struct EnvelopeRequest<'a> {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Envelope {
     /// Height per cell, metres, row-major as the grid; `None` outside the lot.
-    pub height_m: Vec<Option<f64>>,
+    pub height_m: CellValues,
     /// Whether each cell's height is the cap rather than a shadow limit.
     pub capped: Vec<bool>,
     /// Sun-up steps considered.
@@ -253,7 +253,7 @@ pub fn height_bands(grid: &Grid, env: &Envelope, band_m: f64) -> Vec<HeightBand>
     let mut by_band: std::collections::BTreeMap<i64, Vec<Polygon<f64>>> = Default::default();
     for row in 0..grid.rows {
         for col in 0..grid.cols {
-            if let Some(h) = env.height_m[row * grid.cols + col] {
+            if let Some(h) = env.height_m.get(row * grid.cols + col) {
                 by_band.entry((h / band_m + 1e-9).floor() as i64).or_default().push(cell_footprint(grid, col, row));
             }
         }

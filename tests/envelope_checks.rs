@@ -29,7 +29,7 @@ fn a_massing_filling_the_envelope_keeps_off_the_protected_areas_and_one_step_mor
         delta_t: DeltaT::EspenakMeeus,
     };
     let env = solar_envelope(&req, |_| true).unwrap();
-    let heights: Vec<f64> = env.height_m.iter().flatten().copied().collect();
+    let heights: Vec<f64> = env.height_m.values().collect();
     assert!(heights.iter().any(|&h| h > 3.0) && heights.iter().any(|&h| h < 40.0), "a shaped envelope");
 
     // The same steps' shadow offsets, from the solar engine.
@@ -58,7 +58,7 @@ fn a_massing_filling_the_envelope_keeps_off_the_protected_areas_and_one_step_mor
     for row in 0..grid.rows {
         for col in 0..grid.cols {
             let i = row * grid.cols + col;
-            let Some(h) = env.height_m[i] else { continue };
+            let Some(h) = env.height_m.get(i) else { continue };
             // Filling the envelope: no shadow on protected land (beyond the boolean engine's noise).
             assert!(overlap(col, row, h) < 1e-6, "cell {col},{row} at {h} m overlaps");
             if !env.capped[i] && h > 0.0 && (row + col) % 3 == 0 {

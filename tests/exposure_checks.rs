@@ -6,7 +6,7 @@
 //! shadow edge.
 
 use chrono::{Duration, NaiveDate};
-use sunlot::exposure::{sun_hours, Grid, Period, SunHoursRequest, DEFAULT_MAX_CELLS};
+use sunlot::exposure::{sun_hours, CellValues, Grid, Period, SunHoursRequest, DEFAULT_MAX_CELLS};
 use sunlot::shadow::{exposure, Exposure, Receiver, ViewPoint};
 use sunlot::solar::{day_events, Atmosphere, Crossing, Ephemeris};
 use sunlot::time::DeltaT;
@@ -44,7 +44,7 @@ fn cell_sun_hours_match_point_ray_tests_within_one_step() {
     let mut compared = 0;
     for row in (0..g.rows).step_by(3) {
         for col in 0..g.cols {
-            let Some(h) = map.hours[row * g.cols + col] else { continue };
+            let Some(h) = map.hours.get(row * g.cols + col) else { continue };
             let c = g.centre(col, row);
             let p = ViewPoint { x_m: c.x, y_m: c.y, z_m: 0.0 };
             let lit = suns
@@ -102,7 +102,7 @@ fn tiles_with_halos_stitched_equal_the_whole_map_exactly() {
     let whole = sun_hours(&req, |_| true).unwrap();
     let halo = shadow_halo_m(&m, &period, 0.0, DeltaT::EspenakMeeus).unwrap();
     assert!(halo.is_finite() && halo > 10.0, "halo {halo} m");
-    let mut stitched = vec![None; g.rows * g.cols];
+    let mut stitched = vec![f64::NAN; g.rows * g.cols];
     let tiles = g.tiles(37, 23);
     assert!(tiles.len() > 4);
     let mut dropped = 0;
@@ -110,10 +110,10 @@ fn tiles_with_halos_stitched_equal_the_whole_map_exactly() {
         let near = massing_near(&m, t, halo);
         dropped += m.volumes.len() - near.volumes.len();
         let part = sun_hours(&SunHoursRequest { model: &near, grid: t, ..req.clone() }, |_| true).unwrap();
-        g.stitch(t, &part.hours, &mut stitched);
+        g.stitch(t, part.hours.as_nan_coded(), &mut stitched);
     }
     assert!(dropped > 0, "some tiles must leave far volumes out for the halo to be tested");
-    assert_eq!(stitched, whole.hours);
+    assert_eq!(CellValues::from_nan_coded(stitched), whole.hours);
 }
 
 #[test]
@@ -146,18 +146,22 @@ fn row_bands_stitched_equal_the_whole_map_exactly_for_every_kind_the_page_splits
     );
     for of in [2, 3] {
         let (mut hours, mut lost, mut total) =
-            (vec![None; g.rows * g.cols], vec![None; g.rows * g.cols], vec![None; g.rows * g.cols]);
+            (vec![f64::NAN; g.rows * g.cols], vec![f64::NAN; g.rows * g.cols], vec![f64::NAN; g.rows * g.cols]);
         for index in 0..of {
             let band = g.row_band(index, of);
             assert!(band.rows > 0 && band.rows < g.rows, "band {index} of {of}: {} rows", band.rows);
             let part = SunHoursRequest { grid: &band, ..req.clone() };
-            g.stitch(&band, &sun_hours(&part, |_| true).unwrap().hours, &mut hours);
-            g.stitch(&band, &before_after(&part, |_| true).unwrap().lost_h, &mut lost);
-            g.stitch(&band, &insolation(&ins(&m, &band, period), |_| true).unwrap().total_kwh_m2, &mut total);
+            g.stitch(&band, sun_hours(&part, |_| true).unwrap().hours.as_nan_coded(), &mut hours);
+            g.stitch(&band, before_after(&part, |_| true).unwrap().lost_h.as_nan_coded(), &mut lost);
+            g.stitch(
+                &band,
+                insolation(&ins(&m, &band, period), |_| true).unwrap().total_kwh_m2.as_nan_coded(),
+                &mut total,
+            );
         }
-        assert_eq!(hours, whole.0.hours, "{of} bands: sun hours");
-        assert_eq!(lost, whole.1.lost_h, "{of} bands: hours lost");
-        assert_eq!(total, whole.2.total_kwh_m2, "{of} bands: insolation");
+        assert_eq!(CellValues::from_nan_coded(hours), whole.0.hours, "{of} bands: sun hours");
+        assert_eq!(CellValues::from_nan_coded(lost), whole.1.lost_h, "{of} bands: hours lost");
+        assert_eq!(CellValues::from_nan_coded(total), whole.2.total_kwh_m2, "{of} bands: insolation");
     }
     // More bands than rows: the extra bands are empty, the rest still the whole grid.
     let thin = g.row_band(0, g.rows);
@@ -251,7 +255,7 @@ fn sun_hours_at_points_match_the_point_timeline_within_one_step() {
     let mut compared = 0;
     for row in (0..g.rows).step_by(2) {
         for col in (0..g.cols).step_by(2) {
-            let Some(h) = map.hours[row * g.cols + col] else { continue };
+            let Some(h) = map.hours.get(row * g.cols + col) else { continue };
             let c = g.centre(col, row);
             let t =
                 day_timeline(&m, ViewPoint { x_m: c.x, y_m: c.y, z_m: 0.0 }, date, req.massing, DeltaT::EspenakMeeus)

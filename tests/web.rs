@@ -143,7 +143,7 @@ fn sun_hours_map_is_a_typed_array_equal_to_the_core() {
     for (k, want) in core.hours.iter().enumerate() {
         let got = hours.get_index(k as u32);
         match want {
-            Some(h) => assert_eq!(got, *h),
+            Some(h) => assert_eq!(got, h),
             None => assert!(got.is_nan()),
         }
     }
@@ -274,7 +274,7 @@ fn insolation_layers_views_palettes_and_underlays_through_the_facade() {
     for (k, want) in core.total_kwh_m2.iter().enumerate() {
         let got = total.get_index(k as u32);
         match want {
-            Some(v) => assert_eq!(got, *v),
+            Some(v) => assert_eq!(got, v),
             None => assert!(got.is_nan()),
         }
     }

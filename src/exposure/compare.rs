@@ -3,6 +3,7 @@
 
 use serde::Serialize;
 
+use super::cell_values::CellValues;
 use super::grid::{ExposureError, Grid};
 use super::shade::Massing;
 use super::sun_hours::{sun_hours, SunHours, SunHoursRequest};
@@ -37,8 +38,8 @@ pub struct MapStats {
 /// Figures of `values` (row-major over `grid`, `None` outside it) over an area whose share of each
 /// cell is `weights` (from [`Grid::cover_of`]; `None`: every cell with a value counts whole); `None`
 /// when no cell with a value has any weight.
-pub fn map_stats(grid: &Grid, values: &[Option<f64>], weights: Option<&[f64]>, threshold: f64) -> Option<MapStats> {
-    let weight = |k: usize| match (values[k], weights) {
+pub fn map_stats(grid: &Grid, values: &CellValues, weights: Option<&[f64]>, threshold: f64) -> Option<MapStats> {
+    let weight = |k: usize| match (values.get(k), weights) {
         (None, _) => 0.0,
         (Some(_), None) => 1.0,
         (Some(_), Some(w)) => w[k],
@@ -50,7 +51,7 @@ pub fn map_stats(grid: &Grid, values: &[Option<f64>], weights: Option<&[f64]>, t
     let (mut cells, mut total, mut sum, mut at_least, mut uncertain) = (0, 0.0, 0.0, 0.0, 0.0);
     let (mut min, mut max) = (f64::INFINITY, f64::NEG_INFINITY);
     for (k, v) in values.iter().enumerate() {
-        let (Some(v), w) = (*v, weight(k)) else { continue };
+        let (Some(v), w) = (v, weight(k)) else { continue };
         if w <= 0.0 {
             continue;
         }
@@ -69,7 +70,7 @@ pub fn map_stats(grid: &Grid, values: &[Option<f64>], weights: Option<&[f64]>, t
             (row > 0).then(|| k - cols),
             (row + 1 < grid.rows).then(|| k + cols),
         ];
-        let across = neighbours.iter().flatten().any(|&j| values[j].is_some_and(|u| hit(u) != hit(v)));
+        let across = neighbours.iter().flatten().any(|&j| values.get(j).is_some_and(|u| hit(u) != hit(v)));
         if w < 1.0 - 1e-12 || across {
             uncertain += w;
         }
@@ -99,9 +100,9 @@ pub struct BeforeAfter {
     /// Existing and proposed massing.
     pub after: SunHours,
     /// Hours lost per cell (before − after, 0 or more); `None` outside the area.
-    pub lost_h: Vec<Option<f64>>,
+    pub lost_h: CellValues,
     /// After / before per cell; `None` outside the area and where the cell had no sun before.
-    pub ratio: Vec<Option<f64>>,
+    pub ratio: CellValues,
 }
 
 /// Runs the map of `req` (its `massing` is ignored) for both massings. Progress runs 0–½ for the
@@ -118,11 +119,11 @@ pub fn before_after(
     };
     let before = run(Massing::Existing, &mut |f| progress(0.5 * f))?;
     let after = run(Massing::WithProposed, &mut |f| progress(0.5 + 0.5 * f))?;
-    let pairs = || before.hours.iter().zip(&after.hours);
-    let lost_h = pairs().map(|(b, a)| Some((b.as_ref()? - a.as_ref()?).max(0.0))).collect();
+    let pairs = || before.hours.iter().zip(after.hours.iter());
+    let lost_h = pairs().map(|(b, a)| Some((b? - a?).max(0.0))).collect();
     let ratio = pairs()
         .map(|(b, a)| match (b, a) {
-            (Some(b), Some(a)) if *b > 0.0 => Some(a / b),
+            (Some(b), Some(a)) if b > 0.0 => Some(a / b),
             _ => None,
         })
         .collect();

@@ -5,7 +5,7 @@ use geo::{Coord, LineString, Polygon};
 use geojson::{Feature, FeatureCollection, Geometry, GeometryValue, JsonObject};
 use serde_json::json;
 
-use super::Grid;
+use super::{CellValues, Grid};
 use crate::site::SiteModel;
 
 /// One layer of a map: a property name with its unit (e.g. `sun_hours`) and a value per cell.
@@ -14,7 +14,7 @@ pub struct MapColumn<'a> {
     /// Property name.
     pub name: &'a str,
     /// Values, row-major as the grid.
-    pub values: &'a [Option<f64>],
+    pub values: &'a CellValues,
 }
 
 /// The cells of `grid` inside its areas as a GeoJSON FeatureCollection text, with `columns` as
@@ -43,7 +43,7 @@ pub fn map_geojson(
             let sq = if wgs84 { model.polygon_to_wgs84(&frame, &sq) } else { sq };
             let mut props = JsonObject::new();
             for l in columns {
-                let v = l.values.get(i).copied().flatten();
+                let v = l.values.get(i);
                 props.insert(l.name.into(), v.map_or(serde_json::Value::Null, |v| json!((v * 1e4).round() / 1e4)));
             }
             features.push(Feature {
@@ -74,7 +74,7 @@ mod tests {
         let model = crate::demo::demo();
         let garden = model.areas.iter().find(|a| a.id == "garden-16").unwrap();
         let grid = Grid::over_polygon(&garden.polygon, 1.0, DEFAULT_MAX_CELLS).unwrap();
-        let values: Vec<Option<f64>> = (0..grid.cols * grid.rows).map(|i| Some(i as f64 / 3.0)).collect();
+        let values: CellValues = (0..grid.cols * grid.rows).map(|i| Some(i as f64 / 3.0)).collect();
         let text = map_geojson(&model, &grid, &[MapColumn { name: "sun_hours", values: &values }], ("t", "p"), false);
         let fc: FeatureCollection = text.parse::<geojson::GeoJson>().unwrap().try_into().unwrap();
         // The garden is 7 m × 28 m: 196 cells of 1 m².

@@ -11,6 +11,7 @@
 
 use serde::Serialize;
 
+use super::cell_values::CellValues;
 use super::grid::{ExposureError, Grid};
 use super::period::{Period, Step};
 use super::shade::{Cast, Massing, ShadeSums};
@@ -49,15 +50,15 @@ pub struct InsolationRequest<'a> {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Insolation {
     /// Beam plus diffuse, kWh/m².
-    pub total_kwh_m2: Vec<Option<f64>>,
+    pub total_kwh_m2: CellValues,
     /// Beam on the horizontal while in direct sun, kWh/m².
-    pub beam_kwh_m2: Vec<Option<f64>>,
+    pub beam_kwh_m2: CellValues,
     /// Diffuse times the sky-view factor, kWh/m².
-    pub diffuse_kwh_m2: Vec<Option<f64>>,
+    pub diffuse_kwh_m2: CellValues,
     /// Sky-view factor, 0–1.
-    pub sky_view: Vec<Option<f64>>,
+    pub sky_view: CellValues,
     /// Hours of direct sun.
-    pub sun_hours: Vec<Option<f64>>,
+    pub sun_hours: CellValues,
     /// What an unobstructed cell receives.
     pub open: OpenSky,
 }
@@ -127,22 +128,34 @@ pub fn insolation(req: &InsolationRequest, mut progress: impl FnMut(f64) -> bool
         Ok(())
     })?;
     sums.add(&batch);
-    let [shaded_ms, shaded_mj] = sums.finish();
+    // Hours and beam are formed in the shaded totals' own storage.
+    let [mut hours, mut beam] = sums.finish();
     open.sun_hours = open_ms / 3.6e6;
     open.beam_kwh_m2 = open_mj / (1e3 * J_PER_KWH);
     open.total_kwh_m2 = open.beam_kwh_m2 + open.diffuse_kwh_m2;
     let n = g.rows * g.cols;
-    let (mut total, mut beam, mut diffuse, mut hours) = (vec![None; n], vec![None; n], vec![None; n], vec![None; n]);
+    let (mut total, mut diffuse) = (vec![f64::NAN; n], vec![f64::NAN; n]);
     for i in 0..n {
-        let Some(svf) = sky_view[i] else { continue };
-        let b = ((open_mj - shaded_mj[i]) / (1e3 * J_PER_KWH)).max(0.0);
+        let Some(svf) = sky_view.get(i) else {
+            (hours[i], beam[i]) = (f64::NAN, f64::NAN);
+            continue;
+        };
+        let b = ((open_mj - beam[i]) / (1e3 * J_PER_KWH)).max(0.0);
         let d = svf * open.diffuse_kwh_m2;
-        beam[i] = Some(b);
-        diffuse[i] = Some(d);
-        total[i] = Some(b + d);
-        hours[i] = Some(((open_ms - shaded_ms[i]) / 3.6e6).max(0.0));
+        beam[i] = b;
+        diffuse[i] = d;
+        total[i] = b + d;
+        hours[i] = ((open_ms - hours[i]) / 3.6e6).max(0.0);
     }
-    Ok(Insolation { total_kwh_m2: total, beam_kwh_m2: beam, diffuse_kwh_m2: diffuse, sky_view, sun_hours: hours, open })
+    let cells = CellValues::from_nan_coded;
+    Ok(Insolation {
+        total_kwh_m2: cells(total),
+        beam_kwh_m2: cells(beam),
+        diffuse_kwh_m2: cells(diffuse),
+        sky_view,
+        sun_hours: cells(hours),
+        open,
+    })
 }
 
 #[cfg(test)]
@@ -193,7 +206,7 @@ mod tests {
                 let v = v.unwrap();
                 assert!((v - integral_kwh).abs() < 0.002 * integral_kwh, "{date}: {v} vs {integral_kwh} kWh/m²");
             }
-            assert!(r.sky_view.iter().all(|s| *s == Some(1.0)));
+            assert!(r.sky_view.iter().all(|s| s == Some(1.0)));
         }
     }
 }

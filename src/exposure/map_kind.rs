@@ -6,7 +6,7 @@
 use chrono::{Datelike, NaiveDate};
 
 use super::period::{Period, Window, WindowError, DEFAULT_CELL_M, DEFAULT_LONG_STEP_MIN, DEFAULT_STEP_MIN};
-use super::Massing;
+use super::{CellValues, Massing};
 use crate::envelope::{DEFAULT_ENVELOPE_CELL_M, DEFAULT_ENVELOPE_WINDOW};
 
 /// What a kind computes.
@@ -206,12 +206,10 @@ impl MapKind {
 
     /// The end of the colour range of `values` (NaN-free: at least a millionth), given the open
     /// ground's figure `open`.
-    pub fn range_top(&self, values: &[Option<f64>], open: f64) -> f64 {
+    pub fn range_top(&self, values: &CellValues, open: f64) -> f64 {
         let top = match self.top {
             RangeTop::Open => open,
-            RangeTop::Largest(floor) => {
-                values.iter().flatten().copied().filter(|v| v.is_finite()).fold(floor, f64::max)
-            }
+            RangeTop::Largest(floor) => values.values().filter(|v| v.is_finite()).fold(floor, f64::max),
         };
         if top.is_finite() {
             top.max(1e-6)
@@ -260,11 +258,11 @@ mod tests {
 
     #[test]
     fn the_colour_range_ends_at_the_open_figure_or_the_largest_value() {
-        let values = [Some(0.2), None, Some(f64::NAN), Some(3.5)];
+        let values: CellValues = vec![Some(0.2), None, Some(f64::NAN), Some(3.5)].into();
         assert_eq!(map_kind("sun-hours").unwrap().range_top(&values, 11.9), 11.9);
         assert_eq!(map_kind("lost").unwrap().range_top(&values, 11.9), 3.5);
-        assert_eq!(map_kind("lost").unwrap().range_top(&[Some(0.1)], 11.9), 0.5);
-        assert_eq!(map_kind("envelope").unwrap().range_top(&[], f64::NAN), 1.0);
-        assert_eq!(map_kind("sun-hours").unwrap().range_top(&[], 0.0), 1e-6);
+        assert_eq!(map_kind("lost").unwrap().range_top(&vec![Some(0.1)].into(), 11.9), 0.5);
+        assert_eq!(map_kind("envelope").unwrap().range_top(&CellValues::default(), f64::NAN), 1.0);
+        assert_eq!(map_kind("sun-hours").unwrap().range_top(&CellValues::default(), 0.0), 1e-6);
     }
 }

@@ -2,6 +2,7 @@
 //! of direct sun, sky-view factors and clear-sky insolation per cell, before and after a proposal,
 //! and the periods they run over; a point's day and year, and a window's hours of direct sun.
 
+mod cell_values;
 mod compare;
 mod cover;
 mod facade;
@@ -20,6 +21,7 @@ mod timeline;
 mod window_sun;
 mod year_profile;
 
+pub use cell_values::CellValues;
 pub use compare::{before_after, map_stats, BeforeAfter, MapStats};
 pub use cover::MIN_COVER;
 pub use facade::{

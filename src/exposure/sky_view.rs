@@ -14,6 +14,7 @@
 
 use geo::Coord;
 
+use super::cell_values::CellValues;
 use super::grid::{ExposureError, Grid};
 use super::shade::{Cast, Massing, ShadeSums};
 use crate::shadow::{shadow_offset_per_m, Exposure, Receiver, ViewPoint};
@@ -65,7 +66,7 @@ pub fn sky_view_map(
     plane_m: f64,
     massing: Massing,
     step_deg: f64,
-) -> Result<Vec<Option<f64>>, ExposureError> {
+) -> Result<CellValues, ExposureError> {
     super::sun_hours::check_plane(plane_m)?;
     let patches = sky_patches(step_deg)?;
     crate::limits::within(
@@ -169,7 +170,7 @@ mod tests {
         for row in [0, 2, 5, 10, 29] {
             let d = g.centre(0, row).y;
             let want = (1.0 + (h / d).atan().cos()) / 2.0;
-            let got = map[row * g.cols].unwrap();
+            let got = map.get(row * g.cols).unwrap();
             // 1° patches: the wall's edge cuts a band of patches, so within about one band's weight.
             assert!((got - want).abs() < 0.012, "d = {d}: {got} vs {want}");
             let at = sky_view_at(&m, ViewPoint { x_m: g.centre(0, row).x, y_m: d, z_m: 0.0 }, Massing::Existing, 1.0)

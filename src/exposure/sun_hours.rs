@@ -11,6 +11,7 @@
 use chrono::NaiveDate;
 use geo::Coord;
 
+use super::cell_values::CellValues;
 use super::grid::{ExposureError, Grid};
 use super::period::{Period, Step};
 use super::shade::{Cast, Massing, ShadeSums};
@@ -46,7 +47,7 @@ pub struct SunHoursRequest<'a> {
 #[derive(Debug, Clone, PartialEq)]
 pub struct SunHours {
     /// Hours per cell, row-major as the grid; `None` for cells outside the area.
-    pub hours: Vec<Option<f64>>,
+    pub hours: CellValues,
     /// Hours an unobstructed cell would get over the same period and window.
     pub open_hours: f64,
     /// Sun-up steps computed.
@@ -110,7 +111,7 @@ pub(crate) fn for_each_day(
 /// };
 /// let map = sun_hours(&req, |_| true)?;
 /// assert!((map.open_hours - 12.25).abs() < 0.1, "{}", map.open_hours);
-/// let least = map.hours.iter().flatten().fold(f64::INFINITY, |a, &h| a.min(h));
+/// let least = map.hours.values().fold(f64::INFINITY, f64::min);
 /// assert!(least > map.open_hours - 1.0, "{least}");
 /// # Ok::<(), sunlot::exposure::ExposureError>(())
 /// ```
@@ -146,10 +147,12 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
     open_ms += batch.iter().map(|c| c.1[0]).sum::<f64>();
     steps += batch.len();
     sums.add(&batch);
-    let [shaded] = sums.finish();
-    let hours =
-        shaded.iter().zip(&g.inside).map(|(s, &inside)| inside.then(|| ((open_ms - s) / 3.6e6).max(0.0))).collect();
-    Ok(SunHours { hours, open_hours: open_ms / 3.6e6, steps })
+    // The hours are formed in the shaded totals' own storage (no second map in memory).
+    let [mut hours] = sums.finish();
+    for (h, &inside) in hours.iter_mut().zip(&g.inside) {
+        *h = if inside { ((open_ms - *h) / 3.6e6).max(0.0) } else { f64::NAN };
+    }
+    Ok(SunHours { hours: CellValues::from_nan_coded(hours), open_hours: open_ms / 3.6e6, steps })
 }
 
 #[cfg(test)]
@@ -202,7 +205,7 @@ mod tests {
         let g = Grid::over_polygon(&m.areas[0].polygon, 2.0, DEFAULT_MAX_CELLS).unwrap();
         let r = sun_hours(&request(&m, &g, NaiveDate::from_ymd_opt(2026, 12, 21).unwrap()), |_| true).unwrap();
         assert_eq!(r.open_hours, 0.0);
-        assert!(r.hours.iter().all(|h| *h == Some(0.0)));
+        assert!(r.hours.iter().all(|h| h == Some(0.0)));
     }
 
     #[test]
@@ -228,7 +231,7 @@ mod tests {
         let r = sun_hours(&request(&m, &g, equinox), |_| true).unwrap();
         let at = |y: f64| {
             let row = ((y - g.origin.y) / g.cell_m) as usize;
-            r.hours[row * g.cols + g.cols / 2].unwrap()
+            r.hours.get(row * g.cols + g.cols / 2).unwrap()
         };
         assert!(at(0.5 * depth) <= 2.0 * 5.0 / 60.0 + 1e-9, "inside the strip: {} h", at(0.5 * depth));
         assert!(

@@ -15,6 +15,7 @@
 //! numpy reads one as `np.fromfile(path, dtype="<f4", offset=48).reshape(rows, cols)`. Tiles of one
 //! lattice (see [`super::Grid::tiles`]) stitch into the map computed whole bit for bit.
 
+use super::cell_values::CellValues;
 use super::grid::Grid;
 
 /// The first eight bytes of a tile file.
@@ -60,7 +61,7 @@ pub enum TileFileError {
 }
 
 /// The tile file of `values` (one per cell of `grid`, `None` outside).
-pub fn tile_bytes(grid: &Grid, values: &[Option<f64>]) -> Vec<u8> {
+pub fn tile_bytes(grid: &Grid, values: &CellValues) -> Vec<u8> {
     let mut out = Vec::with_capacity(TILE_HEADER_BYTES + 4 * values.len());
     out.extend_from_slice(TILE_MAGIC);
     for v in [grid.origin.x, grid.origin.y, grid.cell_m] {
@@ -69,8 +70,8 @@ pub fn tile_bytes(grid: &Grid, values: &[Option<f64>]) -> Vec<u8> {
     for v in [grid.col0, grid.row0, grid.cols, grid.rows] {
         out.extend_from_slice(&u32::try_from(v).unwrap_or(u32::MAX).to_le_bytes());
     }
-    for v in values {
-        out.extend_from_slice(&v.map_or(f32::NAN, |h| h as f32).to_le_bytes());
+    for &v in values.as_nan_coded() {
+        out.extend_from_slice(&(v as f32).to_le_bytes());
     }
     out
 }
@@ -163,7 +164,7 @@ impl TileValues {
             rows: self.rows,
             inside: Vec::new(),
         };
-        let values: Vec<Option<f64>> = self.values.iter().map(|v| (!v.is_nan()).then_some(f64::from(*v))).collect();
+        let values = CellValues::from_nan_coded(self.values.iter().map(|&v| f64::from(v)).collect());
         tile_bytes(&grid, &values)
     }
 
@@ -184,7 +185,7 @@ mod tests {
         Grid::over(&MultiPolygon::new(vec![area]), 1.0, 1000).unwrap()
     }
 
-    fn values(g: &Grid) -> Vec<Option<f64>> {
+    fn values(g: &Grid) -> CellValues {
         (0..g.cols * g.rows).map(|i| (i % 7 != 3).then_some(i as f64 * 0.25)).collect()
     }
 
@@ -200,10 +201,10 @@ mod tests {
                 let (mut v, all) = (vec![None; t.cols * t.rows], values(&g));
                 for r in 0..t.rows {
                     for c in 0..t.cols {
-                        v[r * t.cols + c] = all[(t.row0 + r) * g.cols + t.col0 + c];
+                        v[r * t.cols + c] = all.get((t.row0 + r) * g.cols + t.col0 + c);
                     }
                 }
-                (format!("tile {k}"), read_tile("t", &tile_bytes(t, &v)).unwrap())
+                (format!("tile {k}"), read_tile("t", &tile_bytes(t, &v.into())).unwrap())
             })
             .collect();
         let stitched = stitch_tiles(&tiles).unwrap();

@@ -6,7 +6,7 @@ use super::layer::{draw_cells, draw_legend_len, MapLayer, LEGEND_PX};
 use super::plan::site_outlines;
 use super::plan::{draw_north_arrow, draw_outlines, draw_scale_bar, outline_key, Outline, PlanFrame};
 use super::plan_view::key_px;
-use crate::exposure::Grid;
+use crate::exposure::{CellValues, Grid};
 use crate::site::SiteModel;
 
 /// A map to draw.
@@ -21,7 +21,7 @@ pub struct HeatMap<'a> {
     /// The cells.
     pub grid: &'a Grid,
     /// Values per cell, row-major as the grid; `None` cells are left blank.
-    pub values: &'a [Option<f64>],
+    pub values: &'a CellValues,
     /// Values mapped to the ends of the ramp.
     pub range: (f64, f64),
     /// Outlines over the map.
@@ -38,7 +38,7 @@ impl<'a> HeatMap<'a> {
     pub fn of_site(
         model: &SiteModel,
         grid: &'a Grid,
-        values: &'a [Option<f64>],
+        values: &'a CellValues,
         (title, subtitle): (&str, &str),
         unit: &str,
         range: (f64, f64),
@@ -67,7 +67,7 @@ pub fn draw_heat_map(d: &mut dyn Draw, map: &HeatMap) -> PlanFrame {
     d.fill_rect(0.0, 0.0, w, h, PAPER);
     let top = heading(d, &map.title, &map.subtitle);
 
-    let layer = MapLayer::on_grid(map.grid, map.values.to_vec(), "", &map.unit, map.range);
+    let layer = MapLayer::on_grid(map.grid, map.values.clone(), "", &map.unit, map.range);
     let plan_box = (24.0, top, w - 24.0 - key_px(w), h - top - 56.0 - footnote_px(d, &map.caution));
     let frame = PlanFrame::fit(layer.bounds, &map.outlines, plan_box);
     draw_cells(d, &frame, &layer, &layer.rgba());
@@ -91,7 +91,7 @@ mod tests {
     use crate::render::{ramp_colour, Pixmap, Svg};
     use geo::{Coord, LineString, Polygon};
 
-    fn figure<'a>(grid: &'a Grid, values: &'a [Option<f64>]) -> HeatMap<'a> {
+    fn figure<'a>(grid: &'a Grid, values: &'a CellValues) -> HeatMap<'a> {
         HeatMap {
             title: "Test map".into(),
             subtitle: "sub".into(),
@@ -110,7 +110,7 @@ mod tests {
         let sq = Polygon::new(LineString::from(vec![(0.0, 0.0), (10.0, 0.0), (10.0, 10.0), (0.0, 10.0)]), vec![]);
         let g = Grid::over_polygon(&sq, 1.0, DEFAULT_MAX_CELLS).unwrap();
         // Low values in the west half, high in the east half.
-        let values: Vec<Option<f64>> = (0..100).map(|i| Some(if i % 10 < 5 { 0.0 } else { 10.0 })).collect();
+        let values: CellValues = (0..100).map(|i| Some(if i % 10 < 5 { 0.0 } else { 10.0 })).collect();
         let map = figure(&g, &values);
         let mut px = Pixmap::new(FIGURE_PX.0, FIGURE_PX.1);
         let frame = draw_heat_map(&mut px, &map);

@@ -6,7 +6,7 @@ use geo::{Coord, Rect};
 use super::draw::{Anchor, Draw, Image, INK, LABEL_PX, TEXT_PX};
 use super::plan::PlanFrame;
 use super::ramp::ramp_colour;
-use crate::exposure::Grid;
+use crate::exposure::{CellValues, Grid};
 
 /// A grid of values to draw over a plan.
 #[derive(Debug, Clone, PartialEq)]
@@ -22,14 +22,14 @@ pub struct MapLayer {
     /// Rows of cells.
     pub rows: usize,
     /// Values, row-major from the bottom (south) row; `None` cells are left blank.
-    pub values: Vec<Option<f64>>,
+    pub values: CellValues,
     /// Values mapped to the ends of the ramp.
     pub range: (f64, f64),
 }
 
 impl MapLayer {
     /// A layer of `values` on the cells of `grid`.
-    pub fn on_grid(grid: &Grid, values: Vec<Option<f64>>, label: &str, unit: &str, range: (f64, f64)) -> Self {
+    pub fn on_grid(grid: &Grid, values: CellValues, label: &str, unit: &str, range: (f64, f64)) -> Self {
         MapLayer {
             label: label.into(),
             unit: unit.into(),
@@ -47,7 +47,7 @@ impl MapLayer {
         let mut rgba = vec![0u8; self.cols * self.rows * 4];
         for row in 0..self.rows {
             for col in 0..self.cols {
-                if let Some(v) = self.values.get(row * self.cols + col).copied().flatten() {
+                if let Some(v) = self.values.get(row * self.cols + col) {
                     let c = ramp_colour(v, lo, hi);
                     let i = ((self.rows - 1 - row) * self.cols + col) * 4;
                     rgba[i..i + 4].copy_from_slice(&[c.r, c.g, c.b, 255]);

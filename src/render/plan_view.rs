@@ -213,7 +213,7 @@ mod tests {
             bounds: Rect::new(Coord { x: -500.0, y: -500.0 }, Coord { x: 500.0, y: 500.0 }),
             cols: 2,
             rows: 2,
-            values: vec![Some(1.0); 4],
+            values: vec![Some(1.0); 4].into(),
             range: (0.0, 1.0),
         };
         let rgba = layer.rgba();

@@ -10,7 +10,7 @@ use super::maps::{
 };
 use super::outputs::{GridGeometry, MapFigures, Values};
 use super::{read, site, write};
-use crate::exposure::{map_kind, Grid, MapCall, MapKind, MapSpan, Period, MAP_KINDS};
+use crate::exposure::{map_kind, CellValues, Grid, MapCall, MapKind, MapSpan, Period, MAP_KINDS};
 
 /// A row of `mapKinds` (`MapKindInfo`).
 #[derive(Serialize)]
@@ -113,7 +113,7 @@ fn kind_period(kind: &str, day: &str) -> Result<(&'static MapKind, Period), JsEr
 }
 
 /// The map for the page, its figures over `values` (the whole grid's or a band's).
-fn kind_map(kind: &'static MapKind, period: &Period, grid: &Grid, values: &[Option<f64>], open: f64) -> KindMap {
+fn kind_map(kind: &'static MapKind, period: &Period, grid: &Grid, values: &CellValues, open: f64) -> KindMap {
     KindMap {
         kind: kind.id,
         title: kind.title,
@@ -159,7 +159,7 @@ pub fn map_of_kind(
         m.band = band;
         m
     };
-    let (grid, values, open): (Grid, Vec<Option<f64>>, f64) = match kind.call {
+    let (grid, values, open): (Grid, CellValues, f64) = match kind.call {
         MapCall::SunHours(_) => {
             let (grid, _, m) = sun_hours_of(&map_in(), progress)?;
             (grid, m.hours, m.open_hours)
@@ -216,6 +216,6 @@ pub fn join_map_parts(
             grid.rows
         )));
     }
-    let cells: Vec<Option<f64>> = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
+    let cells: CellValues = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
     write(&kind_map(kind, &period, &grid, &cells, i.open_value.unwrap_or(f64::NAN)))
 }

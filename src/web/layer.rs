@@ -6,7 +6,7 @@ use serde::Deserialize;
 use wasm_bindgen::prelude::*;
 
 use super::read;
-use crate::exposure::{map_geojson, Grid, MapColumn};
+use crate::exposure::{map_geojson, CellValues, Grid, MapColumn};
 use crate::render::{Colour, MapLayer, Palette};
 
 /// A grid's geometry as the map calls return it.
@@ -206,7 +206,7 @@ pub fn map_geojson_js(
     let i: MapGeojsonIn = read(input, "mapGeojson")?;
     let read = super::read_site_text(&i.site)?;
     let grid = grid_of(i.grid, values)?;
-    let cells: Vec<Option<f64>> = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
+    let cells: CellValues = values.iter().map(|&v| v.is_finite().then_some(v)).collect();
     let columns = [MapColumn { name: &i.name, values: &cells }];
     Ok(map_geojson(&read.model, &grid, &columns, (&i.title, &i.period), read.from_geojson))
 }

@@ -443,7 +443,7 @@ pub fn draw_map_figure(
         }
         Some("lost") => {
             let ba = before_after(&req, |_| true).map_err(err)?;
-            let top = ba.lost_h.iter().flatten().copied().fold(0.5, f64::max);
+            let top = ba.lost_h.values().fold(0.5, f64::max);
             (ba.lost_h, ba.before.open_hours, "Hours of direct sun lost to the proposal", "hours lost", (0.0, top))
         }
         Some(other) => return Err(JsError::new(&format!("show: {other:?} is not \"hours\" or \"lost\""))),

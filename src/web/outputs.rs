@@ -8,7 +8,7 @@
 use js_sys::Float64Array;
 use serde::Serialize;
 
-use crate::exposure::Grid;
+use crate::exposure::{CellValues, Grid};
 
 /// A grid's geometry (`GridGeometry`): cell (c, r) is centred at `originXM + (col0 + c + 0.5)·cellM`,
 /// `originYM + (row0 + r + 0.5)·cellM`.
@@ -50,7 +50,7 @@ pub(super) struct MapFigures {
 
 impl MapFigures {
     /// The figures of `values` on `grid`; `None` when no cell has a value.
-    pub fn of(grid: &Grid, values: &[Option<f64>]) -> Option<Self> {
+    pub fn of(grid: &Grid, values: &CellValues) -> Option<Self> {
         crate::exposure::map_stats(grid, values, None, 0.0).map(|m| MapFigures {
             cells: m.cells,
             min: m.min,
@@ -65,16 +65,9 @@ impl MapFigures {
 #[serde(transparent)]
 pub(super) struct Values(#[serde(with = "serde_wasm_bindgen::preserve")] Float64Array);
 
-impl From<&[Option<f64>]> for Values {
-    fn from(values: &[Option<f64>]) -> Self {
-        let v: Vec<f64> = values.iter().map(|x| x.unwrap_or(f64::NAN)).collect();
-        Values(Float64Array::from(v.as_slice()))
-    }
-}
-
-impl From<&Vec<Option<f64>>> for Values {
-    fn from(values: &Vec<Option<f64>>) -> Self {
-        Values::from(values.as_slice())
+impl From<&CellValues> for Values {
+    fn from(values: &CellValues) -> Self {
+        Values(Float64Array::from(values.as_nan_coded()))
     }
 }
 

@@ -294,9 +294,16 @@ pub fn check_site_outputs(model: &SiteModel) -> Result<(), String> {
             };
             if let Ok(map) = sun_hours(&req, |_| true) {
                 finite("open hours", map.open_hours)?;
-                for h in map.hours.iter().flatten() {
-                    finite("a cell's hours", *h)?;
-                    if *h < -1e-9 || *h > map.open_hours + 1e-9 {
+                // Every cell inside the area has a number (a NaN would read as "no value").
+                for (h, &inside) in map.hours.iter().zip(&grid.inside) {
+                    let Some(h) = h else {
+                        if inside {
+                            return Err("a cell inside the area has no hours (NaN)".into());
+                        }
+                        continue;
+                    };
+                    finite("a cell's hours", h)?;
+                    if h < -1e-9 || h > map.open_hours + 1e-9 {
                         return Err(format!("a cell's {h} h is outside 0..{}", map.open_hours));
                     }
                 }

@@ -2,7 +2,7 @@
 //! area by area, with maps of the hours lost and the after / before ratio.
 
 use clap::{Args, ValueEnum};
-use sunlot::exposure::{before_after, map_stats, Massing, SunHoursRequest};
+use sunlot::exposure::{before_after, map_stats, CellValues, Massing, SunHoursRequest};
 use sunlot::rules::CAUTION;
 
 use crate::args::DeltaTArgs;
@@ -96,7 +96,7 @@ pub fn run(a: &CompareArgs) -> Result<String, String> {
     );
     for area in maps::pick_areas(model, &ids, "--area")? {
         let cover = grid.cover_of(&area.polygon);
-        let stats = |v: &[Option<f64>], th| map_stats(&grid, v, Some(&cover), th);
+        let stats = |v: &CellValues, th| map_stats(&grid, v, Some(&cover), th);
         let (Some(b), Some(af), Some(lost)) =
             (stats(&ba.before.hours, h * days as f64), stats(&ba.after.hours, h * days as f64), stats(&ba.lost_h, 0.0))
         else {

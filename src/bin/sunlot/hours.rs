@@ -1,7 +1,7 @@
 //! `sunlot hours`: hours of direct sun per cell over a site's areas.
 
 use clap::Args;
-use sunlot::exposure::{map_stats, sun_hours, Grid, SunHoursRequest};
+use sunlot::exposure::{map_stats, sun_hours, CellValues, Grid, SunHoursRequest};
 use sunlot::rules::CAUTION;
 use sunlot::site::SiteModel;
 
@@ -61,7 +61,7 @@ pub fn per_day(days: usize) -> &'static str {
 pub fn area_rows(
     model: &SiteModel,
     grid: &Grid,
-    values: &[Option<f64>],
+    values: &CellValues,
     ids: &[String],
     threshold: f64,
 ) -> Vec<Vec<Cell>> {

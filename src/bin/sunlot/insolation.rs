@@ -1,7 +1,7 @@
 //! `sunlot insolation`: clear-sky energy per cell (beam in direct sun plus diffuse by sky view).
 
 use clap::Args;
-use sunlot::exposure::{insolation, map_stats, InsolationRequest, DEFAULT_SKY_STEP_DEG};
+use sunlot::exposure::{insolation, map_stats, CellValues, InsolationRequest, DEFAULT_SKY_STEP_DEG};
 use sunlot::rules::CAUTION;
 
 use crate::args::{AirArgs, ClearSkyArgs, DeltaTArgs};
@@ -72,7 +72,7 @@ pub fn run(a: &InsolationArgs) -> Result<String, String> {
     );
     for area in maps::pick_areas(model, &a.grid.area, "--area")? {
         let cover = grid.cover_of(&area.polygon);
-        let stats = |v: &[Option<f64>]| map_stats(&grid, v, Some(&cover), 0.0);
+        let stats = |v: &CellValues| map_stats(&grid, v, Some(&cover), 0.0);
         let (Some(total), Some(beam), Some(diffuse), Some(svf), Some(hours)) = (
             stats(&map.total_kwh_m2),
             stats(&map.beam_kwh_m2),

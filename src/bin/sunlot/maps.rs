@@ -4,7 +4,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 use geo::{MultiPolygon, Polygon};
-use sunlot::exposure::{map_geojson, Grid, MapColumn, Period, Window, DEFAULT_MAX_CELLS};
+use sunlot::exposure::{map_geojson, CellValues, Grid, MapColumn, Period, Window, DEFAULT_MAX_CELLS};
 use sunlot::render::{draw_heat_map, HeatMap, FIGURE_PX};
 use sunlot::rules::CAUTION;
 use sunlot::site::SiteModel;
@@ -126,7 +126,7 @@ pub struct Layer<'a> {
     /// Column / property name with its unit, e.g. `sun_hours`.
     pub name: &'a str,
     /// Values per cell.
-    pub values: &'a [Option<f64>],
+    pub values: &'a CellValues,
 }
 
 /// The heat map's look: which layer, its unit and range, titles.
@@ -165,7 +165,7 @@ pub fn write_files(
                 }
                 let c = grid.centre(col, row);
                 let mut rec = vec![format!("{:.3}", c.x), format!("{:.3}", c.y)];
-                rec.extend(layers.iter().map(|l| l.values[i].map_or(String::new(), |v| format!("{v:.4}"))));
+                rec.extend(layers.iter().map(|l| l.values.get(i).map_or(String::new(), |v| format!("{v:.4}"))));
                 w.write_record(&rec).map_err(|e| e.to_string())?;
             }
         }
@@ -205,6 +205,6 @@ pub fn write_files(
 }
 
 /// The largest value of a map (at least `floor`), for a legend's top.
-pub fn top_of(values: &[Option<f64>], floor: f64) -> f64 {
-    values.iter().flatten().copied().fold(floor, f64::max)
+pub fn top_of(values: &CellValues, floor: f64) -> f64 {
+    values.values().fold(floor, f64::max)
 }
