@@ -49,7 +49,7 @@ impl CellValues {
 
 impl PartialEq for CellValues {
     fn eq(&self, other: &Self) -> bool {
-        self.len() == other.len() && self.iter().eq(other.iter())
+        self.iter().eq(other.iter())
     }
 }
 
