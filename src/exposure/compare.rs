@@ -119,13 +119,21 @@ pub fn before_after(
     };
     let before = run(Massing::Existing, &mut |f| progress(0.5 * f))?;
     let after = run(Massing::WithProposed, &mut |f| progress(0.5 + 0.5 * f))?;
-    let pairs = || before.hours.iter().zip(after.hours.iter());
-    let lost_h = pairs().map(|(b, a)| Some((b? - a?).max(0.0))).collect();
-    let ratio = pairs()
-        .map(|(b, a)| match (b, a) {
-            (Some(b), Some(a)) if b > 0.0 => Some(a / b),
-            _ => None,
-        })
-        .collect();
-    Ok(BeforeAfter { before, after, lost_h, ratio })
+    Ok(BeforeAfter::of(before, after))
+}
+
+impl BeforeAfter {
+    /// The comparison of two maps of the same grid and period: `before` for the existing massing
+    /// alone, `after` with the proposal.
+    pub fn of(before: SunHours, after: SunHours) -> Self {
+        let pairs = || before.hours.iter().zip(after.hours.iter());
+        let lost_h = pairs().map(|(b, a)| Some((b? - a?).max(0.0))).collect();
+        let ratio = pairs()
+            .map(|(b, a)| match (b, a) {
+                (Some(b), Some(a)) if b > 0.0 => Some(a / b),
+                _ => None,
+            })
+            .collect();
+        BeforeAfter { before, after, lost_h, ratio }
+    }
 }

@@ -37,7 +37,7 @@ pub use raster::{polygon_row_spans, RowSpans};
 pub use shade::Massing;
 pub use sky_view::{sky_patches, sky_view_at, sky_view_map, SkyPatch, DEFAULT_SKY_STEP_DEG};
 pub(crate) use sun_hours::step_offset;
-pub use sun_hours::{sun_hours, SunHours, SunHoursRequest, MIN_CAST_ALTITUDE_DEG};
+pub use sun_hours::{sun_hours, sunlit_ms, StepShare, SunHours, SunHoursRequest, SunlitMs, MIN_CAST_ALTITUDE_DEG};
 pub use tile_file::{read_tile, stitch_tiles, tile_bytes, TileFileError, TileValues, TILE_HEADER_BYTES, TILE_MAGIC};
 pub use tiles::{massing_near, shadow_halo, shadow_halo_m, Halo};
 pub use timeline::{day_timeline, Interval, Timeline};

@@ -54,6 +54,67 @@ pub struct SunHours {
     pub steps: usize,
 }
 
+/// One of `of` interleaved shares of a period's casting steps: the `k`-th step that casts (counted
+/// from the first date's first step) belongs to share `k % of`. The shares of a map can be computed
+/// apart (one per worker) and joined exactly ([`SunlitMs::join`]); interleaving gives each share
+/// about as many steps of every season and hour as the others.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct StepShare {
+    /// Which share, `0..of`.
+    pub index: usize,
+    /// How many shares.
+    pub of: usize,
+}
+
+impl StepShare {
+    /// Every step.
+    pub const WHOLE: StepShare = StepShare { index: 0, of: 1 };
+
+    /// Whether the `k`-th casting step is this share's.
+    fn takes(self, k: usize) -> bool {
+        k % self.of.max(1) == self.index
+    }
+}
+
+/// Milliseconds of direct sun per cell over a share of a period's steps: whole numbers of
+/// milliseconds, so the shares' sums are the whole period's exactly and [`SunlitMs::hours`] of the
+/// joined shares equals [`sun_hours`] bit for bit.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SunlitMs {
+    /// Milliseconds per cell, row-major as the grid; NaN outside the area.
+    pub ms: Vec<f64>,
+    /// Milliseconds an unobstructed cell gets over the same steps.
+    pub open_ms: f64,
+    /// Sun-up steps cast.
+    pub steps: usize,
+}
+
+impl SunlitMs {
+    /// The shares of one map (each over the same grid) summed cell by cell; `None` when there are no
+    /// shares or their grids differ in size.
+    pub fn join(shares: impl IntoIterator<Item = SunlitMs>) -> Option<SunlitMs> {
+        let mut it = shares.into_iter();
+        let mut whole = it.next()?;
+        for s in it {
+            if s.ms.len() != whole.ms.len() {
+                return None;
+            }
+            whole.ms.iter_mut().zip(&s.ms).for_each(|(a, b)| *a += b);
+            whole.open_ms += s.open_ms;
+            whole.steps += s.steps;
+        }
+        Some(whole)
+    }
+
+    /// The hours of direct sun (formed in the milliseconds' own storage).
+    pub fn hours(self) -> SunHours {
+        let mut ms = self.ms;
+        // NaN (outside the area) stays NaN: `max` would turn it into 0.
+        ms.iter_mut().filter(|h| !h.is_nan()).for_each(|h| *h = (*h / 3.6e6).max(0.0));
+        SunHours { hours: CellValues::from_nan_coded(ms), open_hours: self.open_ms / 3.6e6, steps: self.steps }
+    }
+}
+
 /// The shadow offset per metre for a step's sun in `model`'s plan frame, cast no lower than
 /// [`MIN_CAST_ALTITUDE_DEG`]; `None` when the sun is behind the receiving plane.
 pub(crate) fn step_offset(model: &SiteModel, receiver: &Receiver, s: &Step) -> Option<Coord<f64>> {
@@ -119,7 +180,23 @@ pub(crate) fn for_each_day(
 /// # Errors
 /// [`ExposureError`] for an empty or inverted window, a bad step, plane or date range (before any
 /// work), or a cancelled run.
-pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -> Result<SunHours, ExposureError> {
+pub fn sun_hours(req: &SunHoursRequest, progress: impl FnMut(f64) -> bool) -> Result<SunHours, ExposureError> {
+    sunlit_ms(req, StepShare::WHOLE, progress).map(SunlitMs::hours)
+}
+
+/// Milliseconds of direct sun per cell over `share` of the period's casting steps (see [`StepShare`]);
+/// [`sun_hours`] is the whole period's. `progress` as for [`sun_hours`].
+///
+/// # Errors
+/// As [`sun_hours`]; a share with `index` not below `of` is refused.
+pub fn sunlit_ms(
+    req: &SunHoursRequest,
+    share: StepShare,
+    mut progress: impl FnMut(f64) -> bool,
+) -> Result<SunlitMs, ExposureError> {
+    if share.of == 0 || share.index >= share.of {
+        return Err(ExposureError::Period(format!("step share {} of {} is not a share", share.index, share.of)));
+    }
     req.period.check(req.model, req.delta_t)?;
     req.period.check_work(req.grid.inside_count())?;
     check_plane(req.plane_m)?;
@@ -128,12 +205,15 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
     let mut sums = ShadeSums::<1>::new(model, g, receiver, req.massing);
     // Weights in whole milliseconds: sums of integers are exact in f64, so a tile's cells equal the
     // whole map's bit for bit whatever the order of the sums.
-    let (mut open_ms, mut steps) = (0.0_f64, 0_usize);
+    let (mut open_ms, mut steps, mut casting) = (0.0_f64, 0_usize, 0_usize);
     let mut batch: Vec<Cast<1>> = Vec::new();
     for_each_day(model, &req.period, req.delta_t, &mut progress, |_, day| {
         for s in &day {
             if let Some(o) = step_offset(model, &receiver, s) {
-                batch.push((o, [(s.dt_s * 1e3).round()]));
+                if share.takes(casting) {
+                    batch.push((o, [(s.dt_s * 1e3).round()]));
+                }
+                casting += 1;
             }
         }
         if batch.len() >= 256 {
@@ -147,12 +227,12 @@ pub fn sun_hours(req: &SunHoursRequest, mut progress: impl FnMut(f64) -> bool) -
     open_ms += batch.iter().map(|c| c.1[0]).sum::<f64>();
     steps += batch.len();
     sums.add(&batch);
-    // The hours are formed in the shaded totals' own storage (no second map in memory).
-    let [mut hours] = sums.finish();
-    for (h, &inside) in hours.iter_mut().zip(&g.inside) {
-        *h = if inside { ((open_ms - *h) / 3.6e6).max(0.0) } else { f64::NAN };
+    // The sunlit time is formed in the shaded totals' own storage (no second map in memory).
+    let [mut ms] = sums.finish();
+    for (t, &inside) in ms.iter_mut().zip(&g.inside) {
+        *t = if inside { open_ms - *t } else { f64::NAN };
     }
-    Ok(SunHours { hours: CellValues::from_nan_coded(hours), open_hours: open_ms / 3.6e6, steps })
+    Ok(SunlitMs { ms, open_ms, steps })
 }
 
 #[cfg(test)]
