@@ -86,7 +86,7 @@ const report = await page.evaluate(async HANG_MS => {
     mapOfKind: [{ kind: "lost", site, date: "2026-03-20" }, (m, i) => m.mapOfKind(i)],
     mapOfKindPart: [{ kind: "lost", site, date: "2026-03-20", part: { index: 1, of: 2 } }, (m, i) => m.mapOfKind(i)],
     joinMapParts: [{ kind: "lost", site, date: "2026-03-20", openValue: 12 },
-                   (m, i) => m.joinMapParts(i, lostValues ||= m.mapOfKind({ kind: "lost", site, date: "2026-03-20" }).values)],
+                   (m, i) => m.joinMapParts(i, lostValues ||= m.mapOfKind({ kind: "lost", site, date: "2026-03-20", part: { index: 0, of: 1 } }).values)],
     massingViewer: [{ text: site }, (m, i) => new m.MassingViewer(i.text).free()],
     massingDraw: [{ localTime: "2026-03-20T15:00", fromDeg: 210, elevationDeg: 35, perspectiveM: 120,
                     palette: { ink: "#000000", paper: "#ffffff" } },

@@ -57,7 +57,7 @@ const made = await page.evaluate(async () => {
     ...m.mapKinds().map(k => ["mapOfKind", { kind: k.id, site, date: "2026-03-21" }, i => m.mapOfKind(i)]),
     ["mapOfKind", { kind: "lost", site, date: "2026-03-21", part: { index: 1, of: 2 } }, i => m.mapOfKind(i)],
     ["joinMapParts", { kind: "lost", site, date: "2026-03-21", openValue: 12 },
-     i => m.joinMapParts(i, m.mapOfKind({ kind: "lost", site, date: "2026-03-21" }).values)],
+     i => m.joinMapParts(i, m.mapOfKind({ kind: "lost", site, date: "2026-03-21", part: { index: 0, of: 1 } }).values)],
     ["facadeMap", { site, volume: "terrace-east", date: "2026-03-21", stepMin: 30, cellM: 2, massing: "existing", show: "lost" },
      i => m.facadeMap(i)],
     ["drawFacade", { site, volume: "house-9", date: "2026-03-21", stepMin: 60, cellM: 3 }, i => m.drawFacade(canvas(), i)],

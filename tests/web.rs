@@ -620,8 +620,9 @@ fn map_kinds_give_the_maps_of_their_explicit_requests() {
     assert!(error_message(unknown).starts_with("kind: \"shade\" is not one of sun-hours"));
 }
 
-/// The page's map workers: `mapOfKind` with `part` computes a row band, `joinMapParts` joins the bands'
-/// values into what the whole call gives, bit for bit, with the same grid, range and figures.
+/// The page's map workers: `mapOfKind` with `part` computes a part (a share of the steps for the sun
+/// hours and hours lost, a band of rows for insolation), `joinMapParts` joins the parts' values into
+/// what the whole call gives, bit for bit, with the same grid, range, figures and open value.
 #[wasm_bindgen_test]
 fn map_parts_joined_equal_the_whole_map() {
     let site = demo_site_js();
@@ -646,12 +647,23 @@ fn map_parts_joined_equal_the_whole_map() {
         let whole = call("");
         let parts: Vec<JsValue> = (0..3).map(|i| call(&format!(r#", "part": {{"index": {i}, "of": 3}}"#))).collect();
         let mut values = Vec::new();
+        let cells = num(&get(&whole, "grid"), "rows") * num(&get(&whole, "grid"), "cols");
         for p in &parts {
             assert!(num(&get(p, "grid"), "rows") > 0.0, "{kind}: an empty band");
-            values.extend(js_sys::Float64Array::from(get(p, "values")).to_vec());
+            let v = js_sys::Float64Array::from(get(p, "values")).to_vec();
+            // A share of the steps: every cell's milliseconds (each massing's for the hours lost)
+            // and the share's open milliseconds.
+            match kind {
+                "sun-hours" => assert_eq!(v.len() as f64, cells + 1.0, "{kind}"),
+                "lost" => assert_eq!(v.len() as f64, 2.0 * cells + 1.0, "{kind}"),
+                _ => assert!((v.len() as f64) < cells, "{kind}: a band"),
+            }
+            values.extend(v);
         }
         let open = num(&parts[0], "openValue");
-        assert_eq!(open, num(&whole, "openValue"), "{kind}");
+        if kind == "insolation" {
+            assert_eq!(open, num(&whole, "openValue"), "{kind}");
+        }
         let joined = sunlot::web::join_map_parts(
             js(&format!(r#"{{"kind": "{kind}", "site": {site}, "date": "{date}", "openValue": {open}}}"#)),
             &values,
@@ -663,7 +675,7 @@ fn map_parts_joined_equal_the_whole_map() {
         );
         assert_eq!(a.len(), b.len(), "{kind}");
         assert!(a.iter().zip(&b).all(|(x, y)| x == y || (x.is_nan() && y.is_nan())), "{kind}: joined values differ");
-        for key in ["grid", "rangeTop", "stats", "caption"] {
+        for key in ["grid", "rangeTop", "stats", "caption", "openValue"] {
             assert_eq!(
                 JSON::stringify(&get(&joined, key)).unwrap(),
                 JSON::stringify(&get(&whole, key)).unwrap(),
@@ -682,7 +694,7 @@ fn map_parts_joined_equal_the_whole_map() {
             None,
         ))
     };
-    assert!(bad(r#", "part": {"index": 2, "of": 2}"#, "sun-hours").starts_with("part: index 2 of 2 is not a band"));
+    assert!(bad(r#", "part": {"index": 2, "of": 2}"#, "sun-hours").starts_with("part: index 2 of 2 is not a part"));
     assert!(bad(r#", "part": {"index": 0, "of": 0}"#, "sun-hours").starts_with("part: index 0 of 0"));
     assert!(bad(r#", "part": {"index": 0, "of": 2}"#, "envelope")
         .starts_with("part: the map \"envelope\" is computed whole"));

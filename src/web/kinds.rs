@@ -6,11 +6,14 @@ use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
 use super::maps::{
-    compare_of, date, envelope_of, insolation_of, progress, sun_hours_of, EnvelopeIn, InsolationIn, MapIn,
+    compare_of, date, envelope_of, insolation_of, progress, sun_hours_of, sunlit_share_of, EnvelopeIn, InsolationIn,
+    MapIn,
 };
 use super::outputs::{GridGeometry, MapFigures, Values};
 use super::{read, site, write};
-use crate::exposure::{map_kind, CellValues, Grid, MapCall, MapKind, MapSpan, Period, MAP_KINDS};
+use crate::exposure::{
+    map_kind, BeforeAfter, CellValues, Grid, MapCall, MapKind, MapSpan, Massing, Period, StepShare, SunlitMs, MAP_KINDS,
+};
 
 /// A row of `mapKinds` (`MapKindInfo`).
 #[derive(Serialize)]
@@ -26,14 +29,14 @@ struct KindInfo {
     span: &'static str,
     cell_m: f64,
     step_min: u32,
-    /// Whether `mapOfKind` computes the kind in row bands (`part`) that `joinMapParts` joins into
-    /// the whole map exactly.
+    /// Whether `mapOfKind` computes the kind in parts (`part`) that `joinMapParts` joins into the
+    /// whole map exactly.
     parts: bool,
 }
 
 /// The map kinds, in menu order: `[{id, title, label, unit, column, menu, span, cellM, stepMin, parts}]`;
 /// `menu` is the text of the kind's choice in a page's menu of maps (`null`: not offered there);
-/// `parts`: whether the kind can be computed in row bands by several workers.
+/// `parts`: whether the kind can be computed in parts by several workers.
 #[wasm_bindgen(js_name = mapKinds, unchecked_return_type = "MapKindInfo[]")]
 pub fn map_kinds() -> Result<JsValue, JsError> {
     let rows: Vec<KindInfo> = MAP_KINDS
@@ -54,14 +57,21 @@ pub fn map_kinds() -> Result<JsValue, JsError> {
     write(&rows)
 }
 
-/// Whether a kind is computed in row bands that join exactly: the sun-hours, hours-lost and
-/// insolation maps (each cell's value depends on its own centre alone; tests/exposure_checks.rs
-/// checks the bands against the whole map). The envelope is not split.
+/// Whether a kind is computed in parts that join exactly: the sun-hours and hours-lost maps in shares
+/// of the period's steps ([`StepShare`]: each part casts a share of the directions over every cell,
+/// so no work is done twice), the insolation map in row bands ([`Grid::row_band`]: its diffuse sum
+/// runs over every step in order); tests/exposure_checks.rs checks both joins against the whole map.
+/// The envelope is not split.
 fn splits(kind: &MapKind) -> bool {
     !matches!(kind.call, MapCall::Envelope)
 }
 
-/// The most bands a map is split into (one per worker; more gains nothing on a laptop).
+/// Whether a kind's parts are shares of its steps (else row bands).
+fn splits_by_steps(kind: &MapKind) -> bool {
+    matches!(kind.call, MapCall::SunHours(_) | MapCall::Lost)
+}
+
+/// The most parts a map is split into (one per worker; more gains nothing on a laptop).
 const MAX_PARTS: usize = 16;
 
 #[derive(Deserialize)]
@@ -71,7 +81,7 @@ struct KindIn {
     site: String,
     /// The date the page shows, YYYY-MM-DD (a year's kind covers its calendar year).
     date: String,
-    /// Only row band `index` of `of` ([`crate::exposure::Grid::row_band`]).
+    /// Only part `index` of `of` (see [`splits`]).
     part: Option<PartIn>,
 }
 
@@ -93,9 +103,11 @@ struct KindMap {
     column: &'static str,
     /// The period in words and the cell size ([`MapKind::caption`]).
     caption: String,
-    /// The cells computed: the whole grid, or the band a `part` asked for.
+    /// The cells computed: the whole grid, or the band a `part` of a kind split by rows asked for.
     grid: GridGeometry,
-    /// The kind's values per cell (hours, hours lost, kWh/m², envelope metres).
+    /// The kind's values per cell (hours, hours lost, kWh/m², envelope metres). A `part` of a kind
+    /// split by steps gives what `joinMapParts` sums instead: each massing's milliseconds of sun per
+    /// cell (the existing massing's first for the hours lost), then the share's open milliseconds.
     values: Values,
     /// End of the colour range ([`MapKind::range_top`]); it starts at 0.
     range_top: f64,
@@ -131,7 +143,8 @@ fn kind_map(kind: &'static MapKind, period: &Period, grid: &Grid, values: &CellV
 
 /// Computes the map `kind` (a `mapKinds` id) of `site` for `date`: `{kind, title, label, unit, column,
 /// caption, grid, values: Float64Array, rangeTop, stats, openValue}`. With `part: {index, of}` only
-/// row band `index` of `of` is computed (kinds with `parts` in `mapKinds`), for `joinMapParts`.
+/// part `index` of `of` is computed (kinds with `parts` in `mapKinds`: a share of the steps or a band
+/// of rows, see [`splits`]), for `joinMapParts`.
 /// `onProgress(f)` gets the fraction done and may return `false` to cancel.
 #[wasm_bindgen(js_name = mapOfKind, unchecked_return_type = "KindMap")]
 pub fn map_of_kind(
@@ -144,7 +157,7 @@ pub fn map_of_kind(
         None => None,
         Some(p) if p.of == 0 || p.of > MAX_PARTS || p.index >= p.of => {
             return Err(JsError::new(&format!(
-                "part: index {} of {} is not a band (of: 1 to {MAX_PARTS}, index: 0 to of − 1)",
+                "part: index {} of {} is not a part (of: 1 to {MAX_PARTS}, index: 0 to of − 1)",
                 p.index, p.of
             )))
         }
@@ -153,7 +166,29 @@ pub fn map_of_kind(
         }
         Some(p) => Some((p.index, p.of)),
     };
-    let progress = progress(&on_progress);
+    let mut progress = progress(&on_progress);
+    if let (Some((index, of)), true) = (band, splits_by_steps(kind)) {
+        let (share, m) = (StepShare { index, of }, MapIn::of_kind(kind, i.site.clone(), &period));
+        let (grid, mut values, open_ms) = match kind.call {
+            MapCall::SunHours(massing) => {
+                let (grid, s) = sunlit_share_of(&m, massing, false, share, &mut progress)?;
+                (grid, s.ms, s.open_ms)
+            }
+            _ => {
+                let (grid, before) = sunlit_share_of(&m, Massing::Existing, true, share, |f| progress(0.5 * f))?;
+                let (_, after) = sunlit_share_of(&m, Massing::WithProposed, true, share, |f| progress(0.5 + 0.5 * f))?;
+                (grid, [before.ms, after.ms].concat(), before.open_ms)
+            }
+        };
+        values.push(open_ms);
+        return write(&KindMap {
+            values: Values::from(&CellValues::from_nan_coded(values)),
+            stats: None,
+            range_top: f64::NAN,
+            open_value: open_ms / 3.6e6,
+            ..kind_map(kind, &period, &grid, &CellValues::default(), f64::NAN)
+        });
+    }
     let map_in = || {
         let mut m = MapIn::of_kind(kind, i.site.clone(), &period);
         m.band = band;
@@ -182,19 +217,58 @@ pub fn map_of_kind(
     write(&kind_map(kind, &period, &grid, &values, open))
 }
 
+/// The whole map of a kind split by steps from its parts' values one after the other (see
+/// [`KindMap::values`]): the shares' milliseconds summed cell by cell, then turned into hours (and
+/// for the hours lost, compared) exactly as the whole map's.
+fn join_step_shares(kind: &'static MapKind, period: &Period, grid: &Grid, values: &[f64]) -> Result<JsValue, JsError> {
+    let n = grid.rows * grid.cols;
+    let maps = if kind.call == MapCall::Lost { 2 } else { 1 };
+    let per = maps * n + 1;
+    let of = values.len() / per;
+    if values.len() % per != 0 || !(1..=MAX_PARTS).contains(&of) {
+        return Err(JsError::new(&format!(
+            "values: {} given; the parts of the map of {:?} give {per} each ({maps} × {n} cells and the open \
+             milliseconds), 1 to {MAX_PARTS} parts",
+            values.len(),
+            kind.id
+        )));
+    }
+    // Each massing's shares joined: the parts' cells of that massing and their open milliseconds.
+    let joined = |m: usize| {
+        SunlitMs::join(values.chunks_exact(per).map(|part| SunlitMs {
+            ms: part[m * n..(m + 1) * n].iter().map(|&v| if v.is_finite() { v } else { f64::NAN }).collect(),
+            open_ms: part[per - 1],
+            steps: 0,
+        }))
+        .expect("at least one part")
+        .hours()
+    };
+    let (cells, open) = if maps == 2 {
+        let ba = BeforeAfter::of(joined(0), joined(1));
+        let open = ba.before.open_hours;
+        (ba.lost_h, open)
+    } else {
+        let h = joined(0);
+        (h.hours, h.open_hours)
+    };
+    write(&kind_map(kind, period, grid, &cells, open))
+}
+
 #[derive(Deserialize)]
 #[serde(rename_all = "camelCase", deny_unknown_fields)]
 struct JoinIn {
     kind: String,
     site: String,
     date: String,
-    /// `openValue` of the parts (one period, so every part's is the same).
+    /// `openValue` of the parts of a kind split by rows (one period, so every part's is the same);
+    /// the parts of a kind split by steps carry their own.
     open_value: Option<f64>,
 }
 
 /// The whole map from its parts: `joinMapParts({kind, site, date, openValue}, values)`, `values` the
-/// parts' values one after the other, band 0 first (NaN where a cell has none). Gives what
-/// `mapOfKind` gives for the whole grid: its geometry, the colour range and figures over every cell.
+/// parts' values one after the other, part 0 first (NaN where a cell has none). Gives what
+/// `mapOfKind` gives for the whole grid, bit for bit: its geometry, values, the colour range and
+/// figures over every cell.
 #[wasm_bindgen(js_name = joinMapParts, unchecked_return_type = "KindMap")]
 pub fn join_map_parts(
     #[wasm_bindgen(unchecked_param_type = "JoinInput")] input: JsValue,
@@ -206,6 +280,9 @@ pub fn join_map_parts(
         return Err(JsError::new(&format!("kind: the map {:?} is computed whole, not in parts", kind.id)));
     }
     let (_, grid, _, _) = MapIn::of_kind(kind, i.site, &period).parts_over(kind.call == MapCall::Lost)?;
+    if splits_by_steps(kind) {
+        return join_step_shares(kind, &period, &grid, values);
+    }
     if values.len() != grid.rows * grid.cols {
         return Err(JsError::new(&format!(
             "values: {} cells given, the map of {:?} has {} ({} × {})",

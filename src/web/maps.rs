@@ -50,8 +50,8 @@ pub(super) struct MapIn {
     /// "existing" or "withProposed" (default).
     massing: Option<String>,
     max_cells: Option<usize>,
-    /// Band `index` of `of` of the grid's rows ([`Grid::row_band`]): set by `mapOfKind`'s `part`,
-    /// never read from the caller's object.
+    /// Band `index` of `of` of the grid's rows ([`Grid::row_band`]): set by `mapOfKind`'s `part` for
+    /// the kinds split by rows, never read from the caller's object.
     #[serde(skip)]
     pub(super) band: Option<(usize, usize)>,
 }
@@ -162,6 +162,20 @@ pub(super) fn compare_of(
     let (model, grid, period, _) = i.parts_over(true)?;
     let ba = before_after(&i.request(&model, &grid, period, Massing::WithProposed), progress).map_err(err)?;
     Ok((grid, period, ba))
+}
+
+/// Milliseconds of direct sun per cell over a share of an input's steps ([`crate::exposure::StepShare`])
+/// for `massing`; with `beside_lots` and no areas named, over every area but the lots.
+pub(super) fn sunlit_share_of(
+    i: &MapIn,
+    massing: Massing,
+    beside_lots: bool,
+    share: crate::exposure::StepShare,
+    progress: impl FnMut(f64) -> bool,
+) -> Result<(Grid, crate::exposure::SunlitMs), JsError> {
+    let (model, grid, period, _) = i.parts_over(beside_lots)?;
+    let ms = crate::exposure::sunlit_ms(&i.request(&model, &grid, period, massing), share, progress).map_err(err)?;
+    Ok((grid, ms))
 }
 
 /// Clear-sky insolation an input asks for, on its grid, over its period.

@@ -4,7 +4,7 @@ import { mapCsv } from "./helpers.mjs";
 import { FIGURE, SunlotFigure } from "./figure.mjs";
 import { CancelledError, runInWorker } from "./worker.mjs";
 
-/** The most workers one map is split over (each computes a band of rows; more gains little). */
+/** The most workers one map is split over (each computes a part of it; more gains little). */
 const MAX_WORKERS = 4;
 const KINDS = new WeakMap();
 
@@ -18,7 +18,8 @@ function workersFor(module, kind) {
 
 /**
  * Computes the map `kind` (one of the module's mapKinds) of `site` for `date` in Web Workers (a kind
- * with `parts` in row bands, one worker per core, joined exactly by the module's joinMapParts);
+ * with `parts` in parts — shares of its time steps or bands of rows, as the module decides — one
+ * worker per core, joined exactly by the module's joinMapParts);
  * returns { promise, cancel } with promise → the module's KindMap (kind, title, label, unit, column,
  * caption, grid, values, rangeTop, stats, openValue) and `layer`, a PlanLayer of it;
  * `onProgress(fraction)` is called as it goes.
@@ -38,7 +39,7 @@ export function computeMap(module, kind, site, date, onProgress) {
     const values = new Float64Array(parts.reduce((a, p) => a + p.values.length, 0));
     let at = 0;
     for (const p of parts) { values.set(p.values, at); at += p.values.length; }
-    return { ...module.joinMapParts({ kind, site, date, openValue: parts[0].openValue }, values), values };
+    return module.joinMapParts({ kind, site, date, openValue: parts[0].openValue }, values);
   }, e => { cancel(); throw e; });
   const promise = whole.then(map => ({
     ...map,

@@ -386,7 +386,7 @@ sunlot.ready.then(async module => {
   // (A hidden tab runs no animation frames: then it goes on after a tenth of a second.)
   await new Promise(resolve => { requestAnimationFrame(() => setTimeout(resolve, 0)); setTimeout(resolve, 100); });
   try { summary(); } catch (e) { showError(e); }
-  // Workers for the maps, booted ahead (one per band a map is split into), so a change of map or
+  // Workers for the maps, booted ahead (one per part a map is split into), so a change of map or
   // date skips their start-up.
   sunlot.startWorkersAhead(Math.min(4, navigator.hardwareConcurrency || 1));
   // The 3-D view (below the plan) after the first drawing: its scene is built once per site.
