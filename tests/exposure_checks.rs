@@ -173,34 +173,41 @@ fn row_bands_stitched_equal_the_whole_map_exactly_for_every_kind_the_page_splits
 
 #[test]
 fn step_shares_joined_equal_the_whole_map_bit_for_bit() {
-    // The page's map workers each cast one interleaved share of the period's steps (StepShare) of the
-    // sun-hours and lost-hours maps; the shares' sunlit milliseconds are whole numbers, so summed they
-    // are the whole period's exactly, and the hours and the comparison formed from them equal the
-    // maps computed whole, bit for bit (f64 equality of every cell, NaN outside).
+    // The page's map workers each cast one interleaved share of the period's steps (StepShare: by
+    // days when the period has at least as many days as shares, else by steps) of the sun-hours and
+    // lost-hours maps; the shares' sunlit milliseconds are whole numbers, so summed they are the whole
+    // period's exactly, and the hours and the comparison formed from them equal the maps computed
+    // whole, bit for bit (f64 equality of every cell, NaN outside).
     use sunlot::exposure::{before_after, sunlit_ms, BeforeAfter, Massing, StepShare, SunlitMs, Window};
     let m = sunlot::demo::demo();
     let g = demo_grid(&m, 0.7);
     let date = NaiveDate::from_ymd_opt(2026, 11, 2).unwrap();
-    let period = Period { first: date, last: date + Duration::days(1), window: Window::Daylight, step_min: 11 };
-    let req = with_proposed(&m, &g, period);
-    let (whole, whole_ba) = (sun_hours(&req, |_| true).unwrap(), before_after(&req, |_| true).unwrap());
     let bits = |v: &CellValues| v.as_nan_coded().iter().map(|x| x.to_bits()).collect::<Vec<_>>();
-    for of in [2, 3, 7] {
-        let shares = |massing: Massing| -> SunlitMs {
-            let r = SunHoursRequest { massing, ..req.clone() };
-            let parts: Vec<SunlitMs> =
-                (0..of).map(|index| sunlit_ms(&r, StepShare { index, of }, |_| true).unwrap()).collect();
-            assert!(parts.iter().all(|p| p.steps > 0), "{of} shares: every share casts");
-            SunlitMs::join(parts).unwrap()
-        };
-        let joined = shares(Massing::WithProposed).hours();
-        assert_eq!(bits(&joined.hours), bits(&whole.hours), "{of} shares: sun hours");
-        assert_eq!(joined.open_hours.to_bits(), whole.open_hours.to_bits());
-        assert_eq!(joined.steps, whole.steps);
-        let ba = BeforeAfter::of(shares(Massing::Existing).hours(), joined);
-        assert_eq!(bits(&ba.lost_h), bits(&whole_ba.lost_h), "{of} shares: hours lost");
-        assert_eq!(bits(&ba.ratio), bits(&whole_ba.ratio), "{of} shares: ratio");
+    // Two days at 11 minutes (shared by days for 2 shares, by steps for 3 and 7), nine days at 30.
+    for (days, step_min, shares) in [(2, 11, vec![1, 2, 3, 7]), (9, 30, vec![2, 4])] {
+        let last = date + Duration::days(days - 1);
+        let period = Period { first: date, last, window: Window::Daylight, step_min };
+        let req = with_proposed(&m, &g, period);
+        let (whole, whole_ba) = (sun_hours(&req, |_| true).unwrap(), before_after(&req, |_| true).unwrap());
+        for of in shares {
+            let shares = |massing: Massing| -> SunlitMs {
+                let r = SunHoursRequest { massing, ..req.clone() };
+                let parts: Vec<SunlitMs> =
+                    (0..of).map(|index| sunlit_ms(&r, StepShare { index, of }, |_| true).unwrap()).collect();
+                assert!(parts.iter().all(|p| p.steps > 0), "{days} days, {of} shares: every share casts");
+                SunlitMs::join(parts).unwrap()
+            };
+            let joined = shares(Massing::WithProposed).hours();
+            assert_eq!(bits(&joined.hours), bits(&whole.hours), "{days} days, {of} shares: sun hours");
+            assert_eq!(joined.open_hours.to_bits(), whole.open_hours.to_bits());
+            assert_eq!(joined.steps, whole.steps);
+            let ba = BeforeAfter::of(shares(Massing::Existing).hours(), joined);
+            assert_eq!(bits(&ba.lost_h), bits(&whole_ba.lost_h), "{days} days, {of} shares: hours lost");
+            assert_eq!(bits(&ba.ratio), bits(&whole_ba.ratio), "{days} days, {of} shares: ratio");
+        }
     }
+    let period = Period { first: date, last: date, window: Window::Daylight, step_min: 30 };
+    let req = with_proposed(&m, &g, period);
     // A share that is not one is refused, not computed.
     assert!(sunlit_ms(&req, StepShare { index: 2, of: 2 }, |_| true).is_err());
     assert!(sunlit_ms(&req, StepShare { index: 0, of: 0 }, |_| true).is_err());

@@ -54,10 +54,12 @@ pub struct SunHours {
     pub steps: usize,
 }
 
-/// One of `of` interleaved shares of a period's casting steps: the `k`-th step that casts (counted
-/// from the first date's first step) belongs to share `k % of`. The shares of a map can be computed
-/// apart (one per worker) and joined exactly ([`SunlitMs::join`]); interleaving gives each share
-/// about as many steps of every season and hour as the others.
+/// One of `of` interleaved shares of a period's casting steps. A period of at least `of` days is
+/// shared by days: day `d` (0 for the first) belongs to share `d % of`, and a share computes the sun's
+/// steps of its own days only. A shorter period is shared by steps: the `k`-th step that casts
+/// (counted from the first date's first step) belongs to share `k % of`. The shares of a map can be
+/// computed apart (one per worker) and joined exactly ([`SunlitMs::join`]); interleaving gives each
+/// share about as much of every season or hour as the others.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct StepShare {
     /// Which share, `0..of`.
@@ -70,9 +72,14 @@ impl StepShare {
     /// Every step.
     pub const WHOLE: StepShare = StepShare { index: 0, of: 1 };
 
-    /// Whether the `k`-th casting step is this share's.
-    fn takes(self, k: usize) -> bool {
-        k % self.of.max(1) == self.index
+    /// Whether day `d` of a period of `days` days is computed for this share.
+    fn takes_day(self, d: usize, days: usize) -> bool {
+        days < self.of || d % self.of == self.index
+    }
+
+    /// Whether the `k`-th casting step of the days computed is this share's (period of `days` days).
+    fn takes_step(self, k: usize, days: usize) -> bool {
+        days >= self.of || k % self.of == self.index
     }
 }
 
@@ -138,12 +145,27 @@ pub(crate) fn for_each_day(
     period: &Period,
     delta_t: DeltaT,
     progress: &mut dyn FnMut(f64) -> bool,
+    day: impl FnMut(NaiveDate, Vec<Step>) -> Result<(), ExposureError>,
+) -> Result<(), ExposureError> {
+    for_each_day_of(model, period, delta_t, progress, |_| true, day)
+}
+
+/// As [`for_each_day`] for the dates whose index in the period (0 for the first) `take` accepts; the
+/// others' steps are not computed.
+fn for_each_day_of(
+    model: &SiteModel,
+    period: &Period,
+    delta_t: DeltaT,
+    progress: &mut dyn FnMut(f64) -> bool,
+    take: impl Fn(usize) -> bool,
     mut day: impl FnMut(NaiveDate, Vec<Step>) -> Result<(), ExposureError>,
 ) -> Result<(), ExposureError> {
     let mut eph = Ephemeris::new();
     let days = period.days();
     for (k, date) in period.dates().enumerate() {
-        day(date, period.steps_of(model, date, delta_t, &mut eph)?)?;
+        if take(k) {
+            day(date, period.steps_of(model, date, delta_t, &mut eph)?)?;
+        }
         if ((k + 1) % DAYS_PER_REPORT == 0 || k + 1 == days) && !progress((k + 1) as f64 / days as f64) {
             return Err(ExposureError::Cancelled);
         }
@@ -207,10 +229,12 @@ pub fn sunlit_ms(
     // whole map's bit for bit whatever the order of the sums.
     let (mut open_ms, mut steps, mut casting) = (0.0_f64, 0_usize, 0_usize);
     let mut batch: Vec<Cast<1>> = Vec::new();
-    for_each_day(model, &req.period, req.delta_t, &mut progress, |_, day| {
+    let days = req.period.days();
+    let take_day = |d| share.takes_day(d, days);
+    for_each_day_of(model, &req.period, req.delta_t, &mut progress, take_day, |_, day| {
         for s in &day {
             if let Some(o) = step_offset(model, &receiver, s) {
-                if share.takes(casting) {
+                if share.takes_step(casting, days) {
                     batch.push((o, [(s.dt_s * 1e3).round()]));
                 }
                 casting += 1;
