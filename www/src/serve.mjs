@@ -8,10 +8,15 @@
  * the WebAssembly.Module the page posts with the call, or none). Self-contained (its source is sent
  * to a Blob worker as it is). */
 export function serveWorker(boot) {
+  // A worker started ahead of its call runs a small map of the demo site once booted (a few
+  // milliseconds), so the browser has compiled the map code before the page's first long call.
+  const warmUp = m => {
+    try { m.sunHoursMap({ site: m.demoSiteText(), cellM: 4, date: "2026-06-21", stepMin: 60 }); } catch (err) { /* a warm-up only */ }
+  };
   let ready;
   self.onmessage = async e => {
     const m = await (ready ||= boot(e.data.compiled));
-    if (e.data.fn === undefined) return; // started ahead of its call: booted, it waits
+    if (e.data.fn === undefined) { warmUp(m); return; } // started ahead of its call: booted, it waits
     try {
       const out = m[e.data.fn](e.data.input, f => { self.postMessage({ progress: f }); return true; });
       // A map's cells go to the page as they are (moved, not copied).
