@@ -240,15 +240,15 @@ fn join_step_shares(kind: &'static MapKind, period: &Period, grid: &Grid, values
             open_ms: part[per - 1],
             steps: 0,
         }))
-        .expect("at least one part")
-        .hours()
+        .map(SunlitMs::hours)
+        .ok_or_else(|| JsError::new("values: no parts"))
     };
     let (cells, open) = if maps == 2 {
-        let ba = BeforeAfter::of(joined(0), joined(1));
+        let ba = BeforeAfter::of(joined(0)?, joined(1)?);
         let open = ba.before.open_hours;
         (ba.lost_h, open)
     } else {
-        let h = joined(0);
+        let h = joined(0)?;
         (h.hours, h.open_hours)
     };
     write(&kind_map(kind, period, grid, &cells, open))
