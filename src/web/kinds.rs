@@ -6,7 +6,7 @@ use serde::{Deserialize, Serialize};
 use wasm_bindgen::prelude::*;
 
 use super::maps::{
-    compare_of, date, envelope_of, insolation_of, progress, sun_hours_of, sunlit_share_of, EnvelopeIn, InsolationIn,
+    compare_of, date, envelope_of, insolation_of, progress, sun_hours_of, sunlit_shares_of, EnvelopeIn, InsolationIn,
     MapIn,
 };
 use super::outputs::{GridGeometry, MapFigures, Values};
@@ -166,20 +166,18 @@ pub fn map_of_kind(
         }
         Some(p) => Some((p.index, p.of)),
     };
-    let mut progress = progress(&on_progress);
-    if let (Some((index, of)), true) = (band, splits_by_steps(kind)) {
-        let (share, m) = (StepShare { index, of }, MapIn::of_kind(kind, i.site.clone(), &period));
-        let (grid, mut values, open_ms) = match kind.call {
-            MapCall::SunHours(massing) => {
-                let (grid, s) = sunlit_share_of(&m, massing, false, share, &mut progress)?;
-                (grid, s.ms, s.open_ms)
-            }
-            _ => {
-                let (grid, before) = sunlit_share_of(&m, Massing::Existing, true, share, |f| progress(0.5 * f))?;
-                let (_, after) = sunlit_share_of(&m, Massing::WithProposed, true, share, |f| progress(0.5 + 0.5 * f))?;
-                (grid, [before.ms, after.ms].concat(), before.open_ms)
-            }
+    let progress = progress(&on_progress);
+    if let Some((index, of)) = band.filter(|_| splits_by_steps(kind)) {
+        // The hours lost: the existing massing's share, then the proposal's; the same steps, so one
+        // open time.
+        let (massings, beside_lots) = match kind.call {
+            MapCall::SunHours(massing) => (vec![massing], false),
+            _ => (vec![Massing::Existing, Massing::WithProposed], true),
         };
+        let m = MapIn::of_kind(kind, i.site.clone(), &period);
+        let (grid, shares) = sunlit_shares_of(&m, &massings, beside_lots, StepShare { index, of }, progress)?;
+        let open_ms = shares.first().map_or(0.0, |s| s.open_ms);
+        let mut values: Vec<f64> = shares.into_iter().flat_map(|s| s.ms).collect();
         values.push(open_ms);
         return write(&KindMap {
             values: Values::from(&CellValues::from_nan_coded(values)),

@@ -165,17 +165,23 @@ pub(super) fn compare_of(
 }
 
 /// Milliseconds of direct sun per cell over a share of an input's steps ([`crate::exposure::StepShare`])
-/// for `massing`; with `beside_lots` and no areas named, over every area but the lots.
-pub(super) fn sunlit_share_of(
+/// for each of `massings` in turn (the site read once); with `beside_lots` and no areas named, over
+/// every area but the lots. Progress runs over the massings one after the other.
+pub(super) fn sunlit_shares_of(
     i: &MapIn,
-    massing: Massing,
+    massings: &[Massing],
     beside_lots: bool,
     share: crate::exposure::StepShare,
-    progress: impl FnMut(f64) -> bool,
-) -> Result<(Grid, crate::exposure::SunlitMs), JsError> {
+    mut progress: impl FnMut(f64) -> bool,
+) -> Result<(Grid, Vec<crate::exposure::SunlitMs>), JsError> {
     let (model, grid, period, _) = i.parts_over(beside_lots)?;
-    let ms = crate::exposure::sunlit_ms(&i.request(&model, &grid, period, massing), share, progress).map_err(err)?;
-    Ok((grid, ms))
+    let n = massings.len() as f64;
+    let mut out = Vec::with_capacity(massings.len());
+    for (k, &massing) in massings.iter().enumerate() {
+        let req = i.request(&model, &grid, period, massing);
+        out.push(crate::exposure::sunlit_ms(&req, share, |f| progress((k as f64 + f) / n)).map_err(err)?);
+    }
+    Ok((grid, out))
 }
 
 /// Clear-sky insolation an input asks for, on its grid, over its period.
