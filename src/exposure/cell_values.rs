@@ -90,11 +90,4 @@ mod tests {
         assert_ne!(a, vec![Some(1.0), Some(0.0)].into());
         assert_ne!(a, vec![Some(1.0)].into());
     }
-
-    #[test]
-    fn a_cell_takes_eight_bytes() {
-        assert_eq!(std::mem::size_of::<Option<f64>>(), 16);
-        let v = CellValues::from_nan_coded(vec![0.0; 1000]);
-        assert_eq!(std::mem::size_of_val(v.as_nan_coded()), 8 * 1000);
-    }
 }
